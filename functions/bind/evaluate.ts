@@ -1,0 +1,165 @@
+/**
+ * Runs a worksheet function from its spec: reads each raw worksheet argument into base units
+ * (or a choice, or a unit name), calls the calc core, and converts the result to the requested
+ * unit. Pure: no Office, no DOM. The worksheet binding and the pane both use it.
+ */
+import { CalcError } from "../calc/_lib/result";
+import type { Args, FunctionSpec, ParamSpec } from "../catalog/types";
+import { resultDimension } from "../catalog/types";
+import { type Dimension, DIMENSIONS, hasUnit } from "../units/dimensions";
+import { fromBase, parseNumberText, parseQuantity } from "../units/quantity";
+
+/** A value as Excel hands it to a custom function. */
+export type RawArg = number | string | boolean | null | undefined | RawArg[][];
+
+/** How one argument was read, for the pane and the audit. */
+export interface ArgReading {
+  name: string;
+  raw: RawArg;
+  /** Base-unit number, choice word or unit name. */
+  value: number | string;
+  /** Unit the argument was read in ("" for plain numbers and words). */
+  unit: string;
+  how: "base unit" | "text quantity" | "percent" | "default" | "word" | "unit name";
+}
+
+export interface Evaluation {
+  value: number;
+  /** Result dimension and the unit the value is expressed in. */
+  dim: Dimension;
+  unit: string;
+  warnings: string[];
+  readings: ArgReading[];
+}
+
+const MAX_TEXT = 200;
+
+function describeParam(p: ParamSpec): string {
+  switch (p.kind) {
+    case "quantity":
+      return hasUnit(p.dim)
+        ? `${DIMENSIONS[p.dim].noun}: a bare number in ${DIMENSIONS[p.dim].baseLabel} or text such as ${DIMENSIONS[p.dim].example}`
+        : `${DIMENSIONS[p.dim].noun} such as ${DIMENSIONS[p.dim].example}`;
+    case "choice":
+      return `one of ${p.options.map((o) => `"${o}"`).join(", ")}`;
+    case "unit":
+      return 'a unit name such as "ft" or "kPa"';
+    case "anyQuantity":
+      return "a number or text quantity";
+  }
+}
+
+function isMissing(raw: RawArg): boolean {
+  return raw === null || raw === undefined || (typeof raw === "string" && raw.trim() === "");
+}
+
+/** A single cell's value from a scalar argument; a 1×1 range is unwrapped. */
+function scalar(p: ParamSpec, raw: RawArg): Exclude<RawArg, RawArg[][]> {
+  if (Array.isArray(raw)) {
+    if (raw.length === 1 && Array.isArray(raw[0]) && raw[0].length === 1 && !Array.isArray(raw[0][0])) return raw[0][0] as Exclude<RawArg, RawArg[][]>;
+    throw new CalcError(p.name, `expected a single value, got a range: ${describeParam(p)}`, "value");
+  }
+  return raw;
+}
+
+function readQuantity(p: ParamSpec, raw: number | string | boolean, dim: Dimension): ArgReading {
+  if (typeof raw === "boolean") throw new CalcError(p.name, `expected ${describeParam(p)}; got ${String(raw).toUpperCase()}`, "value");
+  if (typeof raw === "number") {
+    if (!Number.isFinite(raw)) throw new CalcError(p.name, `expected a finite number; got ${raw}`, "num");
+    if (dim === "efficiency" && raw > 1) {
+      throw new CalcError(p.name, `expected a fraction from 0 to 1 (0.78) or percent text ("78%"); got ${raw}, which is not divided by 100 for you`, "num");
+    }
+    return { name: p.name, raw, value: raw, unit: DIMENSIONS[dim].base, how: "base unit" };
+  }
+  if (raw.length > MAX_TEXT) throw new CalcError(p.name, `text of ${raw.length} characters is too long for ${DIMENSIONS[dim].noun}`, "value");
+  const q = parseQuantity(p.name, raw, dim);
+  if (q.unit === "" && dim === "efficiency" && q.base > 1) {
+    throw new CalcError(p.name, `expected a fraction from 0 to 1 (0.78) or percent text ("78%"); got ${raw}, which is not divided by 100 for you`, "num");
+  }
+  return {
+    name: p.name,
+    raw,
+    value: q.base,
+    unit: q.unit === "" ? DIMENSIONS[dim].base : q.unit,
+    how: q.unit === "" ? "base unit" : q.unit === "%" ? "percent" : "text quantity",
+  };
+}
+
+function readWord(p: ParamSpec, raw: number | string | boolean): string {
+  if (typeof raw !== "string") throw new CalcError(p.name, `expected ${describeParam(p)}; got ${String(raw)}`, "value");
+  if (raw.length > MAX_TEXT) throw new CalcError(p.name, `text of ${raw.length} characters is too long: expected ${describeParam(p)}`, "value");
+  return raw.trim();
+}
+
+/** Reads every argument of `spec` from raw worksheet values. */
+export function readArgs(spec: FunctionSpec, rawArgs: readonly RawArg[]): { args: Args; readings: ArgReading[] } {
+  if (rawArgs.length > spec.params.length) {
+    throw new CalcError(spec.id, `takes at most ${spec.params.length} arguments; got ${rawArgs.length}`, "value");
+  }
+  const args: Args = {};
+  const readings: ArgReading[] = [];
+  const deferred: ParamSpec[] = [];
+  // Arguments whose dimension depends on others are read last.
+  const indices = spec.params.map((_, i) => i);
+  indices.sort((i, j) => Number(spec.params[i].kind === "anyQuantity") - Number(spec.params[j].kind === "anyQuantity"));
+  for (const i of indices) {
+    const p = spec.params[i];
+    const raw = scalar(p, rawArgs[i]);
+    if (isMissing(raw)) {
+      if (!p.optional) throw new CalcError(p.name, `is required: expected ${describeParam(p)}`, "value");
+      deferred.push(p);
+      continue;
+    }
+    const reading = readOne(p, raw as number | string | boolean, args);
+    args[p.name] = reading.value;
+    readings.push(reading);
+  }
+  for (const p of deferred) {
+    if ((p.kind === "quantity" || p.kind === "choice") && p.default !== undefined) {
+      const value = typeof p.default === "function" ? p.default(args) : p.default;
+      args[p.name] = value;
+      readings.push({ name: p.name, raw: null, value, unit: p.kind === "quantity" ? DIMENSIONS[p.dim].base : "", how: "default" });
+    }
+  }
+  const order = new Map(spec.params.map((p, i) => [p.name, i]));
+  readings.sort((a, b) => (order.get(a.name) ?? 0) - (order.get(b.name) ?? 0));
+  return { args, readings };
+}
+
+function readOne(p: ParamSpec, raw: number | string | boolean, args: Args): ArgReading {
+  switch (p.kind) {
+    case "quantity":
+      return readQuantity(p, raw, p.dim);
+    case "anyQuantity":
+      return readQuantity(p, raw, p.dimFrom(args));
+    case "choice": {
+      const word = readWord(p, raw).toLowerCase();
+      if (!p.options.includes(word)) throw new CalcError(p.name, `unknown option "${word}": expected ${describeParam(p)}`, "value");
+      return { name: p.name, raw, value: word, unit: "", how: "word" };
+    }
+    case "unit": {
+      const word = readWord(p, raw);
+      return { name: p.name, raw, value: word, unit: "", how: "unit name" };
+    }
+  }
+}
+
+/** Evaluates a function from raw worksheet arguments. Throws CalcError on bad input. */
+export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evaluation {
+  const { args, readings } = readArgs(spec, rawArgs);
+  const result = spec.compute(args);
+  const dim = resultDimension(spec, args);
+  let value = result.value;
+  let unit: string = DIMENSIONS[dim].base;
+  const outUnit = args["unit"];
+  if (typeof outUnit === "string" && spec.params.some((p) => p.name === "unit" && p.kind === "unit")) {
+    const asNumber = parseNumberText(outUnit);
+    if (asNumber !== undefined || !hasUnit(dim)) {
+      throw new CalcError("unit", `expected a unit of ${DIMENSIONS[dim].noun.replace(/^an? /, "")} such as ${DIMENSIONS[dim].example.replace(/^"[\d.]+ /, '"')}; got "${outUnit}"`, "value");
+    }
+    value = fromBase("unit", value, dim, outUnit);
+    unit = outUnit;
+  }
+  if (!Number.isFinite(value)) throw new CalcError("result", "is not a finite number for these inputs", "num");
+  return { value, dim, unit, warnings: result.warnings, readings };
+}

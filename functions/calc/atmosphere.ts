@@ -1,0 +1,62 @@
+/**
+ * Standard atmospheric pressure at an elevation: U.S. Standard Atmosphere 1976
+ * (NOAA-S/T 76-1562), identical to ISO 2533:1975 up to 32 km geopotential.
+ */
+import { CalcError, type CalcResult, ok } from "./_lib/result";
+import { STANDARD_ATMOSPHERE, STANDARD_GRAVITY } from "./_lib/constants";
+
+/** Effective Earth radius for geopotential height, m (US 1976, r0). */
+const EARTH_RADIUS = 6356766;
+/** Molar mass of air, kg/mol, and the gas constant the 1976 standard uses, J/(mol·K). */
+const MOLAR_MASS_AIR = 0.0289644;
+const GAS_CONSTANT_1976 = 8.31432;
+
+/** Layers: base geopotential height (m') and temperature gradient (K/m') (US 1976 table 4). */
+const LAYERS: ReadonlyArray<readonly [number, number]> = [
+  [0, -0.0065],
+  [11000, 0],
+  [20000, 0.001],
+  [32000, 0.0028],
+  [47000, 0],
+  [51000, -0.0028],
+  [71000, -0.002],
+];
+const TOP_GEOPOTENTIAL = 84852;
+export const ELEVATION_MIN = -5000;
+export const ELEVATION_MAX = 86000;
+
+/** Geopotential height, m', from geometric elevation, m. */
+export function geopotentialHeight(elevation: number): number {
+  return (EARTH_RADIUS * elevation) / (EARTH_RADIUS + elevation);
+}
+
+/** Pressure, Pa, at geopotential height H (m') from the layer equations. */
+function pressureAtGeopotential(H: number): number {
+  const k = (STANDARD_GRAVITY * MOLAR_MASS_AIR) / GAS_CONSTANT_1976;
+  let baseT = 288.15;
+  let baseP = STANDARD_ATMOSPHERE;
+  for (let i = 0; i < LAYERS.length; i++) {
+    const [hb, lapse] = LAYERS[i];
+    const top = i + 1 < LAYERS.length ? LAYERS[i + 1][0] : TOP_GEOPOTENTIAL;
+    // The first layer also serves below sea level (the standard tabulates down to -5 km).
+    const h = Math.min(H, top);
+    const dh = h - hb;
+    const p = lapse === 0 ? baseP * Math.exp((-k * dh) / baseT) : baseP * Math.pow(baseT / (baseT + lapse * dh), k / lapse);
+    if (H <= top) return p;
+    baseP = p;
+    baseT += lapse * (top - hb);
+  }
+  return baseP;
+}
+
+/** Standard atmospheric pressure, Pa absolute, at a geometric elevation above mean sea level, m. */
+export function standardAtmospherePressure(elevation: number): CalcResult {
+  if (!(elevation >= ELEVATION_MIN && elevation <= ELEVATION_MAX)) {
+    throw new CalcError("elevation", `expected -5 km to 86 km, the range of the US Standard Atmosphere 1976; got ${elevation} m`);
+  }
+  const warnings: string[] = [];
+  if (elevation > 11000) {
+    warnings.push("Above 11 km: outside any pump site; value is the standard atmosphere's, not local weather.");
+  }
+  return ok(pressureAtGeopotential(geopotentialHeight(elevation)), warnings);
+}

@@ -1,0 +1,44 @@
+/** Parameter and text pieces several specs share. */
+import { DEFAULT_PRESSURE_PA, DEFAULT_TEMPERATURE_C } from "../calc/_lib/constants";
+import { waterDensity, waterKinematicViscosity } from "../calc/water";
+import type { QuantityParam, UnitParam } from "./types";
+
+/** The optional result unit, always named `unit`. */
+export function unitParam(example: string): UnitParam {
+  return { name: "unit", kind: "unit", optional: true, description: `Unit of the result, such as ${example}; base unit when left out.` };
+}
+
+export const DEFAULT_WATER_NOTE = "water at 20 °C and 101.325 kPa (IAPWS-IF97 and IAPWS 2008)";
+
+export const densityParam: QuantityParam = {
+  name: "density",
+  kind: "quantity",
+  dim: "density",
+  optional: true,
+  description: "Liquid density; water at 20 °C when left out.",
+  default: () => waterDensity(DEFAULT_TEMPERATURE_C, DEFAULT_PRESSURE_PA).value,
+  defaultNote: DEFAULT_WATER_NOTE,
+};
+
+export const kinematicViscosityParam: QuantityParam = {
+  name: "kinematic_viscosity",
+  kind: "quantity",
+  dim: "kinematicViscosity",
+  optional: true,
+  description: "Liquid kinematic viscosity; water at 20 °C when left out.",
+  default: () => waterKinematicViscosity(DEFAULT_TEMPERATURE_C, DEFAULT_PRESSURE_PA).value,
+  defaultNote: DEFAULT_WATER_NOTE,
+};
+
+export const flowParam: QuantityParam = { name: "flow", kind: "quantity", dim: "flow", description: "Volume flow rate." };
+export const diameterParam: QuantityParam = { name: "diameter", kind: "quantity", dim: "length", description: "Pipe inside diameter." };
+
+/** Shown with every result that sizes a pump or a pipe. */
+export const DESIGN_AID =
+  "A design aid for preliminary sizing: confirm with the pump maker's certified data, local codes and a licensed engineer.";
+export const PRESSURE_CAUTION =
+  "Pressurised piping can fail violently; test pressures, relief and surge protection follow local codes and the pipe maker's ratings.";
+export const CAVITATION_CAUTION =
+  "Cavitation destroys impellers and can cause sudden loss of flow; keep a margin over NPSHr as the pump maker and ANSI/HI 9.6.1 advise.";
+export const JET_CAUTION =
+  "Jets and water features in public places can injure people and spread waterborne disease; follow local codes for public water features.";

@@ -1,0 +1,89 @@
+/**
+ * The shape of a worksheet function's spec. One spec per function drives the worksheet
+ * binding, the pane's explanation, the README reference and the checks.
+ */
+import type { CalcResult } from "../calc/_lib/result";
+import type { Dimension } from "../units/dimensions";
+
+/** Argument values after coercion, by parameter name: numbers in base units, choices as lower-case text. */
+export type Args = Record<string, number | string>;
+
+interface ParamBase {
+  /** Name as the worksheet shows it (snake_case). */
+  name: string;
+  /** One line for the worksheet tooltip and the docs. */
+  description: string;
+  optional?: boolean;
+}
+
+/** A physical quantity: bare number in the dimension's base unit, or text with a unit. */
+export interface QuantityParam extends ParamBase {
+  kind: "quantity";
+  dim: Dimension;
+  /** Value used when the argument is left out, in base units, or computed from the other arguments. */
+  default?: number | ((args: Args) => number);
+  /** Says where the default comes from, for people. */
+  defaultNote?: string;
+}
+
+/** One of a fixed set of words, compared without regard to case. */
+export interface ChoiceParam extends ParamBase {
+  kind: "choice";
+  options: readonly string[];
+  default?: string;
+  defaultNote?: string;
+}
+
+/** A unit name: the result's unit (`unit`), or the units of CONVERT. */
+export interface UnitParam extends ParamBase {
+  kind: "unit";
+}
+
+/** A quantity whose dimension is set by another argument (AFFINITY's value). */
+export interface AnyQuantityParam extends ParamBase {
+  kind: "anyQuantity";
+  /** Picks the dimension from the other (already coerced) arguments. */
+  dimFrom: (args: Args) => Dimension;
+}
+
+export type ParamSpec = QuantityParam | ChoiceParam | UnitParam | AnyQuantityParam;
+
+/** A worked example that runs as a test through the calc core and the built worksheet binding. */
+export interface Example {
+  /** Arguments as a worksheet would pass them: numbers, text, or null for a skipped optional. */
+  args: ReadonlyArray<number | string | null>;
+  /** Expected worksheet result. */
+  expect: number;
+  /** Relative tolerance (default 1e-9). */
+  tolerance?: number;
+  /** Where the expected value comes from. */
+  source: string;
+}
+
+export interface FunctionSpec {
+  /** Worksheet id under NAPPE., upper case, never renamed once published. */
+  id: string;
+  /** Topic file in functions/calc this function computes with. */
+  topic: string;
+  /** One line: what it returns. */
+  purpose: string;
+  params: readonly ParamSpec[];
+  /** Dimension of the result, fixed or picked by the arguments. */
+  result: { dim: Dimension | ((args: Args) => Dimension); description: string };
+  /** The equation in LaTeX. */
+  equation: string;
+  assumptions: readonly string[];
+  /** Validity checks the calc function makes, described for people. */
+  validity: readonly string[];
+  cautions: readonly string[];
+  /** Published sources of the method. */
+  sources: readonly string[];
+  examples: readonly Example[];
+  /** Computes the result in base units from coerced arguments. */
+  compute: (args: Args) => CalcResult;
+}
+
+/** Resolves a result dimension that may depend on the arguments. */
+export function resultDimension(spec: FunctionSpec, args: Args): Dimension {
+  return typeof spec.result.dim === "function" ? spec.result.dim(args) : spec.result.dim;
+}

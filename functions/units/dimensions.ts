@@ -1,0 +1,39 @@
+/**
+ * The physical dimensions worksheet arguments and results can have, each with the project's
+ * base unit (what a bare number means) and an example for messages and docs.
+ */
+export interface DimensionInfo {
+  /** Unit a bare number is read in, as mathjs spells it. */
+  base: string;
+  /** How the base unit is printed for people. */
+  baseLabel: string;
+  /** Noun for messages: "expected a length". */
+  noun: string;
+  /** A text quantity of this dimension, for messages and docs. */
+  example: string;
+}
+
+export const DIMENSIONS = {
+  length: { base: "m", baseLabel: "m", noun: "a length", example: '"6 in"' },
+  flow: { base: "m^3/s", baseLabel: "m³/s", noun: "a volume flow", example: '"400 gpm"' },
+  velocity: { base: "m/s", baseLabel: "m/s", noun: "a velocity", example: '"8 ft/s"' },
+  pressure: { base: "Pa", baseLabel: "Pa", noun: "a pressure", example: '"35 psi"' },
+  power: { base: "W", baseLabel: "W", noun: "a power", example: '"15 kW"' },
+  energy: { base: "J", baseLabel: "J", noun: "an energy", example: '"1200 kWh"' },
+  density: { base: "kg/m^3", baseLabel: "kg/m³", noun: "a density", example: '"998 kg/m^3"' },
+  viscosity: { base: "Pa s", baseLabel: "Pa·s", noun: "a dynamic viscosity", example: '"1 cP"' },
+  kinematicViscosity: { base: "m^2/s", baseLabel: "m²/s", noun: "a kinematic viscosity", example: '"1 cSt"' },
+  temperature: { base: "degC", baseLabel: "°C", noun: "a temperature", example: '"68 degF"' },
+  rotationalSpeed: { base: "rpm", baseLabel: "rpm", noun: "a rotational speed", example: '"1750 rpm"' },
+  angle: { base: "deg", baseLabel: "°", noun: "an angle", example: '"30 deg"' },
+  modulus: { base: "Pa", baseLabel: "Pa", noun: "an elastic modulus", example: '"200 GPa"' },
+  ratio: { base: "", baseLabel: "—", noun: "a plain number", example: "0.5" },
+  efficiency: { base: "", baseLabel: "fraction", noun: "an efficiency", example: '0.78 or "78%"' },
+} as const satisfies Record<string, DimensionInfo>;
+
+export type Dimension = keyof typeof DIMENSIONS;
+
+/** Dimensions whose values carry a physical unit (everything but plain numbers). */
+export function hasUnit(dim: Dimension): boolean {
+  return DIMENSIONS[dim].base !== "";
+}

@@ -1,0 +1,55 @@
+// Builds dist/: the worksheet-functions bundle with functions.json (generated from the JSDoc of
+// functions/functions.ts), functions.html, the pane, the icons and the manifest.
+import CopyWebpackPlugin from "copy-webpack-plugin";
+import CustomFunctionsMetadataPlugin from "custom-functions-metadata-plugin";
+import HtmlWebpackPlugin from "html-webpack-plugin";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+
+const root = path.dirname(fileURLToPath(import.meta.url));
+const DEV_URL = "https://localhost:3000/";
+
+/** Rewrites the manifest's development URLs when NAPPE_BASE_URL names another host. */
+function manifestFor(content) {
+  const base = process.env.NAPPE_BASE_URL;
+  if (!base) return content;
+  return content.toString().replaceAll(DEV_URL, base.endsWith("/") ? base : `${base}/`);
+}
+
+export default async (env, argv) => {
+  const dev = argv.mode === "development";
+  const config = {
+    devtool: dev ? "source-map" : false,
+    entry: {
+      functions: "./functions/functions.ts",
+      taskpane: "./taskpane/taskpane.ts",
+    },
+    output: { path: path.join(root, "dist"), filename: "[name].js", clean: true },
+    resolve: { extensions: [".ts", ".js"] },
+    module: {
+      rules: [{ test: /\.ts$/, exclude: /node_modules/, use: { loader: "ts-loader", options: { transpileOnly: true } } }],
+    },
+    performance: { hints: false },
+    plugins: [
+      new CustomFunctionsMetadataPlugin({ output: "functions.json", input: "./functions/functions.ts" }),
+      new HtmlWebpackPlugin({ filename: "functions.html", template: "./functions/functions.html", chunks: ["functions"] }),
+      new HtmlWebpackPlugin({ filename: "taskpane.html", template: "./taskpane/taskpane.html", chunks: ["taskpane"] }),
+      new CopyWebpackPlugin({
+        patterns: [
+          { from: "manifest/assets", to: "assets" },
+          { from: "manifest/manifest.xml", to: "manifest.xml", transform: manifestFor },
+        ],
+      }),
+    ],
+  };
+  if (dev) {
+    const devCerts = await import("office-addin-dev-certs");
+    config.devServer = {
+      port: 3000,
+      headers: { "Access-Control-Allow-Origin": "*" },
+      server: { type: "https", options: await devCerts.getHttpsServerOptions() },
+      static: { directory: path.join(root, "dist") },
+    };
+  }
+  return config;
+};
