@@ -3,6 +3,8 @@
 import CopyWebpackPlugin from "copy-webpack-plugin";
 import CustomFunctionsMetadataPlugin from "custom-functions-metadata-plugin";
 import HtmlWebpackPlugin from "html-webpack-plugin";
+import { existsSync, readFileSync } from "node:fs";
+import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 
@@ -14,6 +16,28 @@ function manifestFor(content) {
   const base = process.env.NAPPE_BASE_URL;
   if (!base) return content;
   return content.toString().replaceAll(DEV_URL, base.endsWith("/") ? base : `${base}/`);
+}
+
+/**
+ * Development certificate from office-addin-dev-certs. Installing its CA needs administrator
+ * rights (sudo on Linux); where that fails, the generated certificate is served anyway and the
+ * user is told how to trust it, instead of the server failing.
+ */
+async function httpsOptions() {
+  const devCerts = await import("office-addin-dev-certs");
+  try {
+    return await devCerts.getHttpsServerOptions();
+  } catch (e) {
+    const dir = path.join(os.homedir(), ".office-addin-dev-certs");
+    const file = (name) => path.join(dir, name);
+    if (!existsSync(file("localhost.crt"))) await devCerts.generateCertificates();
+    console.warn(
+      `\nCould not install the development CA certificate (${String(e.message ?? e).split("\n")[0]}).\n` +
+        `Serving with ${file("localhost.crt")}; make your browser trust ${file("ca.crt")}, ` +
+        "or run `npx office-addin-dev-certs install` with administrator rights.\n",
+    );
+    return { ca: readFileSync(file("ca.crt")), cert: readFileSync(file("localhost.crt")), key: readFileSync(file("localhost.key")) };
+  }
 }
 
 export default async (env, argv) => {
@@ -43,11 +67,12 @@ export default async (env, argv) => {
     ],
   };
   if (dev) {
-    const devCerts = await import("office-addin-dev-certs");
     config.devServer = {
+      host: "localhost",
       port: 3000,
+      devMiddleware: { writeToDisk: true },
       headers: { "Access-Control-Allow-Origin": "*" },
-      server: { type: "https", options: await devCerts.getHttpsServerOptions() },
+      server: { type: "https", options: await httpsOptions() },
       static: { directory: path.join(root, "dist") },
     };
   }

@@ -1,0 +1,41 @@
+import { describe, expect, it } from "vitest";
+import { evaluate } from "../functions/bind/evaluate";
+import { CATALOG } from "../functions/catalog";
+import * as bindings from "../functions/functions";
+import { bindingName } from "../scripts/generate";
+
+describe("catalogue", () => {
+  it("has unique ids in upper case", () => {
+    const ids = CATALOG.map((s) => s.id);
+    expect(new Set(ids).size).toBe(ids.length);
+    for (const id of ids) expect(id).toMatch(/^[A-Z][A-Z0-9]*(\.[A-Z0-9]+)*$/);
+  });
+  it("gives every function a purpose, equation, source and at least one example", () => {
+    for (const s of CATALOG) {
+      expect(s.purpose, s.id).not.toBe("");
+      expect(s.equation, s.id).not.toBe("");
+      expect(s.sources.length, s.id).toBeGreaterThan(0);
+      expect(s.examples.length, s.id).toBeGreaterThan(0);
+      for (const ex of s.examples) expect(ex.source, s.id).not.toBe("");
+    }
+  });
+  it("puts optional parameters after required ones and names the result unit `unit`", () => {
+    for (const s of CATALOG) {
+      const firstOptional = s.params.findIndex((p) => p.optional);
+      if (firstOptional >= 0) expect(s.params.slice(firstOptional).every((p) => p.optional), s.id).toBe(true);
+      for (const p of s.params) if (p.kind === "unit" && p.optional) expect(p.name).toBe("unit");
+    }
+  });
+  it("has a worksheet binding for every spec and a spec for every binding", () => {
+    const exported = Object.keys(bindings).sort();
+    expect(exported).toEqual(CATALOG.map((s) => bindingName(s.id)).sort());
+  });
+});
+
+describe("worked examples in the catalogue (each names its source)", () => {
+  const cases = CATALOG.flatMap((s) => s.examples.map((ex) => ({ s, ex, name: `${s.id}(${ex.args.map((a) => JSON.stringify(a)).join(", ")}) = ${ex.expect} — ${ex.source}` })));
+  it.each(cases)("$name", ({ s, ex }) => {
+    const value = evaluate(s, ex.args).value;
+    expect(Math.abs(value / ex.expect - 1)).toBeLessThanOrEqual(ex.tolerance ?? 1e-9);
+  });
+});

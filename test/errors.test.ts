@@ -1,0 +1,117 @@
+import { describe, expect, it } from "vitest";
+import { CalcError } from "../functions/calc/_lib/result";
+import { evaluate, type RawArg } from "../functions/bind/evaluate";
+import { CATALOG_BY_ID } from "../functions/catalog";
+
+function run(id: string, ...args: RawArg[]) {
+  const spec = CATALOG_BY_ID.get(id);
+  if (!spec) throw new Error(`no spec ${id}`);
+  return evaluate(spec, args);
+}
+
+function failure(id: string, ...args: RawArg[]): CalcError {
+  try {
+    run(id, ...args);
+  } catch (e) {
+    if (e instanceof CalcError) return e;
+    throw e;
+  }
+  throw new Error(`${id} did not fail`);
+}
+
+describe("bad input gives a worksheet error naming the argument", () => {
+  it("wrong dimension is #VALUE!", () => {
+    const e = failure("VELOCITY", "100 gpm", "35 psi");
+    expect([e.kind, e.arg]).toEqual(["value", "diameter"]);
+    expect(e.message).toMatch(/pressure unit, not a length/);
+  });
+  it("unknown unit is #VALUE!", () => {
+    const e = failure("HEAD", "12 furlongs");
+    expect([e.kind, e.arg]).toEqual(["value", "pressure"]);
+  });
+  it("negative or zero diameter is #NUM!", () => {
+    expect(failure("VELOCITY", 0.01, -0.1)).toMatchObject({ kind: "num", arg: "diameter" });
+    expect(failure("VELOCITY", 0.01, 0)).toMatchObject({ kind: "num", arg: "diameter" });
+  });
+  it("efficiency given as 80 is #NUM!, never divided by 100", () => {
+    const e = failure("POWER.SHAFT", 0.05, 30, 80);
+    expect([e.kind, e.arg]).toEqual(["num", "efficiency"]);
+    expect(e.message).toMatch(/"78%"/);
+    expect(failure("POWER.SHAFT", 0.05, 30, "80")).toMatchObject({ kind: "num", arg: "efficiency" });
+  });
+  it("efficiency as percent text is accepted", () => {
+    expect(run("POWER.SHAFT", 0.05, 30, "80%", 1000).value).toBeCloseTo((1000 * 9.80665 * 0.05 * 30) / 0.8, 9);
+  });
+  it("non-numeric text is #VALUE!", () => {
+    expect(failure("REYNOLDS", "lots", 0.1)).toMatchObject({ kind: "value", arg: "flow" });
+  });
+  it("booleans are #VALUE!", () => {
+    expect(failure("HEAD", true)).toMatchObject({ kind: "value", arg: "pressure" });
+  });
+  it("water above its boiling point at the given pressure is #NUM! naming temperature", () => {
+    const e = failure("WATER.DENSITY", 105, "1 atm");
+    expect([e.kind, e.arg]).toEqual(["num", "temperature"]);
+    expect(e.message).toMatch(/boils at/);
+  });
+  it("a missing required argument is #VALUE!", () => {
+    expect(failure("HEADLOSS", 0.01, 0.1, null, 4.5e-5)).toMatchObject({ kind: "value", arg: "length" });
+  });
+  it("an unknown option is #VALUE! listing the options", () => {
+    const e = failure("FRICTION", 1e5, 1e-4, "moody");
+    expect(e.arg).toBe("method");
+    expect(e.message).toMatch(/"colebrook", "swamee-jain", "haaland", "churchill"/);
+  });
+  it("an output unit of the wrong dimension is #VALUE! naming unit", () => {
+    expect(failure("HEADLOSS", 0.01, 0.1, 100, 4.5e-5, null, "psi")).toMatchObject({ kind: "value", arg: "unit" });
+  });
+  it("an output unit on a dimensionless result is #VALUE!", () => {
+    expect(failure("AFFINITY", 10, "head", 1.1, "rpm")).toMatchObject({ kind: "value", arg: "unit" });
+  });
+  it("AFFINITY checks the value's unit against the kind", () => {
+    expect(failure("AFFINITY", "100 gpm", "head", 0.9)).toMatchObject({ kind: "value", arg: "value" });
+  });
+  it("a jet cannot land higher than it rises", () => {
+    expect(failure("JET.REACH", 5, 45, -10)).toMatchObject({ kind: "num", arg: "drop" });
+  });
+  it("a range where one value is expected is #VALUE!", () => {
+    expect(failure("HEAD", [[1, 2]])).toMatchObject({ kind: "value", arg: "pressure" });
+    expect(run("HEAD", [[9806.65]], 1000).value).toBeCloseTo(1, 12);
+  });
+  it("very long text is #VALUE!", () => {
+    expect(failure("HEAD", "1".repeat(10000) + " psi")).toMatchObject({ kind: "value", arg: "pressure" });
+  });
+  it("too many arguments is #VALUE!", () => {
+    expect(failure("HEAD", 1, 1000, "m", 4)).toMatchObject({ kind: "value" });
+  });
+});
+
+describe("optional arguments and output units", () => {
+  it("uses water at 20 °C when density is left out", () => {
+    expect(run("HEAD", 9806.65).readings.find((r) => r.name === "density")).toMatchObject({ how: "default" });
+  });
+  it("NPSHA defaults the density to water at the given temperature", () => {
+    const hot = run("NPSHA", 101325, 2, 0.5, 80).readings.find((r) => r.name === "density");
+    expect(hot?.value).toBeCloseTo(971.8, 0); // IF97 at 80 °C, 1 atm (steam tables: 971.8 kg/m³; from memory)
+  });
+  it("records how each argument was read", () => {
+    const r = run("VELOCITY", "400 gpm", 0.1, "ft/s");
+    expect(r.readings.map((x) => [x.name, x.how, x.unit])).toEqual([
+      ["flow", "text quantity", "gpm"],
+      ["diameter", "base unit", "m"],
+      ["unit", "unit name", ""],
+    ]);
+    expect(r.unit).toBe("ft/s");
+  });
+  it("treats empty text like a skipped optional", () => {
+    expect(run("HEAD", 9806.65, "", "").value).toBeCloseTo(run("HEAD", 9806.65).value, 15);
+  });
+});
+
+describe("never NaN or Infinity", () => {
+  it("gives zero loss at zero flow rather than 0/0", () => {
+    expect(run("HEADLOSS", 0, 0.1, 100, 4.5e-5).value).toBe(0);
+  });
+  it("returns an error, not Infinity, for overflowing results", () => {
+    expect(failure("POWER.HYDRAULIC", 1e300, 1e300)).toMatchObject({ kind: "num" });
+  });
+});
