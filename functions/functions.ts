@@ -11,7 +11,7 @@ import { runWorksheetFunction as run } from "./bind/worksheet";
  * @returns The value in to_unit.
  */
 export function convert(value: any, from_unit: any, to_unit: any): number {
-  return run("CONVERT", [value, from_unit, to_unit]);
+  return run("CONVERT", [value, from_unit, to_unit]) as number;
 }
 
 /**
@@ -23,7 +23,7 @@ export function convert(value: any, from_unit: any, to_unit: any): number {
  * @returns Density, kg/m³.
  */
 export function waterDensity(temperature: any, pressure?: any, unit?: any): number {
-  return run("WATER.DENSITY", [temperature, pressure, unit]);
+  return run("WATER.DENSITY", [temperature, pressure, unit]) as number;
 }
 
 /**
@@ -35,7 +35,7 @@ export function waterDensity(temperature: any, pressure?: any, unit?: any): numb
  * @returns Dynamic viscosity, Pa·s.
  */
 export function waterViscosity(temperature: any, pressure?: any, unit?: any): number {
-  return run("WATER.VISCOSITY", [temperature, pressure, unit]);
+  return run("WATER.VISCOSITY", [temperature, pressure, unit]) as number;
 }
 
 /**
@@ -47,7 +47,7 @@ export function waterViscosity(temperature: any, pressure?: any, unit?: any): nu
  * @returns Kinematic viscosity, m²/s.
  */
 export function waterKinvisc(temperature: any, pressure?: any, unit?: any): number {
-  return run("WATER.KINVISC", [temperature, pressure, unit]);
+  return run("WATER.KINVISC", [temperature, pressure, unit]) as number;
 }
 
 /**
@@ -58,7 +58,7 @@ export function waterKinvisc(temperature: any, pressure?: any, unit?: any): numb
  * @returns Absolute saturation pressure, Pa.
  */
 export function waterVaporpressure(temperature: any, unit?: any): number {
-  return run("WATER.VAPORPRESSURE", [temperature, unit]);
+  return run("WATER.VAPORPRESSURE", [temperature, unit]) as number;
 }
 
 /**
@@ -69,7 +69,7 @@ export function waterVaporpressure(temperature: any, unit?: any): number {
  * @returns Absolute pressure, Pa.
  */
 export function atmpressure(elevation: any, unit?: any): number {
-  return run("ATMPRESSURE", [elevation, unit]);
+  return run("ATMPRESSURE", [elevation, unit]) as number;
 }
 
 /**
@@ -81,7 +81,7 @@ export function atmpressure(elevation: any, unit?: any): number {
  * @returns Head, m of the liquid.
  */
 export function head(pressure: any, density?: any, unit?: any): number {
-  return run("HEAD", [pressure, density, unit]);
+  return run("HEAD", [pressure, density, unit]) as number;
 }
 
 /**
@@ -93,7 +93,7 @@ export function head(pressure: any, density?: any, unit?: any): number {
  * @returns Pressure, Pa (a difference: add the surface pressure for absolute).
  */
 export function pressure(head: any, density?: any, unit?: any): number {
-  return run("PRESSURE", [head, density, unit]);
+  return run("PRESSURE", [head, density, unit]) as number;
 }
 
 /**
@@ -105,7 +105,7 @@ export function pressure(head: any, density?: any, unit?: any): number {
  * @returns Mean velocity, m/s.
  */
 export function velocity(flow: any, diameter: any, unit?: any): number {
-  return run("VELOCITY", [flow, diameter, unit]);
+  return run("VELOCITY", [flow, diameter, unit]) as number;
 }
 
 /**
@@ -117,7 +117,7 @@ export function velocity(flow: any, diameter: any, unit?: any): number {
  * @returns Reynolds number (dimensionless).
  */
 export function reynolds(flow: any, diameter: any, kinematic_viscosity?: any): number {
-  return run("REYNOLDS", [flow, diameter, kinematic_viscosity]);
+  return run("REYNOLDS", [flow, diameter, kinematic_viscosity]) as number;
 }
 
 /**
@@ -129,7 +129,7 @@ export function reynolds(flow: any, diameter: any, kinematic_viscosity?: any): n
  * @returns Darcy (Moody) friction factor; the Fanning factor is a quarter of it.
  */
 export function friction(reynolds: any, relative_roughness: any, method?: any): number {
-  return run("FRICTION", [reynolds, relative_roughness, method]);
+  return run("FRICTION", [reynolds, relative_roughness, method]) as number;
 }
 
 /**
@@ -144,7 +144,7 @@ export function friction(reynolds: any, relative_roughness: any, method?: any): 
  * @returns Head loss, m of the flowing liquid.
  */
 export function headloss(flow: any, diameter: any, length: any, roughness: any, kinematic_viscosity?: any, unit?: any): number {
-  return run("HEADLOSS", [flow, diameter, length, roughness, kinematic_viscosity, unit]);
+  return run("HEADLOSS", [flow, diameter, length, roughness, kinematic_viscosity, unit]) as number;
 }
 
 /**
@@ -158,7 +158,7 @@ export function headloss(flow: any, diameter: any, length: any, roughness: any, 
  * @returns Head loss, m of water.
  */
 export function headlossHw(flow: any, diameter: any, length: any, c_factor: any, unit?: any): number {
-  return run("HEADLOSS.HW", [flow, diameter, length, c_factor, unit]);
+  return run("HEADLOSS.HW", [flow, diameter, length, c_factor, unit]) as number;
 }
 
 /**
@@ -171,7 +171,7 @@ export function headlossHw(flow: any, diameter: any, length: any, c_factor: any,
  * @returns Head loss, m.
  */
 export function headlossMinor(flow: any, diameter: any, k_total: any, unit?: any): number {
-  return run("HEADLOSS.MINOR", [flow, diameter, k_total, unit]);
+  return run("HEADLOSS.MINOR", [flow, diameter, k_total, unit]) as number;
 }
 
 /**
@@ -183,7 +183,7 @@ export function headlossMinor(flow: any, diameter: any, k_total: any, unit?: any
  * @returns Jet velocity, m/s.
  */
 export function jetVelocity(height: any, velocity_coefficient?: any, unit?: any): number {
-  return run("JET.VELOCITY", [height, velocity_coefficient, unit]);
+  return run("JET.VELOCITY", [height, velocity_coefficient, unit]) as number;
 }
 
 /**
@@ -195,7 +195,7 @@ export function jetVelocity(height: any, velocity_coefficient?: any, unit?: any)
  * @returns Rise above the nozzle, m.
  */
 export function jetHeight(velocity: any, angle?: any, unit?: any): number {
-  return run("JET.HEIGHT", [velocity, angle, unit]);
+  return run("JET.HEIGHT", [velocity, angle, unit]) as number;
 }
 
 /**
@@ -208,7 +208,7 @@ export function jetHeight(velocity: any, angle?: any, unit?: any): number {
  * @returns Horizontal distance from the nozzle, m.
  */
 export function jetReach(velocity: any, angle: any, drop?: any, unit?: any): number {
-  return run("JET.REACH", [velocity, angle, drop, unit]);
+  return run("JET.REACH", [velocity, angle, drop, unit]) as number;
 }
 
 /**
@@ -221,7 +221,7 @@ export function jetReach(velocity: any, angle: any, drop?: any, unit?: any): num
  * @returns Flow, m³/s.
  */
 export function nozzleFlow(diameter: any, head: any, discharge_coefficient?: any, unit?: any): number {
-  return run("NOZZLE.FLOW", [diameter, head, discharge_coefficient, unit]);
+  return run("NOZZLE.FLOW", [diameter, head, discharge_coefficient, unit]) as number;
 }
 
 /**
@@ -234,7 +234,7 @@ export function nozzleFlow(diameter: any, head: any, discharge_coefficient?: any
  * @returns Power, W.
  */
 export function powerHydraulic(flow: any, head: any, density?: any, unit?: any): number {
-  return run("POWER.HYDRAULIC", [flow, head, density, unit]);
+  return run("POWER.HYDRAULIC", [flow, head, density, unit]) as number;
 }
 
 /**
@@ -248,7 +248,7 @@ export function powerHydraulic(flow: any, head: any, density?: any, unit?: any):
  * @returns Shaft power, W.
  */
 export function powerShaft(flow: any, head: any, efficiency: any, density?: any, unit?: any): number {
-  return run("POWER.SHAFT", [flow, head, efficiency, density, unit]);
+  return run("POWER.SHAFT", [flow, head, efficiency, density, unit]) as number;
 }
 
 /**
@@ -263,7 +263,7 @@ export function powerShaft(flow: any, head: any, efficiency: any, density?: any,
  * @returns NPSHa, m of liquid.
  */
 export function npsha(surface_pressure: any, liquid_height: any, suction_loss: any, temperature: any, density?: any, unit?: any): number {
-  return run("NPSHA", [surface_pressure, liquid_height, suction_loss, temperature, density, unit]);
+  return run("NPSHA", [surface_pressure, liquid_height, suction_loss, temperature, density, unit]) as number;
 }
 
 /**
@@ -274,7 +274,7 @@ export function npsha(surface_pressure: any, liquid_height: any, suction_loss: a
  * @returns Margin ratio (dimensionless).
  */
 export function npshMargin(npsha: any, npshr: any): number {
-  return run("NPSH.MARGIN", [npsha, npshr]);
+  return run("NPSH.MARGIN", [npsha, npshr]) as number;
 }
 
 /**
@@ -287,5 +287,5 @@ export function npshMargin(npsha: any, npshr: any): number {
  * @returns Scaled value in the kind's base unit.
  */
 export function affinity(value: any, kind: any, ratio: any, unit?: any): number {
-  return run("AFFINITY", [value, kind, ratio, unit]);
+  return run("AFFINITY", [value, kind, ratio, unit]) as number;
 }

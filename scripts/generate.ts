@@ -48,7 +48,8 @@ type Catalog = typeof import("../functions/catalog/index");
 
 function bindings(catalog: Catalog["CATALOG"]): string {
   const blocks = catalog.map((spec) => {
-    const params = spec.params.map((p) => `${p.name}${p.optional ? "?" : ""}: any`).join(", ");
+    const params = spec.params.map((p) => `${p.name}${p.optional ? "?" : ""}: ${p.kind === "table" ? "any[][]" : "any"}`).join(", ");
+    const resultType = spec.result.spill ? "any[][]" : "number";
     const docParams = spec.params.map((p) => ` * @param ${p.name} ${p.description}`).join("\n");
     return `/**
  * ${spec.purpose}
@@ -56,8 +57,8 @@ function bindings(catalog: Catalog["CATALOG"]): string {
 ${docParams}
  * @returns ${spec.result.description}
  */
-export function ${bindingName(spec.id)}(${params}): number {
-  return run("${spec.id}", [${spec.params.map((p) => p.name).join(", ")}]);
+export function ${bindingName(spec.id)}(${params}): ${resultType} {
+  return run("${spec.id}", [${spec.params.map((p) => p.name).join(", ")}]) as ${resultType};
 }`;
   });
   return `${HEADER}
@@ -90,12 +91,13 @@ async function readmeSections(): Promise<Record<string, string>> {
       if (p.kind === "quantity") kind = `${DIMENSIONS[p.dim].noun}, bare number in ${DIMENSIONS[p.dim].baseLabel}`;
       else if (p.kind === "choice") kind = p.options.map((o) => `"${o}"`).join(", ");
       else if (p.kind === "unit") kind = "unit name";
+      else if (p.kind === "table") kind = `${p.table} table (range, optional header row with units)`;
       else kind = "number or text quantity";
       const dflt = "defaultNote" in p && p.defaultNote ? ` Default: ${p.defaultNote}.` : "";
       return `| ${p.name}${p.optional ? " (optional)" : ""} | ${escapeCell(kind)} | ${escapeCell(p.description + dflt)} |`;
     });
     const ex = s.examples[0];
-    const exText = ex ? `\`=NAPPE.${s.id}(${ex.args.map((a) => (a === null ? "" : typeof a === "string" ? `"${a}"` : String(a))).join(", ")})\` → ${Number(ex.expect.toPrecision(6))}` : "";
+    const exText = ex ? `\`=NAPPE.${s.id}(${ex.args.map((a) => (a === null ? "" : typeof a === "string" ? `"${a}"` : String(a))).join(", ")})\` → ${typeof ex.expect === "number" ? Number(ex.expect.toPrecision(6)) : "spills " + ex.expect.map((r) => r.join(" \\| ")).join("; ")}` : "";
     return [
       `#### NAPPE.${s.id}`,
       "",

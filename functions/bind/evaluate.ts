@@ -4,10 +4,11 @@
  * unit. Pure: no Office, no DOM. The worksheet binding and the pane both use it.
  */
 import { CalcError } from "../calc/_lib/result";
-import type { Args, FunctionSpec, ParamSpec } from "../catalog/types";
+import type { Args, Cell, FunctionSpec, ParamSpec } from "../catalog/types";
 import { resultDimension } from "../catalog/types";
 import { type Dimension, DIMENSIONS, hasUnit } from "../units/dimensions";
 import { fromBase, parseNumberText, parseQuantity } from "../units/quantity";
+import { readTable, type Table } from "./table";
 
 /** A value as Excel hands it to a custom function. */
 export type RawArg = number | string | boolean | null | undefined | RawArg[][];
@@ -16,15 +17,15 @@ export type RawArg = number | string | boolean | null | undefined | RawArg[][];
 export interface ArgReading {
   name: string;
   raw: RawArg;
-  /** Base-unit number, choice word or unit name. */
-  value: number | string;
+  /** Base-unit number, choice word, unit name or table. */
+  value: number | string | Table;
   /** Unit the argument was read in ("" for plain numbers and words). */
   unit: string;
-  how: "base unit" | "text quantity" | "percent" | "default" | "word" | "unit name";
+  how: "base unit" | "text quantity" | "percent" | "default" | "word" | "unit name" | "table";
 }
 
 export interface Evaluation {
-  value: number;
+  value: number | Cell[][];
   /** Result dimension and the unit the value is expressed in. */
   dim: Dimension;
   unit: string;
@@ -46,6 +47,8 @@ function describeParam(p: ParamSpec): string {
       return 'a unit name such as "ft" or "kPa"';
     case "anyQuantity":
       return "a number or text quantity";
+    case "table":
+      return `a range holding a ${p.table} table`;
   }
 }
 
@@ -104,6 +107,13 @@ export function readArgs(spec: FunctionSpec, rawArgs: readonly RawArg[]): { args
   indices.sort((i, j) => Number(spec.params[i].kind === "anyQuantity") - Number(spec.params[j].kind === "anyQuantity"));
   for (const i of indices) {
     const p = spec.params[i];
+    if (p.kind === "table") {
+      if (isMissing(rawArgs[i])) throw new CalcError(p.name, `is required: expected ${describeParam(p)}`, "value");
+      const table = readTable(p.name, p.table, rawArgs[i]);
+      args[p.name] = table;
+      readings.push({ name: p.name, raw: rawArgs[i], value: table, unit: "", how: "table" });
+      continue;
+    }
     const raw = scalar(p, rawArgs[i]);
     if (isMissing(raw)) {
       if (!p.optional) throw new CalcError(p.name, `is required: expected ${describeParam(p)}`, "value");
@@ -126,7 +136,7 @@ export function readArgs(spec: FunctionSpec, rawArgs: readonly RawArg[]): { args
   return { args, readings };
 }
 
-function readOne(p: ParamSpec, raw: number | string | boolean, args: Args): ArgReading {
+function readOne(p: Exclude<ParamSpec, { kind: "table" }>, raw: number | string | boolean, args: Args): ArgReading {
   switch (p.kind) {
     case "quantity":
       return readQuantity(p, raw, p.dim);
@@ -149,6 +159,11 @@ export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evalua
   const { args, readings } = readArgs(spec, rawArgs);
   const result = spec.compute(args);
   const dim = resultDimension(spec, args);
+  if (spec.result.spill || typeof result.value !== "number") {
+    if (typeof result.value === "number") throw new Error(`${spec.id} is declared as spilling but returned a number`);
+    for (const row of result.value) for (const cell of row) if (typeof cell === "number" && !Number.isFinite(cell)) throw new CalcError("result", "is not a finite number for these inputs", "num");
+    return { value: result.value, dim, unit: "", warnings: result.warnings, readings };
+  }
   let value = result.value;
   let unit: string = DIMENSIONS[dim].base;
   const outUnit = args["unit"];

@@ -5,6 +5,7 @@
  */
 import { CalcError } from "../calc/_lib/result";
 import { CATALOG_BY_ID } from "../catalog";
+import type { Cell } from "../catalog/types";
 import { evaluate, type RawArg } from "./evaluate";
 
 /** Excel shows at most about 255 characters of an error message. */
@@ -16,7 +17,7 @@ function worksheetError(kind: "num" | "value", message: string): CustomFunctions
 }
 
 /** Evaluates worksheet function `id` on Excel's raw arguments; throws a CustomFunctions.Error on failure. */
-export function runWorksheetFunction(id: string, rawArgs: RawArg[]): number {
+export function runWorksheetFunction(id: string, rawArgs: RawArg[]): number | Cell[][] {
   const spec = CATALOG_BY_ID.get(id);
   if (!spec) throw worksheetError("value", `NAPPE.${id} is not in this version of the add-in`);
   try {

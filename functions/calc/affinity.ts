@@ -1,5 +1,6 @@
 /** Affinity laws for a centrifugal pump: flow ∝ r, head and NPSHr ∝ r², power ∝ r³. */
 import { CalcError, type CalcResult, ok, requireFinite } from "./_lib/result";
+import { allRoots } from "./_lib/solve";
 
 export const AFFINITY_KINDS = ["flow", "head", "npshr", "power"] as const;
 export type AffinityKind = (typeof AFFINITY_KINDS)[number];
@@ -20,4 +21,47 @@ export function affinityScale(value: number, kind: AffinityKind, ratio: number):
     warnings.push(`Ratio ${ratio} is far from 1: the affinity laws lose accuracy (efficiency and NPSHr change); confirm with the pump maker.`);
   }
   return ok(value * Math.pow(ratio, EXPONENT[kind]), warnings);
+}
+
+/**
+ * The ratio r (speed or diameter) that moves a head curve through a duty point (Q, H):
+ * r²·Hc(Q/r) = H, with Q/r inside the curve. Where several ratios work, the one nearest 1.
+ */
+export function affinityRatioThrough(head: { min: number; max: number; at(q: number): number }, flow: number, dutyHead: number): CalcResult {
+  if (!(flow > 0 && Number.isFinite(flow))) throw new CalcError("flow", `expected a duty flow greater than zero; got ${flow}`);
+  if (!(dutyHead > 0 && Number.isFinite(dutyHead))) throw new CalcError("head", `expected a duty head greater than zero; got ${dutyHead}`);
+  const rLo = flow / head.max;
+  const rHi = head.min > 0 ? flow / head.min : Math.max(10, rLo * 10);
+  const g = (r: number) => r * r * head.at(Math.min(Math.max(flow / r, head.min), head.max)) - dutyHead;
+  const roots = allRoots(g, rLo, rHi, 400);
+  if (!roots.length) {
+    throw new CalcError("head", `no speed or diameter ratio moves this curve through ${flow.toPrecision(4)} m³/s at ${dutyHead.toPrecision(4)} m while staying on the curve's flow range`);
+  }
+  const r = roots.reduce((best, x) => (Math.abs(Math.log(x)) < Math.abs(Math.log(best)) ? x : best));
+  return ok(r);
+}
+
+/** Trim diameter for a duty point: D2 = r·D1. Deeper trims than common practice trusts warn. */
+export function trimDiameter(head: { min: number; max: number; at(q: number): number }, diameter: number, flow: number, dutyHead: number): CalcResult {
+  if (!(diameter > 0 && Number.isFinite(diameter))) throw new CalcError("diameter", `expected the curve's impeller diameter, greater than zero; got ${diameter}`);
+  const r = affinityRatioThrough(head, flow, dutyHead).value;
+  if (r > 1 + 1e-12) {
+    throw new CalcError("head", `the duty needs an impeller ${((r - 1) * 100).toFixed(1)} % larger than the curve's ${diameter} m: a trim cannot add diameter; choose a larger impeller or speed`);
+  }
+  const warnings: string[] = [];
+  if (r < 0.75) {
+    warnings.push(`Trim to ${(r * 100).toFixed(1)} % of the diameter: below the 75 % or so most makers allow (common practice); efficiency falls and the affinity estimate is poor.`);
+  } else if (r < 0.9) {
+    warnings.push(`Trim of ${((1 - r) * 100).toFixed(1)} %: beyond about 10 % the affinity laws overstate head and flow (common practice); trim in steps or use the maker's trimmed curves.`);
+  }
+  return ok(r * diameter, warnings);
+}
+
+/** Speed for a duty point: N2 = r·N1. */
+export function speedForDuty(head: { min: number; max: number; at(q: number): number }, speed: number, flow: number, dutyHead: number): CalcResult {
+  if (!(speed > 0 && Number.isFinite(speed))) throw new CalcError("speed", `expected the curve's speed, greater than zero; got ${speed}`);
+  const r = affinityRatioThrough(head, flow, dutyHead).value;
+  const warnings = affinityScale(1, "flow", r).warnings;
+  if (r > 1) warnings.push(`Speed ${(r * 100).toFixed(1)} % of the curve's: confirm the maker's maximum speed and the motor power, which rises as the cube of speed.`);
+  return ok(r * speed, warnings);
 }

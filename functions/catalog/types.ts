@@ -3,10 +3,14 @@
  * binding, the pane's explanation, the README reference and the checks.
  */
 import type { CalcResult } from "../calc/_lib/result";
+import type { Table, TableKind } from "../bind/table";
 import type { Dimension } from "../units/dimensions";
 
-/** Argument values after coercion, by parameter name: numbers in base units, choices as lower-case text. */
-export type Args = Record<string, number | string>;
+/** Argument values after coercion, by parameter name: numbers in base units, choices as lower-case text, tables. */
+export type Args = Record<string, number | string | Table>;
+
+/** One cell of a spilled result. */
+export type Cell = number | string;
 
 interface ParamBase {
   /** Name as the worksheet shows it (snake_case). */
@@ -46,14 +50,20 @@ export interface AnyQuantityParam extends ParamBase {
   dimFrom: (args: Args) => Dimension;
 }
 
-export type ParamSpec = QuantityParam | ChoiceParam | UnitParam | AnyQuantityParam;
+/** A range read as a table with an optional header row of column names and units. */
+export interface TableParam extends ParamBase {
+  kind: "table";
+  table: TableKind;
+}
+
+export type ParamSpec = QuantityParam | ChoiceParam | UnitParam | AnyQuantityParam | TableParam;
 
 /** A worked example that runs as a test through the calc core and the built worksheet binding. */
 export interface Example {
   /** Arguments as a worksheet would pass them: numbers, text, or null for a skipped optional. */
   args: ReadonlyArray<number | string | null>;
-  /** Expected worksheet result. */
-  expect: number;
+  /** Expected worksheet result: a number, or for a spilled result the expected cells. */
+  expect: number | readonly (readonly Cell[])[];
   /** Relative tolerance (default 1e-9). */
   tolerance?: number;
   /** Where the expected value comes from. */
@@ -68,8 +78,11 @@ export interface FunctionSpec {
   /** One line: what it returns. */
   purpose: string;
   params: readonly ParamSpec[];
-  /** Dimension of the result, fixed or picked by the arguments. */
-  result: { dim: Dimension | ((args: Args) => Dimension); description: string };
+  /**
+   * Dimension of the result, fixed or picked by the arguments. A spilled result (`spill`) is a
+   * table whose compute converts its own units; `dim` then describes its main value.
+   */
+  result: { dim: Dimension | ((args: Args) => Dimension); description: string; spill?: boolean };
   /** The equation in LaTeX. */
   equation: string;
   assumptions: readonly string[];
@@ -80,7 +93,7 @@ export interface FunctionSpec {
   sources: readonly string[];
   examples: readonly Example[];
   /** Computes the result in base units from coerced arguments. */
-  compute: (args: Args) => CalcResult;
+  compute: (args: Args) => CalcResult<number | Cell[][]>;
 }
 
 /** Resolves a result dimension that may depend on the arguments. */

@@ -1,0 +1,181 @@
+/**
+ * Reading worksheet ranges as tables (pump curves, pipe segments, impeller families).
+ * An optional header row names each column and declares its unit: `Flow (gpm)`, `Head [ft]`,
+ * `Eff (%)`. Without a header the columns are positional and in base units. Cells may hold
+ * numbers or text quantities. Blank trailing rows are ignored.
+ */
+import { CalcError } from "../calc/_lib/result";
+import { type Dimension, DIMENSIONS } from "../units/dimensions";
+import { parseNumberText, parseQuantity, toBase, fromBase } from "../units/quantity";
+import type { RawArg } from "./evaluate";
+
+export const TABLE_KINDS = ["curve", "segments", "family"] as const;
+export type TableKind = (typeof TABLE_KINDS)[number];
+
+interface RoleSpec {
+  role: string;
+  dim: Dimension;
+  required: boolean;
+  /** Header names that mean this column (matched on the name before any unit). */
+  names: RegExp;
+  /** One line for messages and docs. */
+  label: string;
+  /** Label cells (text that is not a quantity) allowed, as for impeller names. */
+  labels?: boolean;
+}
+
+const FLOW: RoleSpec = { role: "flow", dim: "flow", required: true, names: /^(flow|q|capacity|rate|discharge)$/i, label: "Flow" };
+const HEAD: RoleSpec = { role: "head", dim: "length", required: true, names: /^(head|h|tdh|total head)$/i, label: "Head" };
+const EFF: RoleSpec = { role: "efficiency", dim: "efficiency", required: false, names: /^(eff|efficiency|eta|η)$/i, label: "Eff" };
+const NPSHR: RoleSpec = { role: "npshr", dim: "length", required: false, names: /^(npshr|npsh|npsh3|npshre?q)$/i, label: "NPSHr" };
+const POWER: RoleSpec = { role: "power", dim: "power", required: false, names: /^(power|p|bhp|shaft power)$/i, label: "Power" };
+
+/** Columns of each kind of table, in positional order. */
+export const TABLE_ROLES: Record<TableKind, RoleSpec[]> = {
+  curve: [FLOW, HEAD, EFF, NPSHR, POWER],
+  segments: [
+    { role: "length", dim: "length", required: true, names: /^(length|l|len)$/i, label: "Length" },
+    { role: "diameter", dim: "length", required: true, names: /^(id|d|diameter|inside diameter|bore)$/i, label: "ID" },
+    { role: "roughness", dim: "length", required: true, names: /^(roughness|rough|e|ε|eps|epsilon)$/i, label: "Roughness" },
+    { role: "k", dim: "ratio", required: false, names: /^(k|sum k|σk|Σk|k total|minor)$/i, label: "K" },
+  ],
+  family: [{ role: "impeller", dim: "length", required: true, names: /^(impeller|imp|dia|diameter|d|trim|size)$/i, label: "Impeller", labels: true }, FLOW, HEAD, EFF, NPSHR, POWER],
+};
+
+/** One column read into base units. `values` has null where a cell was blank. */
+export interface TableColumn {
+  role: string;
+  dim: Dimension;
+  /** Header text as written, or undefined for a positional column. */
+  header?: string;
+  /** Unit the column's bare numbers were read in ("%" for percent; base unit otherwise). */
+  unit: string;
+  values: (number | null)[];
+  /** Text labels (impeller names) where cells were labels, else null. */
+  labels: (string | null)[];
+}
+
+export interface Table {
+  kind: TableKind;
+  hasHeader: boolean;
+  rows: number;
+  columns: TableColumn[];
+}
+
+const HEADER_CELL = /^\s*([^([]*?)\s*(?:[([]\s*([^)\]]*?)\s*[)\]])?\s*$/;
+const MAX_ROWS = 10000;
+
+function isBlank(v: RawArg): boolean {
+  return v === null || v === undefined || (typeof v === "string" && v.trim() === "");
+}
+
+function splitHeader(cell: string): { name: string; unit: string } {
+  const m = HEADER_CELL.exec(cell);
+  return m ? { name: m[1], unit: (m[2] ?? "").trim() } : { name: cell.trim(), unit: "" };
+}
+
+function isHeaderRow(row: readonly RawArg[], roles: RoleSpec[]): boolean {
+  if (row.some((c) => typeof c === "number")) return false;
+  return row.some((c) => typeof c === "string" && roles.some((r) => r.names.test(splitHeader(c).name)));
+}
+
+/** Reads a worksheet range as a table of the given kind; `arg` names the argument in errors. */
+export function readTable(arg: string, kind: TableKind, raw: RawArg): Table {
+  if (!Array.isArray(raw) || !raw.length || !Array.isArray(raw[0])) {
+    throw new CalcError(arg, `expected a range of cells (a ${kind} table), got a single value`, "value");
+  }
+  const grid = raw as RawArg[][];
+  if (grid.length > MAX_ROWS) throw new CalcError(arg, `has ${grid.length} rows; at most ${MAX_ROWS} are read`, "value");
+  const roles = TABLE_ROLES[kind];
+  const width = grid[0].length;
+  const hasHeader = isHeaderRow(grid[0], roles);
+  // Which role each column plays.
+  const assigned: { spec: RoleSpec; header?: string; unit: string }[] = [];
+  if (hasHeader) {
+    grid[0].forEach((cell, j) => {
+      if (isBlank(cell)) return;
+      const text = String(cell);
+      const { name, unit } = splitHeader(text);
+      const spec = roles.find((r) => r.names.test(name));
+      if (!spec) throw new CalcError(arg, `header "${text}" (column ${j + 1}) names no column of a ${kind} table; expected ${roles.map((r) => r.label).join(", ")}`, "value");
+      if (assigned.some((a) => a.spec === spec)) throw new CalcError(arg, `two columns are headed ${spec.label}`, "value");
+      assigned[j] = { spec, header: text, unit };
+    });
+  } else {
+    if (width > roles.length) throw new CalcError(arg, `has ${width} columns; a ${kind} table without a header has at most ${roles.length} (${roles.map((r) => r.label).join(", ")})`, "value");
+    for (let j = 0; j < width; j++) assigned[j] = { spec: roles[j], unit: "" };
+  }
+  for (const r of roles) {
+    if (r.required && !assigned.some((a) => a && a.spec === r)) {
+      throw new CalcError(arg, `has no ${r.label} column: ${hasHeader ? "name it in the header" : `columns without a header are ${roles.map((x) => x.label).join(", ")} in that order`}`, "value");
+    }
+  }
+  // Data rows, blank trailing rows dropped.
+  let body = grid.slice(hasHeader ? 1 : 0);
+  let last = body.length - 1;
+  while (last >= 0 && body[last].every(isBlank)) last--;
+  body = body.slice(0, last + 1);
+  body.forEach((row, i) => {
+    if (row.every(isBlank)) throw new CalcError(arg, `row ${i + 1 + (hasHeader ? 1 : 0)} is blank inside the table`, "value");
+  });
+  const columns: TableColumn[] = [];
+  assigned.forEach((a, j) => {
+    if (!a) return;
+    columns.push(readColumn(arg, a.spec, a.header, a.unit, body.map((row) => row[j]), hasHeader ? 2 : 1));
+  });
+  return { kind, hasHeader, rows: body.length, columns };
+}
+
+function readColumn(arg: string, spec: RoleSpec, header: string | undefined, unit: string, cells: RawArg[], firstRow: number): TableColumn {
+  const label = header ? `"${header}"` : spec.label;
+  const where = (i: number) => `row ${i + firstRow}, column ${label}`;
+  const dimNoun = DIMENSIONS[spec.dim].noun;
+  if (spec.dim === "ratio" && unit) throw new CalcError(arg, `column ${label} is a plain number and takes no unit`, "value");
+  if (spec.dim === "efficiency" && unit && unit !== "%") throw new CalcError(arg, `column ${label}: efficiency is a fraction, or percent with a "%" header; "${unit}" is not understood`, "value");
+  if (unit && spec.dim !== "efficiency" && spec.dim !== "ratio") toBase(arg, 1, spec.dim, unit); // throws on a wrong or unknown unit
+  const values: (number | null)[] = [];
+  const labels: (string | null)[] = [];
+  cells.forEach((raw, i) => {
+    labels.push(null);
+    if (isBlank(raw)) {
+      if (spec.required) throw new CalcError(arg, `${where(i)} is blank: every row needs ${dimNoun}`, "value");
+      values.push(null);
+      return;
+    }
+    const cell = raw as number | string | boolean | RawArg[][];
+    if (typeof cell === "boolean" || Array.isArray(cell)) throw new CalcError(arg, `${where(i)}: expected ${dimNoun}; got ${String(cell)}`, "value");
+    if (typeof cell === "number" || parseNumberText(cell) !== undefined) {
+      const n = typeof cell === "number" ? cell : parseNumberText(cell)!;
+      if (!Number.isFinite(n)) throw new CalcError(arg, `${where(i)}: expected a finite number`, "num");
+      if (spec.dim === "efficiency") values.push(unit === "%" ? n / 100 : n);
+      else values.push(unit ? toBase(arg, n, spec.dim, unit) : n);
+      return;
+    }
+    try {
+      values.push(parseQuantity(arg, cell, spec.dim).base);
+    } catch (e) {
+      if (!spec.labels) throw new CalcError(arg, `${where(i)}: ${e instanceof CalcError ? e.detail : String(e)}`, "value");
+      values.push(null);
+      labels[i] = cell.trim();
+    }
+  });
+  if (spec.dim === "efficiency" && unit !== "%") {
+    const big = values.find((v) => v !== null && v > 1);
+    if (big !== undefined) {
+      throw new CalcError(arg, `column ${label} holds ${big}, which looks like percent: head the column "Eff (%)" or give fractions (0.78)`, "num");
+    }
+  }
+  return { role: spec.role, dim: spec.dim, header, unit: unit || DIMENSIONS[spec.dim].base, values, labels };
+}
+
+/** The column playing `role`, if any. */
+export function column(table: Table, role: string): TableColumn | undefined {
+  return table.columns.find((c) => c.role === role);
+}
+
+/** Writes a base-unit value back in a column's unit (for spilled tables). */
+export function inColumnUnit(col: TableColumn, value: number): number {
+  if (col.dim === "efficiency") return col.unit === "%" ? value * 100 : value;
+  if (col.dim === "ratio" || col.unit === DIMENSIONS[col.dim].base) return value;
+  return fromBase("curve", value, col.dim, col.unit);
+}

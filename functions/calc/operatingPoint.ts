@@ -1,0 +1,37 @@
+/** The operating point: where the pump's head curve meets the system curve. */
+import { CalcError, type CalcResult, ok } from "./_lib/result";
+import { allRoots } from "./_lib/solve";
+import type { Interpolant } from "./pumpCurve";
+
+export interface OperatingPoint {
+  flow: number;
+  head: number;
+}
+
+/**
+ * Solves pump(Q) = system(Q) on the pump curve's flow range (Brent's method on every sign
+ * change found in 400 steps). Where a drooping curve crosses twice, the higher flow is the
+ * stable point and is returned with a warning.
+ */
+export function operatingPoint(pump: Interpolant, systemAt: (flow: number) => number): CalcResult<OperatingPoint> {
+  const diff = (q: number) => pump.at(q) - systemAt(q);
+  const roots = allRoots(diff, pump.min, pump.max, 400);
+  if (!roots.length) {
+    if (diff(pump.min) < 0) {
+      throw new CalcError(
+        "system",
+        `the system needs more head than the pump gives anywhere on its curve (at ${pump.min.toPrecision(4)} m³/s: pump ${pump.at(pump.min).toPrecision(4)} m, system ${systemAt(pump.min).toPrecision(4)} m)`,
+      );
+    }
+    throw new CalcError(
+      "system",
+      `the curves do not cross within the pump curve: at its last point (${pump.max.toPrecision(4)} m³/s) the pump still gives ${pump.at(pump.max).toPrecision(4)} m against ${systemAt(pump.max).toPrecision(4)} m needed, so it would run beyond the curve`,
+    );
+  }
+  const flow = roots[roots.length - 1];
+  const warnings: string[] = [];
+  if (roots.length > 1) {
+    warnings.push(`The curves cross ${roots.length} times (drooping head curve); the highest-flow crossing is returned. Operation near the others may be unstable.`);
+  }
+  return ok({ flow, head: pump.at(flow) }, warnings);
+}

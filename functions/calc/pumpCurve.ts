@@ -1,0 +1,153 @@
+/**
+ * Pump curves: a series of (flow, value) points evaluated between the points by
+ *  - "pchip": the monotone piecewise cubic Hermite interpolant of Fritsch & Carlson (1980) with
+ *    the weighted harmonic-mean slopes of Fritsch & Butland (1984) and the three-point end
+ *    rule, as SLATEC PCHIM, MATLAB pchip and SciPy PchipInterpolator compute it; or
+ *  - "quadratic" / "cubic": a least-squares polynomial through all the points.
+ * Flows outside the points are an error, never an extrapolation.
+ */
+import { CalcError } from "./_lib/result";
+import { evaluatePolynomial, fitPolynomial } from "./_lib/leastSquares";
+
+export const CURVE_FITS = ["pchip", "quadratic", "cubic"] as const;
+export type CurveFit = (typeof CURVE_FITS)[number];
+
+/** Points of one quantity against flow. */
+export interface Series {
+  x: number[];
+  y: number[];
+}
+
+/** A pump curve: head against flow, and optionally efficiency (fraction), NPSHr and power. */
+export interface PumpCurve {
+  head: Series;
+  efficiency?: Series;
+  npshr?: Series;
+  power?: Series;
+}
+
+export type CurveQuantity = keyof PumpCurve;
+
+/** Derivatives at the points, as SciPy's PchipInterpolator._find_derivatives computes them. */
+export function pchipSlopes(x: readonly number[], y: readonly number[]): number[] {
+  const n = x.length;
+  const h: number[] = [];
+  const m: number[] = [];
+  for (let k = 0; k < n - 1; k++) {
+    h.push(x[k + 1] - x[k]);
+    m.push((y[k + 1] - y[k]) / h[k]);
+  }
+  if (n === 2) return [m[0], m[0]];
+  const d = new Array<number>(n).fill(0);
+  for (let k = 1; k < n - 1; k++) {
+    if (Math.sign(m[k - 1]) !== Math.sign(m[k]) || m[k - 1] === 0 || m[k] === 0) {
+      d[k] = 0;
+    } else {
+      const w1 = 2 * h[k] + h[k - 1];
+      const w2 = h[k] + 2 * h[k - 1];
+      d[k] = (w1 + w2) / (w1 / m[k - 1] + w2 / m[k]);
+    }
+  }
+  d[0] = pchipEnd(h[0], h[1], m[0], m[1]);
+  d[n - 1] = pchipEnd(h[n - 2], h[n - 3], m[n - 2], m[n - 3]);
+  return d;
+}
+
+/** The three-point end slope, kept shape-preserving (SciPy's _edge_case; SLATEC PCHIM). */
+function pchipEnd(h0: number, h1: number, m0: number, m1: number): number {
+  let d = ((2 * h0 + h1) * m0 - h0 * m1) / (h0 + h1);
+  if (Math.sign(d) !== Math.sign(m0)) d = 0;
+  else if (Math.sign(m0) !== Math.sign(m1) && Math.abs(d) > 3 * Math.abs(m0)) d = 3 * m0;
+  return d;
+}
+
+/** Evaluates the cubic Hermite interpolant with slopes d at xq (inside [x0, xn]). */
+export function hermite(x: readonly number[], y: readonly number[], d: readonly number[], xq: number): number {
+  let k = 0;
+  let hi = x.length - 1;
+  while (hi - k > 1) {
+    const mid = (k + hi) >> 1;
+    if (x[mid] <= xq) k = mid;
+    else hi = mid;
+  }
+  const h = x[k + 1] - x[k];
+  const t = (xq - x[k]) / h;
+  const t2 = t * t;
+  const t3 = t2 * t;
+  return (2 * t3 - 3 * t2 + 1) * y[k] + (t3 - 2 * t2 + t) * h * d[k] + (-2 * t3 + 3 * t2) * y[k + 1] + (t3 - t2) * h * d[k + 1];
+}
+
+/** A series ready to evaluate at any flow inside its range. */
+export interface Interpolant {
+  min: number;
+  max: number;
+  at(flow: number): number;
+}
+
+/** Builds the interpolant of a checked series by the chosen fit. */
+export function interpolant(series: Series, fit: CurveFit = "pchip"): Interpolant {
+  const { x, y } = series;
+  const min = x[0];
+  const max = x[x.length - 1];
+  if (fit === "pchip") {
+    const d = pchipSlopes(x, y);
+    return { min, max, at: (q) => hermite(x, y, d, q) };
+  }
+  const degree = fit === "quadratic" ? 2 : 3;
+  if (x.length < degree + 2) {
+    throw new CalcError("fit", `a least-squares ${fit} needs at least ${degree + 2} points; the curve has ${x.length}`);
+  }
+  const poly = fitPolynomial(x, y, degree);
+  return { min, max, at: (q) => evaluatePolynomial(poly, q) };
+}
+
+/** Relative slack at the ends of a curve, so a flow read from the last point itself is inside. */
+const RANGE_SLACK = 1e-9;
+
+/** Value of a series at a flow, refusing flows outside the points. */
+export function valueAt(arg: string, what: string, f: Interpolant, flow: number): number {
+  const slack = RANGE_SLACK * Math.max(Math.abs(f.max), 1e-300);
+  if (!(flow >= f.min - slack && flow <= f.max + slack)) {
+    throw new CalcError(arg, `${flow.toPrecision(6)} m³/s is outside the ${what} curve (${f.min.toPrecision(6)} to ${f.max.toPrecision(6)} m³/s); values are never extrapolated`);
+  }
+  return f.at(Math.min(Math.max(flow, f.min), f.max));
+}
+
+/**
+ * Sorts a series by flow and checks it: at least three points, no repeated flow, flows of zero
+ * or more, values inside [lo, hi]. `what` names the column in messages.
+ */
+export function checkSeries(arg: string, what: string, x: readonly number[], y: readonly number[], lo: number, hi = Infinity): Series {
+  if (x.length < 3) throw new CalcError(arg, `the ${what} column needs at least 3 points; it has ${x.length}`, "value");
+  const order = x.map((_, i) => i).sort((a, b) => x[a] - x[b]);
+  const xs = order.map((i) => x[i]);
+  const ys = order.map((i) => y[i]);
+  for (let i = 0; i < xs.length; i++) {
+    if (!(Number.isFinite(xs[i]) && xs[i] >= 0)) throw new CalcError(arg, `flows must be zero or more; got ${xs[i]}`, "value");
+    if (i > 0 && xs[i] === xs[i - 1]) throw new CalcError(arg, `the flow ${xs[i]} m³/s appears twice; each flow may appear once`, "value");
+    if (!(Number.isFinite(ys[i]) && ys[i] >= lo && ys[i] <= hi)) {
+      throw new CalcError(arg, `${what} ${ys[i]} at flow ${xs[i]} m³/s is out of range (expected ${lo} to ${hi})`, "value");
+    }
+  }
+  return { x: xs, y: ys };
+}
+
+/**
+ * A head curve may rise from shutoff to a peak and then must fall; one that falls and rises
+ * again (two turning points) is not a pump curve.
+ */
+export function checkHeadShape(arg: string, head: Series): void {
+  let falling = false;
+  for (let i = 1; i < head.y.length; i++) {
+    const dy = head.y[i] - head.y[i - 1];
+    if (dy < 0) falling = true;
+    else if (dy > 0 && falling) {
+      throw new CalcError(arg, `head rises again at flow ${head.x[i]} m³/s after falling: a pump curve rises to one peak at most, then falls`, "value");
+    }
+  }
+}
+
+/** The range of flows a curve covers (its head points). */
+export function flowRange(curve: PumpCurve): [number, number] {
+  return [curve.head.x[0], curve.head.x[curve.head.x.length - 1]];
+}

@@ -1,0 +1,73 @@
+/**
+ * System head: static head plus the losses of each pipe segment,
+ * H = Hs + Σ (f·L/D + ΣK)·V²/2g (Darcy–Weisbach with Colebrook), or H = Hs + k·Q².
+ */
+import { type CalcResult, CalcError, ok, requireFinite, requireNonNegative } from "./_lib/result";
+import { frictionFactor } from "./friction";
+import { velocityHead } from "./headLoss";
+import { pipeArea } from "./pipeFlow";
+
+/** One run of pipe of one size: length, inside diameter, absolute roughness, sum of K. */
+export interface PipeSegment {
+  length: number;
+  diameter: number;
+  roughness: number;
+  k: number;
+}
+
+/** How the system's losses are described: a resistance k (H = Hs + kQ²) or pipe segments. */
+export type SystemLosses = { k: number } | { segments: readonly PipeSegment[]; kinematicViscosity: number };
+
+/** Checks segment values; `arg` names the table. */
+export function checkSegments(arg: string, segments: readonly PipeSegment[]): void {
+  if (!segments.length) throw new CalcError(arg, "needs at least one pipe segment (length, inside diameter, roughness, K)", "value");
+  segments.forEach((s, i) => {
+    const where = `segment ${i + 1}`;
+    if (!(s.length >= 0)) throw new CalcError(arg, `${where}: length must be zero or more; got ${s.length}`);
+    if (!(s.diameter > 0)) throw new CalcError(arg, `${where}: inside diameter must be greater than zero; got ${s.diameter}`);
+    if (!(s.roughness >= 0 && s.roughness < 0.5 * s.diameter)) throw new CalcError(arg, `${where}: roughness must be zero or more and well below the diameter; got ${s.roughness}`);
+    if (!(s.k >= 0)) throw new CalcError(arg, `${where}: K must be zero or more; got ${s.k}`);
+  });
+}
+
+/** Sum of friction and minor losses of the segments at a flow, m. */
+export function segmentLosses(flow: number, segments: readonly PipeSegment[], kinematicViscosity: number): CalcResult {
+  const warnings = new Set<string>();
+  let total = 0;
+  if (flow === 0) return ok(0);
+  for (const s of segments) {
+    const v = flow / pipeArea(s.diameter);
+    const re = (v * s.diameter) / kinematicViscosity;
+    const f = frictionFactor(re, s.roughness / s.diameter);
+    f.warnings.forEach((w) => warnings.add(w));
+    total += ((f.value * s.length) / s.diameter + s.k) * velocityHead(v);
+  }
+  return ok(total, [...warnings]);
+}
+
+/** System head at a flow, m. */
+export function systemHead(flow: number, staticHead: number, losses: SystemLosses): CalcResult {
+  requireNonNegative("flow", flow, "a flow of zero or more");
+  requireFinite("static_head", staticHead);
+  if ("k" in losses) {
+    if (!(losses.k >= 0)) throw new CalcError("system", `expected a resistance k of zero or more (H = Hs + k·Q², k in s²/m⁵); got ${losses.k}`);
+    return ok(staticHead + losses.k * flow * flow);
+  }
+  const loss = segmentLosses(flow, losses.segments, losses.kinematicViscosity);
+  return ok(staticHead + loss.value, loss.warnings);
+}
+
+/** System curve at `points` flows evenly from 0 to maxFlow: rows of [flow, head] in m³/s and m. */
+export function systemCurve(staticHead: number, losses: SystemLosses, maxFlow: number, points: number): CalcResult<[number, number][]> {
+  if (!(maxFlow > 0 && Number.isFinite(maxFlow))) throw new CalcError("max_flow", `expected a flow greater than zero; got ${maxFlow}`);
+  if (!(Number.isInteger(points) && points >= 2 && points <= 1000)) throw new CalcError("points", `expected a whole number of points from 2 to 1000; got ${points}`);
+  const warnings = new Set<string>();
+  const rows: [number, number][] = [];
+  for (let i = 0; i < points; i++) {
+    const q = (maxFlow * i) / (points - 1);
+    const h = systemHead(q, staticHead, losses);
+    h.warnings.forEach((w) => warnings.add(w));
+    rows.push([q, h.value]);
+  }
+  return ok(rows, [...warnings]);
+}

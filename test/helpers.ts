@@ -1,0 +1,28 @@
+import { expect } from "vitest";
+import type { Cell, Example } from "../functions/catalog/types";
+
+/** Relative difference, with absolute difference where the expected value is zero. */
+export function relativeError(got: number, want: number): number {
+  return want === 0 ? Math.abs(got) : Math.abs(got / want - 1);
+}
+
+/** Checks a worksheet result against an example's expected number or spilled cells. */
+export function expectMatchesExample(got: unknown, ex: Pick<Example, "expect" | "tolerance">, label = ""): void {
+  const tol = ex.tolerance ?? 1e-9;
+  if (typeof ex.expect === "number") {
+    expect(typeof got, label).toBe("number");
+    expect(relativeError(got as number, ex.expect), label).toBeLessThanOrEqual(tol);
+    return;
+  }
+  const rows = got as Cell[][];
+  expect(Array.isArray(rows), label).toBe(true);
+  expect(rows.length, label).toBe(ex.expect.length);
+  ex.expect.forEach((row, i) => {
+    expect(rows[i].length, `${label} row ${i}`).toBe(row.length);
+    row.forEach((want, j) => {
+      const cell = rows[i][j];
+      if (typeof want === "number") expect(relativeError(cell as number, want), `${label} [${i}][${j}] = ${cell}`).toBeLessThanOrEqual(tol);
+      else expect(cell, `${label} [${i}][${j}]`).toBe(want);
+    });
+  });
+}
