@@ -175,6 +175,332 @@ export function headlossMinor(flow: any, diameter: any, k_total: any, unit?: any
 }
 
 /**
+ * Inside diameter of steel pipe from its nominal size and schedule.
+ * @customfunction PIPE.ID
+ * @param nps Nominal pipe size: 6, 0.5 or "1-1/2" (NPS 1/8 to 24).
+ * @param schedule Schedule: 40, "STD", "XS", "40S", ... (10, 20, 30, 40, 60, 80, 100, 120, 140, 160, 5S, 10S, STD, 40S, XS, 80S, XXS).
+ * @param unit Unit of the result, such as "in" or "mm"; base unit when left out.
+ * @returns Inside diameter, m.
+ */
+export function pipeId(nps: any, schedule: any, unit?: any): number {
+  return run("PIPE.ID", [nps, schedule, unit]) as number;
+}
+
+/**
+ * Typical absolute roughness of new pipe of a material.
+ * @customfunction PIPE.ROUGHNESS
+ * @param material Material: "commercial steel", "wrought iron", "stainless steel", "galvanized iron", "asphalted cast iron", "cast iron", "ductile iron cement lined", "concrete", "riveted steel", "wood stave", "drawn tubing", "copper", "pvc", "hdpe".
+ * @param unit Unit of the result, such as "mm" or "ft"; base unit when left out.
+ * @returns Absolute roughness ε, m.
+ */
+export function pipeRoughness(material: any, unit?: any): number {
+  return run("PIPE.ROUGHNESS", [material, unit]) as number;
+}
+
+/**
+ * Loss coefficient K of a fitting or valve in pipe of a given inside diameter.
+ * @customfunction FITTING.K
+ * @param fitting Fitting: "elbow 90", "elbow 90 long", "elbow 45", "bend 180", "tee run", "tee branch", "gate valve", "ball valve", "plug valve", "butterfly valve", "globe valve", "angle valve", "swing check", "lift check", "foot valve", "entrance sharp", "entrance projecting", "entrance rounded", "exit".
+ * @param diameter Inside diameter of the pipe (sets f_T); not used for entrances and exits.
+ * @returns Loss coefficient K (referred to the velocity in this diameter).
+ */
+export function fittingK(fitting: any, diameter: any): number {
+  return run("FITTING.K", [fitting, diameter]) as number;
+}
+
+/**
+ * Head a piping system needs at a flow: static head plus friction and fitting losses of each segment.
+ * @customfunction SYSTEM.HEAD
+ * @param flow Flow through the system.
+ * @param static_head Static head: elevation rise plus any pressure difference as head.
+ * @param segments Pipe segments range: Length, ID, Roughness and optionally K (sum of fitting coefficients) per row; a header such as "ID (in)" sets units.
+ * @param kinematic_viscosity Liquid kinematic viscosity; water at 20 °C when left out.
+ * @param unit Unit of the result, such as "ft" or "m"; base unit when left out.
+ * @returns System head, m.
+ */
+export function systemHead(flow: any, static_head: any, segments: any[][], kinematic_viscosity?: any, unit?: any): number {
+  return run("SYSTEM.HEAD", [flow, static_head, segments, kinematic_viscosity, unit]) as number;
+}
+
+/**
+ * System curve from zero to a maximum flow; spills a table of flow and head with a unit header.
+ * @customfunction SYSTEM.CURVE
+ * @param static_head Static head: elevation rise plus any pressure difference as head.
+ * @param segments Pipe segments range: Length, ID, Roughness and optionally K (sum of fitting coefficients) per row; a header such as "ID (in)" sets units.
+ * @param max_flow Largest flow of the curve.
+ * @param points Number of points, 2 to 1000; 11 when left out.
+ * @param kinematic_viscosity Liquid kinematic viscosity; water at 20 °C when left out.
+ * @param flow_unit Unit of the flow column, such as "gpm"; m³/s when left out.
+ * @param head_unit Unit of the head column, such as "ft"; m when left out.
+ * @returns Header row ("Flow (gpm)", "Head (ft)") then one row per point, ready to use as a table argument.
+ */
+export function systemCurve(static_head: any, segments: any[][], max_flow: any, points?: any, kinematic_viscosity?: any, flow_unit?: any, head_unit?: any): any[][] {
+  return run("SYSTEM.CURVE", [static_head, segments, max_flow, points, kinematic_viscosity, flow_unit, head_unit]) as any[][];
+}
+
+/**
+ * Head of a pump at a flow, read from its curve.
+ * @customfunction PUMP.HEAD
+ * @param flow Volume flow rate.
+ * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param unit Unit of the result, such as "ft" or "m"; base unit when left out.
+ * @param fit "pchip" (default: monotone cubic through the points), "quadratic" or "cubic" (least squares).
+ * @returns Head, m.
+ */
+export function pumpHead(flow: any, curve: any[][], unit?: any, fit?: any): number {
+  return run("PUMP.HEAD", [flow, curve, unit, fit]) as number;
+}
+
+/**
+ * Efficiency of a pump at a flow, read from its curve's efficiency column.
+ * @customfunction PUMP.EFFICIENCY
+ * @param flow Volume flow rate.
+ * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param fit "pchip" (default: monotone cubic through the points), "quadratic" or "cubic" (least squares).
+ * @returns Efficiency as a fraction (0.76).
+ */
+export function pumpEfficiency(flow: any, curve: any[][], fit?: any): number {
+  return run("PUMP.EFFICIENCY", [flow, curve, fit]) as number;
+}
+
+/**
+ * NPSH required by a pump at a flow, read from its curve's NPSHr column.
+ * @customfunction PUMP.NPSHR
+ * @param flow Volume flow rate.
+ * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param unit Unit of the result, such as "ft" or "m"; base unit when left out.
+ * @param fit "pchip" (default: monotone cubic through the points), "quadratic" or "cubic" (least squares).
+ * @returns NPSHr, m.
+ */
+export function pumpNpshr(flow: any, curve: any[][], unit?: any, fit?: any): number {
+  return run("PUMP.NPSHR", [flow, curve, unit, fit]) as number;
+}
+
+/**
+ * Shaft power of a pump at a flow: from the curve's power column, or ρgQH/η from its head and efficiency.
+ * @customfunction PUMP.POWER
+ * @param flow Volume flow rate.
+ * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param density Liquid density; water at 20 °C when left out.
+ * @param unit Unit of the result, such as "kW" or "hp"; base unit when left out.
+ * @returns Shaft power, W.
+ */
+export function pumpPower(flow: any, curve: any[][], density?: any, unit?: any): number {
+  return run("PUMP.POWER", [flow, curve, density, unit]) as number;
+}
+
+/**
+ * Operating point where the pump curve meets the system curve; spills flow and head.
+ * @customfunction PUMP.DUTY
+ * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param static_head Static head: rise from suction surface to discharge, plus any pressure difference as head.
+ * @param system Resistance k in H = Hs + k·Q² (s²/m⁵), or a segments table (Length, ID, Roughness, K).
+ * @param kinematic_viscosity Liquid kinematic viscosity; water at 20 °C when left out.
+ * @param flow_unit Unit of the spilled flow, such as "gpm"; m³/s when left out.
+ * @param head_unit Unit of the spilled head, such as "ft"; m when left out.
+ * @returns One row: flow, head of the operating point.
+ */
+export function pumpDuty(curve: any[][], static_head: any, system: any[][], kinematic_viscosity?: any, flow_unit?: any, head_unit?: any): any[][] {
+  return run("PUMP.DUTY", [curve, static_head, system, kinematic_viscosity, flow_unit, head_unit]) as any[][];
+}
+
+/**
+ * A pump curve scaled by the affinity laws for a speed (or small diameter) ratio; spills the new curve.
+ * @customfunction PUMP.SCALE
+ * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param ratio Speed ratio N2/N1 (or impeller diameter ratio for small trims).
+ * @returns The curve with flow × r, head and NPSHr × r², power × r³, efficiency unchanged; same columns, header and units.
+ */
+export function pumpScale(curve: any[][], ratio: any): any[][] {
+  return run("PUMP.SCALE", [curve, ratio]) as any[][];
+}
+
+/**
+ * Curve of identical pumps in parallel (flows add) or series (heads add); spills the combined curve.
+ * @customfunction PUMP.COMBINE
+ * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param count Number of identical pumps running, 1 or more.
+ * @param arrangement "parallel" or "series".
+ * @returns The combined curve; same columns, header and units.
+ */
+export function pumpCombine(curve: any[][], count: any, arrangement: any): any[][] {
+  return run("PUMP.COMBINE", [curve, count, arrangement]) as any[][];
+}
+
+/**
+ * From a family of impeller curves, the smallest impeller that meets a duty; spills impeller, head, efficiency and NPSHr at the duty flow.
+ * @customfunction PUMP.SELECT
+ * @param family Impeller family: Impeller, Flow, Head and optionally Eff, NPSHr columns, one row per point.
+ * @param flow Duty flow.
+ * @param head Head needed at the duty flow.
+ * @param unit Unit of the result, such as "ft" or "m" (head and NPSHr); base unit when left out.
+ * @returns One row: impeller (in the family's unit, or its label), head at the duty flow, efficiency (fraction), NPSHr; blank where the family has no such column.
+ */
+export function pumpSelect(family: any[][], flow: any, head: any, unit?: any): any[][] {
+  return run("PUMP.SELECT", [family, flow, head, unit]) as any[][];
+}
+
+/**
+ * Scales a flow, head, NPSHr or power by the affinity laws for a speed or diameter ratio.
+ * @customfunction AFFINITY
+ * @param value The flow, head, NPSHr or power to scale.
+ * @param kind "flow" (× r), "head" or "npshr" (× r²), "power" (× r³).
+ * @param ratio Speed ratio N2/N1 (or impeller diameter ratio D2/D1).
+ * @param unit Unit of the result, such as "gpm", "ft" or "hp", matching the kind; base unit when left out.
+ * @returns Scaled value in the kind's base unit.
+ */
+export function affinity(value: any, kind: any, ratio: any, unit?: any): number {
+  return run("AFFINITY", [value, kind, ratio, unit]) as number;
+}
+
+/**
+ * Speed or diameter ratio r that moves a pump curve through a duty point by the affinity laws.
+ * @customfunction AFFINITY.RATIO
+ * @param curve Pump curve range (Flow, Head, ...) at the curve's impeller and speed; a header sets units.
+ * @param flow Duty flow.
+ * @param head Duty head.
+ * @returns Ratio r = N2/N1 (or D2/D1).
+ */
+export function affinityRatio(curve: any[][], flow: any, head: any): number {
+  return run("AFFINITY.RATIO", [curve, flow, head]) as number;
+}
+
+/**
+ * Trimmed impeller diameter that meets a duty point, by the affinity laws.
+ * @customfunction TRIM
+ * @param curve Pump curve range (Flow, Head, ...) at the curve's impeller and speed; a header sets units.
+ * @param diameter Impeller diameter of the curve.
+ * @param flow Duty flow.
+ * @param head Duty head.
+ * @param unit Unit of the result, such as "mm" or "in"; base unit when left out.
+ * @returns Trimmed diameter, m.
+ */
+export function trim(curve: any[][], diameter: any, flow: any, head: any, unit?: any): number {
+  return run("TRIM", [curve, diameter, flow, head, unit]) as number;
+}
+
+/**
+ * Pump speed that meets a duty point, by the affinity laws.
+ * @customfunction SPEED
+ * @param curve Pump curve range (Flow, Head, ...) at the curve's impeller and speed; a header sets units.
+ * @param speed Speed of the curve, rpm.
+ * @param flow Duty flow.
+ * @param head Duty head.
+ * @returns Speed, rpm.
+ */
+export function speed(curve: any[][], speed: any, flow: any, head: any): number {
+  return run("SPEED", [curve, speed, flow, head]) as number;
+}
+
+/**
+ * Pump specific speed at the best-efficiency point, in the chosen convention's units.
+ * @customfunction SPECIFICSPEED
+ * @param speed Pump speed, rpm.
+ * @param flow Flow at the best-efficiency point, per impeller eye (half the flow of a double-suction impeller).
+ * @param head Head per stage at the best-efficiency point.
+ * @param convention "SI" (rpm, m³/s, m; default), "US" (rpm, gpm, ft) or "dimensionless" (rad/s, m³/s, g·H).
+ * @returns Specific speed in the convention's units.
+ */
+export function specificspeed(speed: any, flow: any, head: any, convention?: any): number {
+  return run("SPECIFICSPEED", [speed, flow, head, convention]) as number;
+}
+
+/**
+ * Suction specific speed at the best-efficiency point, in the chosen convention's units.
+ * @customfunction SUCTIONSPEED
+ * @param speed Pump speed, rpm.
+ * @param flow Flow at the best-efficiency point, per impeller eye (half the flow of a double-suction impeller).
+ * @param npshr NPSHr (NPSH3) at the best-efficiency point.
+ * @param convention "SI" (rpm, m³/s, m; default), "US" (rpm, gpm, ft) or "dimensionless" (rad/s, m³/s, g·H).
+ * @returns Suction specific speed in the convention's units.
+ */
+export function suctionspeed(speed: any, flow: any, npshr: any, convention?: any): number {
+  return run("SUCTIONSPEED", [speed, flow, npshr, convention]) as number;
+}
+
+/**
+ * Hydraulic (water) power delivered to the liquid.
+ * @customfunction POWER.HYDRAULIC
+ * @param flow Volume flow rate.
+ * @param head Total head the pump adds.
+ * @param density Liquid density; water at 20 °C when left out.
+ * @param unit Unit of the result, such as "kW" or "hp"; base unit when left out.
+ * @returns Power, W.
+ */
+export function powerHydraulic(flow: any, head: any, density?: any, unit?: any): number {
+  return run("POWER.HYDRAULIC", [flow, head, density, unit]) as number;
+}
+
+/**
+ * Shaft (brake) power a pump needs at an efficiency.
+ * @customfunction POWER.SHAFT
+ * @param flow Volume flow rate.
+ * @param head Total head the pump adds.
+ * @param efficiency Pump efficiency: a fraction (0.78) or percent text ("78%").
+ * @param density Liquid density; water at 20 °C when left out.
+ * @param unit Unit of the result, such as "kW" or "hp"; base unit when left out.
+ * @returns Shaft power, W.
+ */
+export function powerShaft(flow: any, head: any, efficiency: any, density?: any, unit?: any): number {
+  return run("POWER.SHAFT", [flow, head, efficiency, density, unit]) as number;
+}
+
+/**
+ * Next standard motor rating at or above a power plus a margin.
+ * @customfunction MOTOR.SIZE
+ * @param power Power the motor must deliver (shaft power of the pump).
+ * @param series "NEMA" (hp ratings, default) or "IEC" (kW ratings).
+ * @param margin Fraction added to the power before choosing (0.15 or "15%"); 0 when left out.
+ * @param unit Unit of the result, such as "hp" or "kW"; base unit when left out.
+ * @returns Motor rating, W.
+ */
+export function motorSize(power: any, series?: any, margin?: any, unit?: any): number {
+  return run("MOTOR.SIZE", [power, series, margin, unit]) as number;
+}
+
+/**
+ * Energy a pump set uses in a year at a duty point.
+ * @customfunction ENERGY.ANNUAL
+ * @param flow Flow at the duty point.
+ * @param head Head at the duty point.
+ * @param efficiency Pump efficiency at the duty (0.78 or "78%").
+ * @param hours Running hours per year: bare number in hours, or text such as "250 day".
+ * @param motor_efficiency Motor (and drive) efficiency; 1 when left out.
+ * @param density Liquid density; water at 20 °C when left out.
+ * @param unit Unit of the result, such as "kWh" or "MWh"; base unit when left out.
+ * @returns Energy, J.
+ */
+export function energyAnnual(flow: any, head: any, efficiency: any, hours: any, motor_efficiency?: any, density?: any, unit?: any): number {
+  return run("ENERGY.ANNUAL", [flow, head, efficiency, hours, motor_efficiency, density, unit]) as number;
+}
+
+/**
+ * Net positive suction head available at the pump suction.
+ * @customfunction NPSHA
+ * @param surface_pressure Absolute pressure on the liquid surface, such as NAPPE.ATMPRESSURE(elevation) for an open tank.
+ * @param liquid_height Height of the liquid surface above the impeller eye; negative for a suction lift.
+ * @param suction_loss Head loss in the suction line at the duty flow.
+ * @param temperature Liquid temperature (sets the vapour pressure).
+ * @param density Liquid density; water at the given temperature when left out.
+ * @param unit Unit of the result, such as "ft" or "m"; base unit when left out.
+ * @returns NPSHa, m of liquid.
+ */
+export function npsha(surface_pressure: any, liquid_height: any, suction_loss: any, temperature: any, density?: any, unit?: any): number {
+  return run("NPSHA", [surface_pressure, liquid_height, suction_loss, temperature, density, unit]) as number;
+}
+
+/**
+ * NPSH margin ratio NPSHa/NPSHr, with a warning below the guideline.
+ * @customfunction NPSH.MARGIN
+ * @param npsha NPSH available.
+ * @param npshr NPSH required by the pump at the same flow (maker's NPSH3).
+ * @returns Margin ratio (dimensionless).
+ */
+export function npshMargin(npsha: any, npshr: any): number {
+  return run("NPSH.MARGIN", [npsha, npshr]) as number;
+}
+
+/**
  * Velocity of a jet issuing under a head (Torricelli).
  * @customfunction JET.VELOCITY
  * @param height Head across the nozzle (pressure head plus elevation).
@@ -225,67 +551,30 @@ export function nozzleFlow(diameter: any, head: any, discharge_coefficient?: any
 }
 
 /**
- * Hydraulic (water) power delivered to the liquid.
- * @customfunction POWER.HYDRAULIC
- * @param flow Volume flow rate.
- * @param head Total head the pump adds.
+ * Speed of a pressure wave in a liquid-filled elastic pipe (Korteweg).
+ * @customfunction SURGE.WAVESPEED
+ * @param diameter Pipe inside diameter.
+ * @param wall Pipe wall thickness.
+ * @param pipe_modulus Young's modulus of the pipe wall, such as "200 GPa" for steel.
+ * @param bulk_modulus Bulk modulus of the liquid; 2.2 GPa (water) when left out.
  * @param density Liquid density; water at 20 °C when left out.
- * @param unit Unit of the result, such as "kW" or "hp"; base unit when left out.
- * @returns Power, W.
+ * @param restraint Restraint factor c; 1 when left out.
+ * @param unit Unit of the result, such as "ft/s" or "m/s"; base unit when left out.
+ * @returns Wave speed, m/s.
  */
-export function powerHydraulic(flow: any, head: any, density?: any, unit?: any): number {
-  return run("POWER.HYDRAULIC", [flow, head, density, unit]) as number;
+export function surgeWavespeed(diameter: any, wall: any, pipe_modulus: any, bulk_modulus?: any, density?: any, restraint?: any, unit?: any): number {
+  return run("SURGE.WAVESPEED", [diameter, wall, pipe_modulus, bulk_modulus, density, restraint, unit]) as number;
 }
 
 /**
- * Shaft (brake) power a pump needs at an efficiency.
- * @customfunction POWER.SHAFT
- * @param flow Volume flow rate.
- * @param head Total head the pump adds.
- * @param efficiency Pump efficiency: a fraction (0.78) or percent text ("78%").
+ * Pressure rise from a sudden change of velocity (Joukowsky).
+ * @customfunction SURGE.PRESSURE
+ * @param wave_speed Pressure-wave speed, from NAPPE.SURGE.WAVESPEED.
+ * @param velocity_change Change of mean velocity, such as the full velocity for a fast valve closure.
  * @param density Liquid density; water at 20 °C when left out.
- * @param unit Unit of the result, such as "kW" or "hp"; base unit when left out.
- * @returns Shaft power, W.
+ * @param unit Unit of the result, such as "kPa" or "psi"; base unit when left out.
+ * @returns Pressure rise, Pa, above the running pressure.
  */
-export function powerShaft(flow: any, head: any, efficiency: any, density?: any, unit?: any): number {
-  return run("POWER.SHAFT", [flow, head, efficiency, density, unit]) as number;
-}
-
-/**
- * Net positive suction head available at the pump suction.
- * @customfunction NPSHA
- * @param surface_pressure Absolute pressure on the liquid surface, such as NAPPE.ATMPRESSURE(elevation) for an open tank.
- * @param liquid_height Height of the liquid surface above the impeller eye; negative for a suction lift.
- * @param suction_loss Head loss in the suction line at the duty flow.
- * @param temperature Liquid temperature (sets the vapour pressure).
- * @param density Liquid density; water at the given temperature when left out.
- * @param unit Unit of the result, such as "ft" or "m"; base unit when left out.
- * @returns NPSHa, m of liquid.
- */
-export function npsha(surface_pressure: any, liquid_height: any, suction_loss: any, temperature: any, density?: any, unit?: any): number {
-  return run("NPSHA", [surface_pressure, liquid_height, suction_loss, temperature, density, unit]) as number;
-}
-
-/**
- * NPSH margin ratio NPSHa/NPSHr, with a warning below the guideline.
- * @customfunction NPSH.MARGIN
- * @param npsha NPSH available.
- * @param npshr NPSH required by the pump at the same flow (maker's NPSH3).
- * @returns Margin ratio (dimensionless).
- */
-export function npshMargin(npsha: any, npshr: any): number {
-  return run("NPSH.MARGIN", [npsha, npshr]) as number;
-}
-
-/**
- * Scales a flow, head, NPSHr or power by the affinity laws for a speed or diameter ratio.
- * @customfunction AFFINITY
- * @param value The flow, head, NPSHr or power to scale.
- * @param kind "flow" (× r), "head" or "npshr" (× r²), "power" (× r³).
- * @param ratio Speed ratio N2/N1 (or impeller diameter ratio D2/D1).
- * @param unit Unit of the result, such as "gpm", "ft" or "hp", matching the kind; base unit when left out.
- * @returns Scaled value in the kind's base unit.
- */
-export function affinity(value: any, kind: any, ratio: any, unit?: any): number {
-  return run("AFFINITY", [value, kind, ratio, unit]) as number;
+export function surgePressure(wave_speed: any, velocity_change: any, density?: any, unit?: any): number {
+  return run("SURGE.PRESSURE", [wave_speed, velocity_change, density, unit]) as number;
 }

@@ -24,6 +24,7 @@ export function describeArguments(spec: FunctionSpec): { name: string; reads: st
     if (p.kind === "quantity") reads = p.dim === "efficiency" ? 'fraction or "78%"' : `bare number in ${DIMENSIONS[p.dim].baseLabel}, or text with a unit`;
     else if (p.kind === "choice") reads = p.options.join(" | ");
     else if (p.kind === "unit") reads = "unit name";
+    else if (p.kind === "text") reads = "name or number";
     else if (p.kind === "table") reads = `range: ${p.table} table, header row with units optional`;
     else reads = "number or text with a unit";
     const note = "defaultNote" in p && p.defaultNote ? ` Default: ${p.defaultNote}.` : "";

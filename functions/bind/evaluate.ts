@@ -45,10 +45,12 @@ function describeParam(p: ParamSpec): string {
       return `one of ${p.options.map((o) => `"${o}"`).join(", ")}`;
     case "unit":
       return 'a unit name such as "ft" or "kPa"';
+    case "text":
+      return "a name or number from the list in the function's description";
     case "anyQuantity":
       return "a number or text quantity";
     case "table":
-      return `a range holding a ${p.table} table`;
+      return p.scalar ? `${DIMENSIONS[p.scalar].noun} or a range holding a ${p.table} table` : `a range holding a ${p.table} table`;
   }
 }
 
@@ -63,6 +65,14 @@ function scalar(p: ParamSpec, raw: RawArg): Exclude<RawArg, RawArg[][]> {
     throw new CalcError(p.name, `expected a single value, got a range: ${describeParam(p)}`, "value");
   }
   return raw;
+}
+
+/** The value of a lone number or a one-cell range holding one, else undefined. */
+function singleValue(raw: RawArg): number | string | undefined {
+  const v = Array.isArray(raw) && raw.length === 1 && Array.isArray(raw[0]) && raw[0].length === 1 ? raw[0][0] : raw;
+  if (typeof v === "number") return v;
+  if (typeof v === "string" && parseNumberText(v) !== undefined) return v;
+  return undefined;
 }
 
 function readQuantity(p: ParamSpec, raw: number | string | boolean, dim: Dimension): ArgReading {
@@ -109,6 +119,13 @@ export function readArgs(spec: FunctionSpec, rawArgs: readonly RawArg[]): { args
     const p = spec.params[i];
     if (p.kind === "table") {
       if (isMissing(rawArgs[i])) throw new CalcError(p.name, `is required: expected ${describeParam(p)}`, "value");
+      const single = singleValue(rawArgs[i]);
+      if (p.scalar && single !== undefined) {
+        const reading = readQuantity(p, single, p.scalar);
+        args[p.name] = reading.value;
+        readings.push(reading);
+        continue;
+      }
       const table = readTable(p.name, p.table, rawArgs[i]);
       args[p.name] = table;
       readings.push({ name: p.name, raw: rawArgs[i], value: table, unit: "", how: "table" });
@@ -150,6 +167,10 @@ function readOne(p: Exclude<ParamSpec, { kind: "table" }>, raw: number | string 
     case "unit": {
       const word = readWord(p, raw);
       return { name: p.name, raw, value: word, unit: "", how: "unit name" };
+    }
+    case "text": {
+      const word = readWord(p, typeof raw === "number" && Number.isFinite(raw) ? String(raw) : raw);
+      return { name: p.name, raw, value: word, unit: "", how: "word" };
     }
   }
 }

@@ -1,7 +1,20 @@
-import { AFFINITY_KINDS, type AffinityKind, affinityScale } from "../calc/affinity";
+import { AFFINITY_KINDS, type AffinityKind, affinityRatioThrough, affinityScale, speedForDuty, trimDiameter } from "../calc/affinity";
+import type { Table } from "../bind/table";
+import { curveColumn, curveFromTable } from "./_tables";
 import type { Dimension } from "../units/dimensions";
 import { DESIGN_AID, unitParam } from "./_shared";
-import type { Args, FunctionSpec } from "./types";
+import type { Args, FunctionSpec, QuantityParam, TableParam } from "./types";
+
+const curveParam: TableParam = { name: "curve", kind: "table", table: "curve", description: "Pump curve range (Flow, Head, ...) at the curve's impeller and speed; a header sets units." };
+const dutyFlow: QuantityParam = { name: "flow", kind: "quantity", dim: "flow", description: "Duty flow." };
+const dutyHead: QuantityParam = { name: "head", kind: "quantity", dim: "length", description: "Duty head." };
+const headOf = (a: Args) => curveColumn("curve", curveFromTable("curve", a.curve as Table), "head");
+const RATIO_EQUATION = String.raw`r^2\,H_c\!\left(rac{Q}{r}ight) = H \quad \Rightarrow \quad r`;
+/** Invented curve on the parabola H = 52 − 12000·Q² (m, m³/s), for hand-checkable examples. */
+const PARABOLA = [0, 0.01, 0.02, 0.03, 0.04, 0.05].map((q) => [q, 52 - 12000 * q * q]);
+/** On that parabola the ratio through (Q, H) is √((H + 12000·Q²)/52). */
+const PARABOLA_RATIO = Math.sqrt((35 + 12000 * 0.03 ** 2) / 52);
+const PARABOLA_SOURCE = "Hand calculation on the parabola H = 52 − 12000Q²: r = √((H + 12000Q²)/52) = 0.93849 for 0.03 m³/s at 35 m (PCHIP through its points)";
 
 const DIM_OF_KIND: Record<AffinityKind, Dimension> = { flow: "flow", head: "length", npshr: "length", power: "power" };
 const dimOfKind = (a: Args): Dimension => DIM_OF_KIND[a.kind as AffinityKind];
@@ -29,5 +42,47 @@ export const specs: FunctionSpec[] = [
       { args: ["10 hp", "power", 0.5, "hp"], expect: 1.25, source: "Affinity law P ∝ r³ (definition)" },
     ],
     compute: (a) => affinityScale(a.value as number, a.kind as AffinityKind, a.ratio as number),
+  },
+  {
+    id: "AFFINITY.RATIO",
+    topic: "affinity",
+    purpose: "Speed or diameter ratio r that moves a pump curve through a duty point by the affinity laws.",
+    params: [curveParam, dutyFlow, dutyHead],
+    result: { dim: "ratio", description: "Ratio r = N2/N1 (or D2/D1)." },
+    equation: RATIO_EQUATION,
+    assumptions: ["Affinity laws: flow ∝ r, head ∝ r²; efficiency unchanged.", "Solved by Brent's method with Q/r kept on the curve."],
+    validity: ["An error when no ratio moves the curve through the duty while staying on its flow range."],
+    cautions: [DESIGN_AID],
+    sources: ["Affinity laws; ANSI/HI 1.3", "Brent (1973) root finding"],
+    examples: [{ args: [PARABOLA as never, 0.03, 35], expect: PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
+    compute: (a) => affinityRatioThrough(headOf(a), a.flow as number, a.head as number),
+  },
+  {
+    id: "TRIM",
+    topic: "affinity",
+    purpose: "Trimmed impeller diameter that meets a duty point, by the affinity laws.",
+    params: [curveParam, { name: "diameter", kind: "quantity", dim: "length", description: "Impeller diameter of the curve." }, dutyFlow, dutyHead, unitParam('"mm" or "in"')],
+    result: { dim: "length", description: "Trimmed diameter, m." },
+    equation: String.raw`D_2 = r\,D_1, \quad ${RATIO_EQUATION}`,
+    assumptions: ["Affinity laws for diameter hold only for small trims of the same impeller; makers' trimmed curves are better."],
+    validity: ["A duty above the full-diameter curve is an error (a trim cannot add diameter).", "Trims deeper than about 10 % warn; below about 75 % of the diameter warn more strongly (common practice)."],
+    cautions: [DESIGN_AID, "Trim in steps and test: an over-trimmed impeller cannot be restored."],
+    sources: ["Affinity laws for impeller trimming; ANSI/HI 1.3 (common practice limits)"],
+    examples: [{ args: [PARABOLA as never, "250 mm", 0.03, 35, "mm"], expect: 250 * PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
+    compute: (a) => trimDiameter(headOf(a), a.diameter as number, a.flow as number, a.head as number),
+  },
+  {
+    id: "SPEED",
+    topic: "affinity",
+    purpose: "Pump speed that meets a duty point, by the affinity laws.",
+    params: [curveParam, { name: "speed", kind: "quantity", dim: "rotationalSpeed", description: "Speed of the curve, rpm." }, dutyFlow, dutyHead],
+    result: { dim: "rotationalSpeed", description: "Speed, rpm." },
+    equation: String.raw`N_2 = r\,N_1, \quad ${RATIO_EQUATION}`,
+    assumptions: ["Affinity laws for speed: flow ∝ N, head ∝ N², power ∝ N³; efficiency unchanged."],
+    validity: ["Speeds above the curve's warn (maker's limit, motor power)."],
+    cautions: [DESIGN_AID],
+    sources: ["Affinity laws; ANSI/HI 1.3"],
+    examples: [{ args: [PARABOLA as never, 1750, 0.03, 35], expect: 1750 * PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
+    compute: (a) => speedForDuty(headOf(a), a.speed as number, a.flow as number, a.head as number),
   },
 ];

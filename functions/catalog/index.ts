@@ -7,13 +7,20 @@ import { specs as hydrostatics } from "./hydrostatics";
 import { specs as pipeFlow } from "./pipeFlow";
 import { specs as friction } from "./friction";
 import { specs as headLoss } from "./headLoss";
-import { specs as jet } from "./jet";
-import { specs as power } from "./power";
-import { specs as npsh } from "./npsh";
+import { specs as pipe } from "./pipe";
+import { specs as systemCurve } from "./systemCurve";
+import { specs as pumpCurve } from "./pumpCurve";
 import { specs as affinity } from "./affinity";
+import { specs as specificSpeed } from "./specificSpeed";
+import { specs as power } from "./power";
+import { specs as motor } from "./motor";
+import { specs as energy } from "./energy";
+import { specs as npsh } from "./npsh";
+import { specs as jet } from "./jet";
+import { specs as surge } from "./surge";
 
 /** Every worksheet function's spec, in documentation order. */
-export const CATALOG: readonly FunctionSpec[] = [...units, ...water, ...atmosphere, ...hydrostatics, ...pipeFlow, ...friction, ...headLoss, ...jet, ...power, ...npsh, ...affinity];
+export const CATALOG: readonly FunctionSpec[] = [...units, ...water, ...atmosphere, ...hydrostatics, ...pipeFlow, ...friction, ...headLoss, ...pipe, ...systemCurve, ...pumpCurve, ...affinity, ...specificSpeed, ...power, ...motor, ...energy, ...npsh, ...jet, ...surge];
 
 /** Specs by worksheet id (without the NAPPE. namespace). */
 export const CATALOG_BY_ID: ReadonlyMap<string, FunctionSpec> = new Map(CATALOG.map((s) => [s.id, s]));

@@ -43,6 +43,11 @@ export interface UnitParam extends ParamBase {
   kind: "unit";
 }
 
+/** A name looked up in a table (pipe size, schedule, material, fitting): text, or a number read as text. */
+export interface TextParam extends ParamBase {
+  kind: "text";
+}
+
 /** A quantity whose dimension is set by another argument (AFFINITY's value). */
 export interface AnyQuantityParam extends ParamBase {
   kind: "anyQuantity";
@@ -54,9 +59,11 @@ export interface AnyQuantityParam extends ParamBase {
 export interface TableParam extends ParamBase {
   kind: "table";
   table: TableKind;
+  /** A single value (or one cell) is read as a quantity of this dimension instead of a table. */
+  scalar?: Dimension;
 }
 
-export type ParamSpec = QuantityParam | ChoiceParam | UnitParam | AnyQuantityParam | TableParam;
+export type ParamSpec = QuantityParam | ChoiceParam | UnitParam | TextParam | AnyQuantityParam | TableParam;
 
 /** A worked example that runs as a test through the calc core and the built worksheet binding. */
 export interface Example {

@@ -27,6 +27,7 @@ export const DIMENSIONS = {
   rotationalSpeed: { base: "rpm", baseLabel: "rpm", noun: "a rotational speed", example: '"1750 rpm"' },
   angle: { base: "deg", baseLabel: "°", noun: "an angle", example: '"30 deg"' },
   modulus: { base: "Pa", baseLabel: "Pa", noun: "an elastic modulus", example: '"200 GPa"' },
+  time: { base: "h", baseLabel: "h", noun: "a running time", example: '"6000 h"' },
   ratio: { base: "", baseLabel: "—", noun: "a plain number", example: "0.5" },
   efficiency: { base: "", baseLabel: "fraction", noun: "an efficiency", example: '0.78 or "78%"' },
 } as const satisfies Record<string, DimensionInfo>;

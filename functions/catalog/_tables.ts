@@ -1,0 +1,124 @@
+/** Turns tables read from the worksheet into the calc core's plain structures, and back. */
+import { CalcError } from "../calc/_lib/result";
+import { type CurveFit, checkHeadShape, checkSeries, interpolant, type Interpolant, type PumpCurve, type Series } from "../calc/pumpCurve";
+import { checkSegments, type PipeSegment, type SystemLosses } from "../calc/systemCurve";
+import { column, inColumnUnit, type Table } from "../bind/table";
+import { DIMENSIONS } from "../units/dimensions";
+import type { Args, Cell } from "./types";
+
+/** Value limits of each curve column, for checks. */
+const LIMITS: Record<string, [number, number, string]> = {
+  head: [0, Infinity, "head"],
+  efficiency: [0, 1, "efficiency"],
+  npshr: [0, Infinity, "NPSHr"],
+  power: [0, Infinity, "power"],
+};
+
+function seriesOf(arg: string, t: Table, rows: number[], role: string): Series | undefined {
+  const flow = column(t, "flow")!;
+  const col = column(t, role);
+  if (!col) return undefined;
+  const x: number[] = [];
+  const y: number[] = [];
+  for (const i of rows) {
+    const q = flow.values[i];
+    const v = col.values[i];
+    if (q !== null && v !== null) {
+      x.push(q);
+      y.push(v);
+    }
+  }
+  if (!x.length) return undefined;
+  const [lo, hi, what] = LIMITS[role];
+  return checkSeries(arg, what, x, y, lo, hi);
+}
+
+/** A pump curve from the rows `rows` of a curve or family table. */
+export function curveFromRows(arg: string, t: Table, rows: number[]): PumpCurve {
+  const head = seriesOf(arg, t, rows, "head")!;
+  checkHeadShape(arg, head);
+  return { head, efficiency: seriesOf(arg, t, rows, "efficiency"), npshr: seriesOf(arg, t, rows, "npshr"), power: seriesOf(arg, t, rows, "power") };
+}
+
+export function curveFromTable(arg: string, t: Table): PumpCurve {
+  return curveFromRows(arg, t, [...Array(t.rows).keys()]);
+}
+
+/** The interpolant of one column of a curve, or an error naming what is missing. */
+export function curveColumn(arg: string, curve: PumpCurve, role: keyof PumpCurve, fit: CurveFit = "pchip"): Interpolant {
+  const series = curve[role];
+  if (!series) throw new CalcError(arg, `has no ${LIMITS[role][2]} column: add one headed "${role === "efficiency" ? "Eff (%)" : role === "npshr" ? "NPSHr (ft)" : "Power (kW)"}"`, "value");
+  return interpolant(series, fit);
+}
+
+export function segmentsFromTable(arg: string, t: Table): PipeSegment[] {
+  const get = (role: string) => column(t, role);
+  const k = get("k");
+  const segments = [...Array(t.rows).keys()].map((i) => ({
+    length: get("length")!.values[i]!,
+    diameter: get("diameter")!.values[i]!,
+    roughness: get("roughness")!.values[i]!,
+    k: k?.values[i] ?? 0,
+  }));
+  checkSegments(arg, segments);
+  return segments;
+}
+
+/** The `system` argument: a resistance k (number) or a segments table. */
+export function systemLosses(a: Args): SystemLosses {
+  const s = a.system;
+  if (typeof s === "number") return { k: s };
+  if (typeof s === "string") throw new CalcError("system", "expected a resistance k or a segments table", "value");
+  return { segments: segmentsFromTable("system", s), kinematicViscosity: a.kinematic_viscosity as number };
+}
+
+/** One impeller of a family: its size (base units) or label, and its curve. */
+export interface Impeller {
+  size: number | null;
+  label: string;
+  curve: PumpCurve;
+}
+
+/** Groups a family table's rows by impeller; sized impellers smallest first, labels in the order listed. */
+export function impellersFromTable(arg: string, t: Table): Impeller[] {
+  const imp = column(t, "impeller")!;
+  const groups = new Map<string, number[]>();
+  for (let i = 0; i < t.rows; i++) {
+    const key = imp.labels[i] ?? String(imp.values[i]);
+    groups.set(key, [...(groups.get(key) ?? []), i]);
+  }
+  const impellers = [...groups.entries()].map(([key, rows]) => {
+    const size = imp.labels[rows[0]] === null ? imp.values[rows[0]] : null;
+    const label = size === null ? key : String(Number(inColumnUnit(imp, size).toPrecision(10)));
+    try {
+      return { size, label, curve: curveFromRows(arg, t, rows) };
+    } catch (e) {
+      if (e instanceof CalcError) throw new CalcError(arg, `impeller ${label}: ${e.detail}`, e.kind);
+      throw e;
+    }
+  });
+  if (impellers.length < 1) throw new CalcError(arg, "holds no impeller curves", "value");
+  if (impellers.every((i) => i.size !== null)) impellers.sort((p, q) => p.size! - q.size!);
+  return impellers;
+}
+
+/** Writes a table back with each column's values transformed, in the table's own units and header. */
+export function spillTable(t: Table, transform: (role: string, value: number) => number): Cell[][] {
+  const rows: Cell[][] = [];
+  if (t.hasHeader) rows.push(t.columns.map((c) => c.header ?? c.role));
+  for (let i = 0; i < t.rows; i++) {
+    rows.push(
+      t.columns.map((c) => {
+        const v = c.values[i];
+        if (v === null) return c.labels[i] ?? "";
+        return inColumnUnit(c, transform(c.role, v));
+      }),
+    );
+  }
+  return rows;
+}
+
+/** Header for a spilled column: "Flow (gpm)", or "Flow (m³/s)" in base units. */
+export function spillHeader(name: string, unit: string | undefined, base: keyof typeof DIMENSIONS): string {
+  return `${name} (${unit ?? DIMENSIONS[base].base})`;
+}

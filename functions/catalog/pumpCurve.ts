@@ -1,0 +1,281 @@
+import { CURVE_FITS, type CurveFit, valueAt } from "../calc/pumpCurve";
+import { operatingPoint } from "../calc/operatingPoint";
+import { systemHead } from "../calc/systemCurve";
+import { hydraulicPower } from "../calc/power";
+import { CalcError, ok } from "../calc/_lib/result";
+import { fromBase } from "../units/quantity";
+import type { Table } from "../bind/table";
+import { CAVITATION_CAUTION, DESIGN_AID, densityParam, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
+import { curveColumn, curveFromTable, impellersFromTable, spillHeader, spillTable, systemLosses } from "./_tables";
+import type { Args, ChoiceParam, FunctionSpec, ParamSpec, TableParam } from "./types";
+
+const curveParam: TableParam = {
+  name: "curve",
+  kind: "table",
+  table: "curve",
+  description: 'Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column\'s unit.',
+};
+const fitParam: ChoiceParam = {
+  name: "fit",
+  kind: "choice",
+  options: CURVE_FITS,
+  optional: true,
+  default: "pchip",
+  defaultNote: "pchip, the monotone cubic through the points",
+  description: '"pchip" (default: monotone cubic through the points), "quadratic" or "cubic" (least squares).',
+};
+const flowUnit: ParamSpec = { name: "flow_unit", kind: "unit", optional: true, description: 'Unit of the spilled flow, such as "gpm"; m³/s when left out.' };
+const headUnit: ParamSpec = { name: "head_unit", kind: "unit", optional: true, description: 'Unit of the spilled head, such as "ft"; m when left out.' };
+
+const PCHIP_SOURCE =
+  "Fritsch, F. N. and Carlson, R. E. (1980), SIAM J. Numer. Anal. 17(2), 238–246; Fritsch and Butland (1984); as SLATEC PCHIM, MATLAB pchip and SciPy PchipInterpolator";
+const PCHIP_EQUATION = String.raw`H(Q) = h_{00}(t)H_k + h_{10}(t)\Delta_k d_k + h_{01}(t)H_{k+1} + h_{11}(t)\Delta_k d_{k+1},\ \ \frac{w_1 + w_2}{d_k} = \frac{w_1}{\delta_{k-1}} + \frac{w_2}{\delta_k}`;
+const CURVE_ASSUMPTIONS = [
+  "The curve is the maker's curve for the pumped liquid at the curve's speed and impeller.",
+  "Between points: monotone piecewise cubic Hermite (PCHIP) unless a least-squares fit is asked for; no value outside the curve's flow range.",
+];
+const SCIPY = "SciPy PchipInterpolator, test/reference/curve_reference.py";
+
+/** Invented test curve (US units) used in the examples: not any maker's pump. */
+const CURVE_US = [
+  ["Flow (gpm)", "Head (ft)", "Eff (%)", "NPSHr (ft)"],
+  [0, 100, 0, ""],
+  [100, 98, 55, 6],
+  [200, 92, 72, 8],
+  [300, 80, 76, 11],
+  [400, 60, 70, 16],
+];
+/** Invented curve on the parabola H = 52 − 12000·Q² (m, m³/s), for hand-checkable examples. */
+const PARABOLA = [0, 0.01, 0.02, 0.03, 0.04, 0.05].map((q) => [q, 52 - 12000 * q * q]);
+
+const curveOf = (a: Args) => curveFromTable("curve", a.curve as Table);
+const fitOf = (a: Args) => (a.fit as CurveFit | undefined) ?? "pchip";
+
+export const specs: FunctionSpec[] = [
+  {
+    id: "PUMP.HEAD",
+    topic: "pumpCurve",
+    purpose: "Head of a pump at a flow, read from its curve.",
+    params: [flowParam, curveParam, unitParam('"ft" or "m"'), fitParam],
+    result: { dim: "length", description: "Head, m." },
+    equation: PCHIP_EQUATION,
+    assumptions: CURVE_ASSUMPTIONS,
+    validity: ["At least 3 points, no repeated flow; head may rise to one peak and then must fall; flows outside the curve are an error."],
+    cautions: [DESIGN_AID],
+    sources: [PCHIP_SOURCE],
+    examples: [{ args: ["250 gpm", CURVE_US as never, "ft"], expect: 86.875, tolerance: 1e-12, source: `${SCIPY}: 86.875 ft` }],
+    compute: (a) => ok(valueAt("flow", "head", curveColumn("curve", curveOf(a), "head", fitOf(a)), a.flow as number)),
+  },
+  {
+    id: "PUMP.EFFICIENCY",
+    topic: "pumpCurve",
+    purpose: "Efficiency of a pump at a flow, read from its curve's efficiency column.",
+    params: [flowParam, curveParam, fitParam],
+    result: { dim: "ratio", description: "Efficiency as a fraction (0.76)." },
+    equation: PCHIP_EQUATION,
+    assumptions: [...CURVE_ASSUMPTIONS, 'An efficiency column headed "Eff (%)" is read as percent; without "%" it must hold fractions.'],
+    validity: ["Efficiencies from 0 to 1 (or 0 to 100 %)."],
+    cautions: [DESIGN_AID],
+    sources: [PCHIP_SOURCE],
+    examples: [{ args: ["250 gpm", CURVE_US as never], expect: 0.748095238095238, tolerance: 1e-12, source: `${SCIPY}` }],
+    compute: (a) => ok(valueAt("flow", "efficiency", curveColumn("curve", curveOf(a), "efficiency", fitOf(a)), a.flow as number)),
+  },
+  {
+    id: "PUMP.NPSHR",
+    topic: "pumpCurve",
+    purpose: "NPSH required by a pump at a flow, read from its curve's NPSHr column.",
+    params: [flowParam, curveParam, unitParam('"ft" or "m"'), fitParam],
+    result: { dim: "length", description: "NPSHr, m." },
+    equation: PCHIP_EQUATION,
+    assumptions: [...CURVE_ASSUMPTIONS, "NPSHr is the maker's NPSH3 (3 % head drop)."],
+    validity: ["Blank NPSHr cells are skipped; at least 3 points must remain."],
+    cautions: [CAVITATION_CAUTION],
+    sources: [PCHIP_SOURCE],
+    examples: [{ args: ["250 gpm", CURVE_US as never, "ft"], expect: 9.33125, tolerance: 1e-12, source: `${SCIPY} (blank NPSHr at shutoff skipped): 9.33125 ft` }],
+    compute: (a) => ok(valueAt("flow", "NPSHr", curveColumn("curve", curveOf(a), "npshr", fitOf(a)), a.flow as number)),
+  },
+  {
+    id: "PUMP.POWER",
+    topic: "pumpCurve",
+    purpose: "Shaft power of a pump at a flow: from the curve's power column, or ρgQH/η from its head and efficiency.",
+    params: [flowParam, curveParam, densityParam, unitParam('"kW" or "hp"')],
+    result: { dim: "power", description: "Shaft power, W." },
+    equation: String.raw`P = \frac{\rho\, g\, Q\, H(Q)}{\eta(Q)} \quad \text{or} \quad P = P(Q) \text{ from the power column}`,
+    assumptions: [...CURVE_ASSUMPTIONS, "A power column is used as given (it is for the maker's test liquid); otherwise power is computed with the given density."],
+    validity: ["Needs a power column, or head and efficiency columns; efficiency above zero at the flow."],
+    cautions: [DESIGN_AID, "Size the motor for the largest power on the curve, not only at the duty point."],
+    sources: ["Definition of pump input power (ANSI/HI 1.6)", PCHIP_SOURCE],
+    examples: [
+      {
+        args: ["250 gpm", CURVE_US as never, 1000, "hp"],
+        expect: (1000 * 9.80665 * 250 * (3.785411784e-3 / 60) * 86.875 * 0.3048) / 0.748095238095238 / 745.69987158227022,
+        tolerance: 1e-9,
+        source: "ρgQH/η with the SciPy PCHIP head (86.875 ft) and efficiency (0.74810)",
+      },
+    ],
+    compute: (a) => {
+      const curve = curveOf(a);
+      const q = a.flow as number;
+      if (curve.power) return ok(valueAt("flow", "power", curveColumn("curve", curve, "power"), q));
+      const h = valueAt("flow", "head", curveColumn("curve", curve, "head"), q);
+      const eta = valueAt("flow", "efficiency", curveColumn("curve", curve, "efficiency"), q);
+      if (!(eta > 0)) throw new CalcError("flow", `the curve's efficiency is ${eta} at this flow: no power can be computed (add a Power column)`);
+      return ok(hydraulicPower(q, h, a.density as number).value / eta);
+    },
+  },
+  {
+    id: "PUMP.DUTY",
+    topic: "pumpCurve",
+    purpose: "Operating point where the pump curve meets the system curve; spills flow and head.",
+    params: [
+      curveParam,
+      { name: "static_head", kind: "quantity", dim: "length", description: "Static head: rise from suction surface to discharge, plus any pressure difference as head." },
+      { name: "system", kind: "table", table: "segments", scalar: "ratio", description: "Resistance k in H = Hs + k·Q² (s²/m⁵), or a segments table (Length, ID, Roughness, K)." },
+      kinematicViscosityParam,
+      flowUnit,
+      headUnit,
+    ],
+    result: { dim: "flow", description: "One row: flow, head of the operating point.", spill: true },
+    equation: String.raw`H_{pump}(Q) = H_s + \sum_i \Big(f_i\frac{L_i}{D_i} + \Sigma K_i\Big)\frac{V_i^2}{2g} \quad \text{or} \quad H_s + kQ^2`,
+    assumptions: ["Steady flow; the pump curve is at the operating speed and impeller.", "Losses by Darcy–Weisbach with Colebrook in each segment."],
+    validity: ["An error when the curves do not cross within the pump curve; two crossings (drooping curve) warn."],
+    cautions: [DESIGN_AID],
+    sources: ["Brent, R. P. (1973), Algorithms for Minimization without Derivatives, ch. 4 (root finding)", PCHIP_SOURCE],
+    examples: [
+      {
+        args: [PARABOLA as never, 20, 10000],
+        expect: [[Math.sqrt(32 / 22000), 20 + (10000 * 32) / 22000]],
+        tolerance: 2e-3,
+        source: "Hand calculation: 52 − 12000Q² = 20 + 10000Q² gives Q = 0.03814 m³/s, H = 34.55 m (PCHIP through points on the parabola)",
+      },
+    ],
+    compute: (a) => {
+      const head = curveColumn("curve", curveOf(a), "head");
+      const losses = systemLosses(a);
+      const p = operatingPoint(head, (q) => systemHead(q, a.static_head as number, losses).value);
+      const sys = systemHead(p.value.flow, a.static_head as number, losses);
+      const flow = a.flow_unit ? fromBase("flow_unit", p.value.flow, "flow", a.flow_unit as string) : p.value.flow;
+      const h = a.head_unit ? fromBase("head_unit", p.value.head, "length", a.head_unit as string) : p.value.head;
+      return ok([[flow, h]], [...p.warnings, ...sys.warnings]);
+    },
+  },
+  {
+    id: "PUMP.SCALE",
+    topic: "pumpCurve",
+    purpose: "A pump curve scaled by the affinity laws for a speed (or small diameter) ratio; spills the new curve.",
+    params: [curveParam, { name: "ratio", kind: "quantity", dim: "ratio", description: "Speed ratio N2/N1 (or impeller diameter ratio for small trims)." }],
+    result: { dim: "flow", description: "The curve with flow × r, head and NPSHr × r², power × r³, efficiency unchanged; same columns, header and units.", spill: true },
+    equation: String.raw`Q_2 = rQ_1,\quad H_2 = r^2 H_1,\quad NPSH_{r,2} = r^2 NPSH_{r,1},\quad P_2 = r^3 P_1,\quad \eta_2 = \eta_1`,
+    assumptions: ["Efficiency unchanged; NPSHr scaled by r² (approximate: makers' data are better)."],
+    validity: ["Ratios far from 1 warn."],
+    cautions: [DESIGN_AID],
+    sources: ["Affinity laws; ANSI/HI 1.3"],
+    examples: [
+      {
+        args: [[["Flow (gpm)", "Head (ft)"], [0, 100], [200, 92], [400, 60]] as never, 0.5],
+        expect: [["Flow (gpm)", "Head (ft)"], [0, 25], [100, 23], [200, 15]],
+        source: "Affinity laws Q ∝ r, H ∝ r² (definition)",
+      },
+    ],
+    compute: (a) => {
+      const r = a.ratio as number;
+      if (!(r > 0 && Number.isFinite(r))) throw new CalcError("ratio", `expected a ratio greater than zero; got ${r}`);
+      const t = a.curve as Table;
+      curveFromTable("curve", t);
+      const power: Record<string, number> = { flow: 1, head: 2, npshr: 2, power: 3, efficiency: 0 };
+      const warnings = r < 0.5 || r > 1.5 ? [`Ratio ${r} is far from 1: the affinity laws lose accuracy; confirm with the pump maker.`] : [];
+      return ok(spillTable(t, (role, v) => v * Math.pow(r, power[role])), warnings);
+    },
+  },
+  {
+    id: "PUMP.COMBINE",
+    topic: "pumpCurve",
+    purpose: "Curve of identical pumps in parallel (flows add) or series (heads add); spills the combined curve.",
+    params: [
+      curveParam,
+      { name: "count", kind: "quantity", dim: "ratio", description: "Number of identical pumps running, 1 or more." },
+      { name: "arrangement", kind: "choice", options: ["parallel", "series"], description: '"parallel" or "series".' },
+    ],
+    result: { dim: "flow", description: "The combined curve; same columns, header and units.", spill: true },
+    equation: String.raw`\text{parallel: } Q_n = nQ,\ P_n = nP; \quad \text{series: } H_n = nH,\ P_n = nP`,
+    assumptions: ["Identical pumps at the same speed; NPSHr is each pump's at its own flow; efficiency unchanged.", "Parallel pumps share the same head; losses in their own branches are not included."],
+    validity: ["count a whole number from 1 to 20."],
+    cautions: [DESIGN_AID, "Check each pump alone can run safely when another trips (run-out, NPSH, motor power)."],
+    sources: ["Pumps in parallel and series (any pump handbook; ANSI/HI 1.3)"],
+    examples: [
+      {
+        args: [[["Flow (gpm)", "Head (ft)"], [0, 100], [200, 92], [400, 60]] as never, 2, "parallel"],
+        expect: [["Flow (gpm)", "Head (ft)"], [0, 100], [400, 92], [800, 60]],
+        source: "Parallel identical pumps: flow doubles at each head (definition)",
+      },
+    ],
+    compute: (a) => {
+      const n = a.count as number;
+      if (!(Number.isInteger(n) && n >= 1 && n <= 20)) throw new CalcError("count", `expected a whole number of pumps from 1 to 20; got ${n}`);
+      const t = a.curve as Table;
+      curveFromTable("curve", t);
+      const scaled = a.arrangement === "parallel" ? ["flow", "power"] : ["head", "power"];
+      return ok(spillTable(t, (role, v) => (scaled.includes(role) ? v * n : v)));
+    },
+  },
+  {
+    id: "PUMP.SELECT",
+    topic: "pumpCurve",
+    purpose: "From a family of impeller curves, the smallest impeller that meets a duty; spills impeller, head, efficiency and NPSHr at the duty flow.",
+    params: [
+      { name: "family", kind: "table", table: "family", description: "Impeller family: Impeller, Flow, Head and optionally Eff, NPSHr columns, one row per point." },
+      { name: "flow", kind: "quantity", dim: "flow", description: "Duty flow." },
+      { name: "head", kind: "quantity", dim: "length", description: "Head needed at the duty flow." },
+      unitParam('"ft" or "m" (head and NPSHr)'),
+    ],
+    result: { dim: "length", description: "One row: impeller (in the family's unit, or its label), head at the duty flow, efficiency (fraction), NPSHr; blank where the family has no such column.", spill: true },
+    equation: String.raw`D^* = \min\{D : H_D(Q_{duty}) \ge H_{duty}\}`,
+    assumptions: ["Sized impellers are compared smallest first; labelled ones in the order listed.", "The chosen impeller gives at least the duty head; the operating point will sit where its curve meets the system (see PUMP.DUTY, TRIM)."],
+    validity: ["An error when no impeller reaches the duty, or the duty flow is beyond every curve."],
+    cautions: [DESIGN_AID],
+    sources: ["Selection practice as in pump makers' catalogues; curves evaluated by PCHIP (" + PCHIP_SOURCE + ")"],
+    examples: [
+      {
+        args: [
+          [
+            ["Impeller (mm)", "Flow (m^3/h)", "Head (m)", "Eff (%)"],
+            [250, 0, 40, 0], [250, 50, 38.5, 62], [250, 100, 34, 74], [250, 150, 26, 70],
+            [230, 0, 34, 0], [230, 50, 32.6, 60], [230, 100, 28.5, 72], [230, 150, 21, 67],
+            [210, 0, 28, 0], [210, 50, 26.8, 58], [210, 100, 23, 69], [210, 150, 16, 63],
+          ] as never,
+          "80 m^3/h",
+          "29 m",
+        ],
+        expect: [[230, 30.506270094043888, 0.69696, ""]],
+        tolerance: 1e-12,
+        source: "SciPy PchipInterpolator on the 230 mm curve at 80 m³/h (invented family): 230 mm gives 30.506 m at 69.70 %; 210 mm gives only 24.87 m",
+      },
+    ],
+    compute: (a) => {
+      const impellers = impellersFromTable("family", a.family as Table);
+      const q = a.flow as number;
+      const need = a.head as number;
+      const out = (v: number) => (a.unit ? fromBase("unit", v, "length", a.unit as string) : v);
+      let reachable = false;
+      for (const imp of impellers) {
+        const head = curveColumn("family", imp.curve, "head");
+        if (q < head.min || q > head.max) continue;
+        reachable = true;
+        const h = head.at(q);
+        if (h >= need) {
+          const at = (role: "efficiency" | "npshr") => {
+            const s = imp.curve[role];
+            if (!s) return "";
+            const f = curveColumn("family", imp.curve, role);
+            return q >= f.min && q <= f.max ? f.at(q) : "";
+          };
+          const npshr = at("npshr");
+          const size = imp.size === null ? imp.label : Number(imp.label);
+          return ok([[size, out(h), at("efficiency"), typeof npshr === "number" ? out(npshr) : ""]]);
+        }
+      }
+      if (!reachable) throw new CalcError("flow", `${q.toPrecision(4)} m³/s is outside every impeller's curve in the family`);
+      throw new CalcError("head", `no impeller in the family gives ${need.toPrecision(4)} m at ${q.toPrecision(4)} m³/s; the largest gives less`);
+    },
+  },
+];

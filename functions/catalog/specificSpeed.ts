@@ -1,0 +1,51 @@
+import { SPEED_CONVENTIONS, type SpeedConvention, specificSpeed, suctionSpecificSpeed } from "../calc/specificSpeed";
+import { CAVITATION_CAUTION } from "./_shared";
+import type { ChoiceParam, FunctionSpec, QuantityParam } from "./types";
+
+const speed: QuantityParam = { name: "speed", kind: "quantity", dim: "rotationalSpeed", description: "Pump speed, rpm." };
+const flow: QuantityParam = { name: "flow", kind: "quantity", dim: "flow", description: "Flow at the best-efficiency point, per impeller eye (half the flow of a double-suction impeller)." };
+const convention: ChoiceParam = {
+  name: "convention",
+  kind: "choice",
+  options: SPEED_CONVENTIONS,
+  optional: true,
+  default: "si",
+  defaultNote: "SI: rpm, m³/s, m",
+  description: '"SI" (rpm, m³/s, m; default), "US" (rpm, gpm, ft) or "dimensionless" (rad/s, m³/s, g·H).',
+};
+const SOURCE = "ANSI/HI 1.1–1.2 (nomenclature: specific speed and suction specific speed); conversion Ns(US) = 51.65·Ns(SI) = 2733·Ω";
+
+export const specs: FunctionSpec[] = [
+  {
+    id: "SPECIFICSPEED",
+    topic: "specificSpeed",
+    purpose: "Pump specific speed at the best-efficiency point, in the chosen convention's units.",
+    params: [speed, flow, { name: "head", kind: "quantity", dim: "length", description: "Head per stage at the best-efficiency point." }, convention],
+    result: { dim: "ratio", description: "Specific speed in the convention's units." },
+    equation: String.raw`N_s = \frac{N\sqrt{Q}}{H^{3/4}}, \qquad \Omega_s = \frac{\omega\sqrt{Q}}{(gH)^{3/4}}`,
+    assumptions: ["Values at the best-efficiency point, full impeller diameter; head per stage; flow per impeller eye."],
+    validity: ["Speed, flow and head greater than zero."],
+    cautions: [],
+    sources: [SOURCE],
+    examples: [
+      { args: [1750, "1000 gpm", "100 ft", "us"], expect: 1750, source: "Definition: 1750·√1000/100^0.75 = 1750 (US units)" },
+      { args: [1750, "1000 gpm", "100 ft", "si"], expect: 1750 / 51.65, tolerance: 3e-4, source: "Published conversion Ns(US) = 51.65 Ns(SI, m³/s) (from memory)" },
+      { args: [1750, "1000 gpm", "100 ft", "dimensionless"], expect: 1750 / 2733, tolerance: 3e-4, source: "Published conversion Ns(US) = 2733 Ω (from memory)" },
+    ],
+    compute: (a) => specificSpeed(a.speed as number, a.flow as number, a.head as number, a.convention as SpeedConvention),
+  },
+  {
+    id: "SUCTIONSPEED",
+    topic: "specificSpeed",
+    purpose: "Suction specific speed at the best-efficiency point, in the chosen convention's units.",
+    params: [speed, flow, { name: "npshr", kind: "quantity", dim: "length", description: "NPSHr (NPSH3) at the best-efficiency point." }, convention],
+    result: { dim: "ratio", description: "Suction specific speed in the convention's units." },
+    equation: String.raw`N_{ss} = \frac{N\sqrt{Q}}{NPSH_r^{3/4}}`,
+    assumptions: ["Flow per impeller eye at the best-efficiency point; NPSHr at full diameter."],
+    validity: ["Above about 11 000 (US units) warns: suction recirculation trouble is more common there (ANSI/HI 9.6.1; from memory)."],
+    cautions: [CAVITATION_CAUTION],
+    sources: [SOURCE],
+    examples: [{ args: [3550, "500 gpm", "20 ft", "us"], expect: (3550 * Math.sqrt(500)) / 20 ** 0.75, source: "Definition (US units)" }],
+    compute: (a) => suctionSpecificSpeed(a.speed as number, a.flow as number, a.npshr as number, a.convention as SpeedConvention),
+  },
+];
