@@ -132,3 +132,60 @@ describe("worksheet errors through the bundle", () => {
     expect(e.message.length).toBeLessThanOrEqual(250);
   });
 });
+
+describe("tables and spilled results through the bundle", () => {
+  const metadata = JSON.parse(readFileSync(join(dist, "functions.json"), "utf8")) as {
+    functions: { id: string; parameters: { name: string; dimensionality?: string }[]; result: { dimensionality?: string } }[];
+  };
+  it("marks table parameters and spilled results as matrices in functions.json", () => {
+    for (const spec of CATALOG) {
+      const f = metadata.functions.find((x) => x.id === spec.id)!;
+      spec.params.forEach((p, i) => expect(f.parameters[i].dimensionality === "matrix", `${spec.id}.${p.name}`).toBe(p.kind === "table"));
+      expect(f.result.dimensionality === "matrix", spec.id).toBe(Boolean(spec.result.spill));
+    }
+  });
+  // Invented pump: the same curve in US and SI headers (1 gpm = 0.0630901964 L/s; 1 ft = 0.3048 m).
+  const US = [["Flow (gpm)", "Head (ft)", "Eff (%)", "NPSHr (ft)"], [0, 140, 0, ""], [200, 133, 58, 7], [400, 115, 74, 9], [600, 85, 72, 14], [700, 66, 65, 18]];
+  const SI = [
+    ["Flow (L/s)", "Head (m)", "Eff", "NPSHr (m)"],
+    ...US.slice(1).map((r) => [(r[0] as number) * 0.0630901964, (r[1] as number) * 0.3048, (r[2] as number) / 100, r[3] === "" ? "" : (r[3] as number) * 0.3048]),
+  ];
+  const SEG_US = [["Length (ft)", "ID (in)", "Roughness (in)", "K"], [40, 6.065, 0.0018, 1.3], [600, 4.026, 0.0018, 5.2]];
+  const SEG_SI = [["Length (m)", "ID (mm)", "Roughness (mm)", "K"], [12.192, 154.051, 0.04572, 1.3], [182.88, 102.2604, 0.04572, 5.2]];
+
+  it("PUMP.DUTY gives the same operating point from US and SI tables", () => {
+    const us = call("PUMP.DUTY", US, "35 ft", SEG_US, null, "gpm", "ft") as number[][];
+    const si = call("PUMP.DUTY", SI, "10.668 m", SEG_SI, null, "gpm", "ft") as number[][];
+    expect(us).toHaveLength(1);
+    expect(us[0][0]).toBeCloseTo(si[0][0], 6);
+    expect(us[0][1]).toBeCloseTo(si[0][1], 6);
+  });
+  it("PUMP.EFFICIENCY reads a % header and a fraction column alike", () => {
+    expect(call("PUMP.EFFICIENCY", "450 gpm", US, null)).toBeCloseTo(call("PUMP.EFFICIENCY", "450 gpm", SI, null) as number, 12);
+  });
+  it("PUMP.SCALE spills the curve in its own header units", () => {
+    const out = call("PUMP.SCALE", US, 0.9) as (number | string)[][];
+    expect(out[0]).toEqual(US[0]);
+    expect(out[2][0]).toBeCloseTo(180, 12);
+    expect(out[2][1]).toBeCloseTo(133 * 0.81, 12);
+    expect(out[2][2]).toBeCloseTo(58, 12);
+    expect(out[1][3]).toBe("");
+  });
+  it("SYSTEM.CURVE spills a header row then numbers", () => {
+    const out = call("SYSTEM.CURVE", "35 ft", SEG_US, "600 gpm", 4, null, "gpm", "ft") as (number | string)[][];
+    expect(out.map((r) => r.length)).toEqual([2, 2, 2, 2, 2]);
+    expect(out[0]).toEqual(["Flow (gpm)", "Head (ft)"]);
+  });
+  it("PUMP.SELECT, TRIM and SPEED run on header tables", () => {
+    const family = [["Impeller (in)", ...US[0]], ...US.slice(1).map((r) => [10, ...r]), ...US.slice(1).map((r) => [9, r[0], (r[1] as number) * 0.81, r[2], r[3]])];
+    const sel = call("PUMP.SELECT", family, "400 gpm", "90 ft", "ft") as (number | string)[][];
+    expect(sel[0][0]).toBe(9);
+    expect(call("TRIM", US, "10 in", "400 gpm", "100 ft", "in")).toBeLessThan(10);
+    expect(call("SPEED", US, 1770, "400 gpm", "100 ft")).toBeLessThan(1770);
+  });
+  it("a table error is #VALUE! naming the table argument", () => {
+    const e = callError("PUMP.HEAD", "100 gpm", [["Flow (gpm)", "Head (psi)"], [0, 1], [1, 1], [2, 1]], null, null);
+    expect(e.code).toBe("#VALUE!");
+    expect(e.message).toMatch(/^curve: /);
+  });
+});

@@ -14,6 +14,7 @@ from pathlib import Path
 import numpy as np
 import scipy
 from scipy.interpolate import PchipInterpolator
+from scipy.optimize import brentq
 
 CURVES = {
     "falling": {"x": [0.0, 0.01, 0.02, 0.03, 0.04, 0.05], "y": [52.0, 51.2, 49.0, 45.1, 39.5, 32.0]},
@@ -37,6 +38,28 @@ for name, c in CURVES.items():
         if len(x) >= degree + 2:
             entry[key] = np.polyval(np.polyfit(x, y, degree), q).tolist()
     out["curves"][name] = entry
+
+# Operating points: brentq on PCHIP(head) - (Hs + k Q^2) over the curve's flow range.
+duty_cases = [("falling", 20.0, 8000.0), ("falling", 30.0, 4000.0), ("drooping", 15.0, 6000.0), ("uneven", 10.0, 20000.0)]
+out["operating_points"] = []
+for name, hs, k in duty_cases:
+    c = CURVES[name]
+    f = PchipInterpolator(np.array(c["x"]), np.array(c["y"]))
+    g = lambda q: float(f(q)) - (hs + k * q * q)
+    q = brentq(g, c["x"][0], c["x"][-1], xtol=1e-15, rtol=1e-15)
+    out["operating_points"].append({"curve": name, "static_head": hs, "k": k, "flow": q, "head": float(f(q))})
+
+# Affinity ratios: brentq on r^2 PCHIP(Q/r) - H.
+ratio_cases = [("falling", 0.03, 38.0), ("falling", 0.02, 60.0), ("uneven", 0.008, 30.0)]
+out["affinity_ratios"] = []
+for name, qd, hd in ratio_cases:
+    c = CURVES[name]
+    f = PchipInterpolator(np.array(c["x"]), np.array(c["y"]))
+    lo = qd / c["x"][-1]
+    hi = qd / c["x"][0] if c["x"][0] > 0 else 10.0
+    g = lambda r: r * r * float(f(min(max(qd / r, c["x"][0]), c["x"][-1]))) - hd
+    r = brentq(g, lo, hi, xtol=1e-15, rtol=1e-15)
+    out["affinity_ratios"].append({"curve": name, "flow": qd, "head": hd, "ratio": r})
 
 Path(__file__).with_name("curve_reference.json").write_text(json.dumps(out, indent=1) + "\n")
 print("wrote", ", ".join(out["curves"]))
