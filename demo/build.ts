@@ -1,0 +1,215 @@
+/**
+ * Builds the demo workbook: an invented hillside orchard pumping station. Every number in it
+ * is invented demo data, not a real site, pump or product. The workbook's cached values come
+ * from Nappe's own recalculation, so Excel shows them before it recalculates.
+ *
+ *   npx tsx demo/build.ts   writes demo/orchard-pumping-station.xlsx
+ */
+import { fileURLToPath } from "node:url";
+import { writeFile } from "node:fs/promises";
+import { join } from "node:path";
+import ExcelJS from "exceljs";
+import { recalculate } from "../headless/recalc";
+import { fromExcelJS, parseAddress, addressOf } from "../headless/workbook";
+
+export const DEMO_FILE = "orchard-pumping-station.xlsx";
+const INVENTED = "INVENTED DEMO DATA: not a real site, pump or product.";
+
+type Row = [label: string, value: string | number | { f: string; spill?: string }, unit?: string, note?: string];
+
+/** Invented impeller family: a 280 mm curve and two smaller impellers scaled from it. */
+function family(): (string | number)[][] {
+  const q = [0, 30, 60, 90, 120, 150];
+  const h = [128, 127, 123, 115, 103, 87];
+  const eff = [0, 45, 63, 72, 74, 70];
+  const npshr: (number | string)[] = ["", 2.0, 2.4, 3.1, 4.2, 5.9];
+  const rows: (string | number)[][] = [];
+  for (const [d, effLoss] of [[250, 2], [265, 1], [280, 0]] as const) {
+    const r = d / 280;
+    q.forEach((qq, i) => {
+      const round1 = (x: number) => Math.round(x * 10) / 10;
+      rows.push([d, round1(qq * r), round1(h[i] * r * r), i === 0 ? 0 : eff[i] - effLoss, npshr[i] === "" ? "" : round1((npshr[i] as number) * r * r)]);
+    });
+  }
+  return rows;
+}
+
+const INPUTS: Row[] = [
+  ["Site elevation above sea level", 1850, "m"],
+  ["Water temperature in summer", "82 degF", "", "text quantity"],
+  ["Reservoir surface below pump centreline", 3.2, "m", "suction lift"],
+  ["Highest sprinkler above pump centreline", 38, "m"],
+  ["Sprinkler guns running at once", 2, ""],
+  ["Gun nozzle diameter", "22 mm", "", "text quantity"],
+  ["Pressure at the gun (regulated)", "4.8 bar", "", "text quantity; regulators hold it constant"],
+  ["Nozzle discharge coefficient", 0.96, "", "invented"],
+  ["Jet elevation angle", 27, "deg"],
+  ["Nozzle height above ground", 1.5, "m"],
+  ["Suction pipe length (ft)", 30, "ft", "labelled in feet, but the formula reads a bare number in metres: the unit check flags it"],
+  ["Discharge pipe length", 420, "m"],
+  ["Pipe material", "commercial steel", ""],
+  ["Pump speed", 2950, "rpm"],
+  ["Running hours per season", 1400, "h"],
+  ["Motor efficiency", "93%", "", "percent text"],
+];
+
+// Row numbers in the comments: the formulas refer to each other by them.
+const CALC: (Row | [string])[] = [
+  /* 3 */ ["Water and air at the site"],
+  /* 4 */ ["Atmospheric pressure", { f: 'NAPPE.ATMPRESSURE(Inputs!B4, "kPa")' }, "kPa"],
+  /* 5 */ ["Water density", { f: "NAPPE.WATER.DENSITY(Inputs!B5)" }, "kg/m³"],
+  /* 6 */ ["Kinematic viscosity", { f: 'NAPPE.WATER.KINVISC(Inputs!B5, B4&" kPa")' }, "m²/s"],
+  /* 7 */ ["Vapour pressure", { f: 'NAPPE.WATER.VAPORPRESSURE(Inputs!B5, "kPa")' }, "kPa"],
+  /* 8 */ ["Sprinklers and duty"],
+  /* 9 */ ["Pressure head at the gun", { f: 'NAPPE.HEAD(Inputs!B10, B5, "m")' }, "m"],
+  /* 10 */ ["Flow per gun", { f: 'NAPPE.NOZZLE.FLOW(Inputs!B9, B9, Inputs!B11, "m^3/h")' }, "m³/h"],
+  /* 11 */ ["Duty flow", { f: "B10*Inputs!B8" }, "m³/h"],
+  /* 12 */ ["Jet velocity (Cv 0.98)", { f: "NAPPE.JET.VELOCITY(B9, 0.98)" }, "m/s"],
+  /* 13 */ ["Throw with no air drag", { f: "NAPPE.JET.REACH(B12, Inputs!B12, Inputs!B13)" }, "m", "real throw is much shorter"],
+  /* 14 */ ["Jet rise with no air drag", { f: "NAPPE.JET.HEIGHT(B12, Inputs!B12)" }, "m"],
+  /* 15 */ ["Piping"],
+  /* 16 */ ["Suction inside diameter, NPS 6 Sch 40", { f: "NAPPE.PIPE.ID(6, 40)" }, "m"],
+  /* 17 */ ["Discharge inside diameter, NPS 5 Sch 40", { f: 'NAPPE.PIPE.ID(5, "40")' }, "m"],
+  /* 18 */ ["Pipe roughness", { f: "NAPPE.PIPE.ROUGHNESS(Inputs!B16)" }, "m"],
+  /* 19 */ ["Suction K: foot valve and elbow", { f: 'NAPPE.FITTING.K("foot valve", B16)+NAPPE.FITTING.K("elbow 90", B16)' }, ""],
+  /* 20 */ ["Discharge K: check, gate, 4 elbows, exit", { f: 'NAPPE.FITTING.K("swing check", B17)+NAPPE.FITTING.K("gate valve", B17)+4*NAPPE.FITTING.K("elbow 90", B17)+NAPPE.FITTING.K("exit", B17)' }, ""],
+  /* 21 */ ["Suction friction loss", { f: 'NAPPE.HEADLOSS(B11&" m^3/h", B16, Inputs!B14, B18, B6)' }, "m"],
+  /* 22 */ ["Suction fitting loss", { f: 'NAPPE.HEADLOSS.MINOR(B11&" m^3/h", B16, B19)' }, "m"],
+  /* 23 */ ["Suction loss", { f: "B21+B22" }, "m"],
+  /* 24 */ ["Static lift plus pressure head at the gun", { f: "Inputs!B6+Inputs!B7+B9" }, "m"],
+  /* 25 */ ["Head the pump must add at duty", { f: 'NAPPE.SYSTEM.HEAD(B11&" m^3/h", B24, E3:H5, B6)' }, "m"],
+  /* 26 */ ["Pump"],
+  /* 27 */ ["Selected impeller: size, head, efficiency, NPSHr", { f: 'NAPPE.PUMP.SELECT(Pump!A3:E21, B11&" m^3/h", B25, "m")', spill: "B27:E27" }, "mm, m, –, m"],
+  /* 28 */ ["Operating point of the full 265 mm impeller", { f: 'NAPPE.PUMP.DUTY(Pump!H3:K9, B24, E3:H5, B6, "m^3/h", "m")', spill: "B28:C28" }, "m³/h, m"],
+  /* 29 */ ["Impeller trimmed to meet the duty", { f: 'NAPPE.TRIM(Pump!H3:K9, "265 mm", B11&" m^3/h", B25, "mm")' }, "mm"],
+  /* 30 */ ["Speed that would meet the duty untrimmed", { f: 'NAPPE.SPEED(Pump!H3:K9, Inputs!B17, B11&" m^3/h", B25)' }, "rpm"],
+  /* 31 */ ["Shaft power at duty", { f: 'NAPPE.POWER.SHAFT(B11&" m^3/h", B25, D27, B5, "kW")' }, "kW"],
+  /* 32 */ ["Motor, IEC, 15 % margin", { f: 'NAPPE.MOTOR.SIZE(B31&" kW", "IEC", "15%", "kW")' }, "kW"],
+  /* 33 */ ["Energy per season", { f: 'NAPPE.ENERGY.ANNUAL(B11&" m^3/h", B25, D27, Inputs!B18, Inputs!B19, B5, "MWh")' }, "MWh"],
+  /* 34 */ ["Specific speed, US units", { f: 'NAPPE.SPECIFICSPEED(Inputs!B17, B11&" m^3/h", B25, "US")' }, ""],
+  /* 35 */ ["Suction and surge"],
+  /* 36 */ ["NPSH available", { f: 'NAPPE.NPSHA(B4&" kPa", -Inputs!B6, B23, Inputs!B5, B5, "m")' }, "m"],
+  /* 37 */ ["NPSH required at duty", { f: "E27" }, "m"],
+  /* 38 */ ["NPSH margin ratio", { f: "NAPPE.NPSH.MARGIN(B36, B37)" }, ""],
+  /* 39 */ ["Pressure-wave speed, steel 6.55 mm wall", { f: 'NAPPE.SURGE.WAVESPEED(B17, "6.55 mm", "200 GPa", , B5)' }, "m/s"],
+  /* 40 */ ["Surge on a sudden pump stop", { f: 'NAPPE.SURGE.PRESSURE(B39, NAPPE.VELOCITY(B11&" m^3/h", B17), B5, "bar")' }, "bar"],
+];
+
+const SUMMARY: Row[] = [
+  ["Duty flow", { f: "Calc!B11" }, "m³/h"],
+  ["Head the pump must add", { f: "Calc!B25" }, "m"],
+  ["Chosen impeller (full size)", { f: "Calc!B27" }, "mm"],
+  ["Impeller trimmed to", { f: "Calc!B29" }, "mm"],
+  ["Operating point, full impeller: flow", { f: "Calc!B28" }, "m³/h"],
+  ["Operating point, full impeller: head", { f: "Calc!C28" }, "m"],
+  ["Pump efficiency at duty", { f: "Calc!D27" }, "fraction"],
+  ["Shaft power at duty", { f: "Calc!B31" }, "kW"],
+  ["Motor (IEC, 15 % margin)", { f: "Calc!B32" }, "kW"],
+  ["NPSH available", { f: "Calc!B36" }, "m"],
+  ["NPSH required", { f: "Calc!B37" }, "m"],
+  ["NPSH margin ratio", { f: "Calc!B38" }, ""],
+  ["Energy per season", { f: "Calc!B33" }, "MWh"],
+  ["Surge on a sudden stop", { f: "Calc!B40" }, "bar"],
+];
+
+function title(ws: ExcelJS.Worksheet, text: string): void {
+  ws.getCell("A1").value = text;
+  ws.getCell("A1").font = { bold: true, size: 14 };
+  ws.getCell("A2").value = INVENTED;
+  ws.getCell("A2").font = { italic: true, color: { argb: "FFB00020" } };
+}
+
+function writeRows(ws: ExcelJS.Worksheet, rows: (Row | [string])[], firstRow: number): void {
+  rows.forEach((row, i) => {
+    const r = firstRow + i;
+    ws.getCell(r, 1).value = row[0];
+    if (row.length === 1) {
+      ws.getCell(r, 1).font = { bold: true, color: { argb: "FF0E5463" } };
+      return;
+    }
+    const [, value, unit, note] = row;
+    const cell = ws.getCell(r, 2);
+    if (typeof value === "object") {
+      cell.value = value.spill ? ({ formula: value.f, shareType: "array", ref: value.spill } as ExcelJS.CellFormulaValue) : { formula: value.f };
+    } else cell.value = value;
+    if (unit) ws.getCell(r, 3).value = unit;
+    if (note) ws.getCell(r, 4).value = note;
+  });
+}
+
+/** The demo workbook with formulas only (no cached results yet). */
+function layout(): ExcelJS.Workbook {
+  const book = new ExcelJS.Workbook();
+  book.creator = "Nappe demo builder";
+  book.created = new Date(Date.UTC(2026, 0, 1));
+  book.modified = book.created;
+
+  const summary = book.addWorksheet("Summary");
+  title(summary, "Hillside orchard pumping station: sizing summary");
+  writeRows(summary, SUMMARY, 3);
+
+  const inputs = book.addWorksheet("Inputs");
+  title(inputs, "Inputs");
+  ["Quantity", "Value", "Unit", "Note"].forEach((h, j) => {
+    inputs.getCell(3, j + 1).value = h;
+    inputs.getCell(3, j + 1).font = { bold: true };
+  });
+  writeRows(inputs, INPUTS, 4);
+
+  const calc = book.addWorksheet("Calc");
+  title(calc, "Calculation (NAPPE worksheet functions)");
+  writeRows(calc, CALC, 3);
+  // Pipe segments from pump suction to the guns, as a table with unit headers.
+  const seg = [
+    ["Length (m)", "ID (m)", "Roughness (m)", "K"],
+    [{ formula: "Inputs!B14" }, { formula: "B16" }, { formula: "B18" }, { formula: "B19" }],
+    [{ formula: "Inputs!B15" }, { formula: "B17" }, { formula: "B18" }, { formula: "B20" }],
+  ];
+  seg.forEach((row, i) => row.forEach((v, j) => (calc.getCell(3 + i, 5 + j).value = v as ExcelJS.CellValue)));
+  calc.getCell("J2").value = "System curve (spilled)";
+  calc.getCell("J3").value = { formula: 'NAPPE.SYSTEM.CURVE(B24, E3:H5, "150 m^3/h", 11, B6, "m^3/h", "m")', shareType: "array", ref: "J3:K15" } as ExcelJS.CellFormulaValue;
+
+  const pump = book.addWorksheet("Pump");
+  title(pump, "Invented pump family, 2950 rpm");
+  const header = ["Impeller (mm)", "Flow (m^3/h)", "Head (m)", "Eff (%)", "NPSHr (m)"];
+  [header, ...family()].forEach((row, i) => row.forEach((v, j) => (pump.getCell(3 + i, 1 + j).value = v === "" ? null : v)));
+  pump.getCell("H2").value = "Curve of the 265 mm impeller";
+  const curve = [header.slice(1), ...family().filter((r) => r[0] === 265).map((r) => r.slice(1))];
+  curve.forEach((row, i) => row.forEach((v, j) => (pump.getCell(3 + i, 8 + j).value = v === "" ? null : v)));
+
+  for (const ws of [summary, inputs, calc, pump]) {
+    ws.getColumn(1).width = ws === pump ? 14 : 44;
+    for (let c = 2; c <= 11; c++) ws.getColumn(c).width = 14;
+  }
+  calc.getColumn(4).width = 14;
+  return book;
+}
+
+/** The demo workbook with every formula's result cached from Nappe's recalculation. */
+export async function buildDemoWorkbook(): Promise<ExcelJS.Workbook> {
+  const book = layout();
+  const result = recalculate(fromExcelJS(book), { all: true });
+  for (const cell of result.cells) {
+    const ws = book.getWorksheet(cell.sheet)!;
+    const target = ws.getCell(cell.address);
+    const v = target.value as ExcelJS.CellFormulaValue & { shareType?: string; ref?: string };
+    if (Array.isArray(cell.value)) {
+      const rows = cell.value;
+      const { row, col } = parseAddress(cell.address);
+      target.value = { ...v, result: (rows[0]?.[0] ?? undefined) as never };
+      rows.forEach((r, i) => r.forEach((x, j) => {
+        if (i || j) ws.getCell(addressOf(row + i, col + j)).value = x as ExcelJS.CellValue;
+      }));
+    } else {
+      target.value = { ...v, result: (cell.value ?? undefined) as never };
+    }
+  }
+  return book;
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+  const book = await buildDemoWorkbook();
+  const out = join(fileURLToPath(new URL(".", import.meta.url)), DEMO_FILE);
+  await writeFile(out, Buffer.from(await book.xlsx.writeBuffer()));
+  console.log(`Wrote ${out}`);
+}

@@ -1,0 +1,24 @@
+/** A1-style cell addresses (no dependencies, shared by the headless command and the pane). */
+
+export function cellKey(row: number, col: number): string {
+  return `${row}:${col}`;
+}
+
+export function columnLetters(col: number): string {
+  let s = "";
+  for (let n = col; n > 0; n = Math.floor((n - 1) / 26)) s = String.fromCharCode(65 + ((n - 1) % 26)) + s;
+  return s;
+}
+
+export function addressOf(row: number, col: number): string {
+  return `${columnLetters(col)}${row}`;
+}
+
+/** Parses "B12" into row and column numbers (1-based). */
+export function parseAddress(address: string): { row: number; col: number } {
+  const m = /^\$?([A-Za-z]{1,3})\$?(\d+)$/.exec(address.trim());
+  if (!m) throw new Error(`not a cell address: ${address}`);
+  let col = 0;
+  for (const ch of m[1].toUpperCase()) col = col * 26 + (ch.charCodeAt(0) - 64);
+  return { row: Number(m[2]), col };
+}

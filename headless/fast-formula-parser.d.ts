@@ -1,0 +1,37 @@
+// Minimal typings for the parts of fast-formula-parser (MIT) this project uses.
+declare module "fast-formula-parser" {
+  export interface CellRef {
+    sheet: string;
+    row: number;
+    col: number;
+  }
+  export interface RangeRef {
+    sheet: string;
+    from: { row: number; col: number };
+    to: { row: number; col: number };
+  }
+  export interface FunctionArg {
+    value: unknown;
+    isArray?: boolean;
+    omitted?: boolean;
+    ref?: Partial<CellRef & RangeRef>;
+  }
+  export class FormulaError extends Error {
+    constructor(error: string, msg?: string, details?: unknown);
+    readonly error: string;
+    readonly details: unknown;
+  }
+  export default class FormulaParser {
+    constructor(config: {
+      onCell?: (ref: CellRef) => unknown;
+      onRange?: (ref: RangeRef) => unknown[][];
+      functions?: Record<string, (...args: FunctionArg[]) => unknown>;
+    });
+    /** Internal list of functions whose arguments keep their references (used to see what an argument refers to). */
+    funsPreserveRef: string[];
+    parse(formula: string, position: { sheet: string; row: number; col: number }, allowReturnArray?: boolean): unknown;
+    static FormulaError: typeof FormulaError;
+    static MAX_ROW: number;
+    static MAX_COLUMN: number;
+  }
+}

@@ -1,0 +1,137 @@
+/** Renderers of recalculation results and of the audit model: text table, HTML, .xlsx. */
+import ExcelJS from "exceljs";
+import katex from "katex";
+import { type AuditReport, AUDIT_COLUMNS, auditRows, formatNumber, formatValue } from "./audit";
+import type { CellOutcome } from "./recalc";
+
+function clip(text: string, width: number): string {
+  return text.length <= width ? text : `${text.slice(0, width - 1)}…`;
+}
+
+/** The recalculation as a fixed-width table, with each cell's messages under it. */
+export function renderTable(cells: readonly CellOutcome[]): string {
+  const head = ["sheet", "cell", "formula", "value", "unit", "cached", "difference", "status"];
+  const rows = cells.map((c) => [
+    c.sheet,
+    c.address,
+    c.formula,
+    formatValue(c.value),
+    c.unit,
+    c.cached === null ? "" : typeof c.cached === "number" ? formatNumber(c.cached) : String(c.cached),
+    c.difference === null ? "" : c.difference === 0 ? "0" : c.difference.toExponential(1),
+    c.status,
+  ]);
+  const limits = [16, 8, 48, 28, 10, 14, 10, 7];
+  const widths = head.map((h, j) => Math.min(limits[j], Math.max(h.length, ...rows.map((r) => r[j].length))));
+  const line = (r: string[]) => r.map((v, j) => clip(v, widths[j]).padEnd(widths[j])).join("  ").trimEnd();
+  const out = [line(head), widths.map((w) => "-".repeat(w)).join("  ")];
+  cells.forEach((c, i) => {
+    out.push(line(rows[i]));
+    for (const m of c.messages) out.push(`    ${c.status === "error" ? "!" : "-"} ${m}`);
+  });
+  return out.join("\n");
+}
+
+const ESCAPES: Record<string, string> = { "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" };
+/** Escapes workbook text for HTML: nothing from a workbook is ever markup. */
+export function escapeHtml(text: string): string {
+  return text.replace(/[&<>"']/g, (c) => ESCAPES[c]);
+}
+
+function equation(tex: string): string {
+  return katex.renderToString(tex, { output: "mathml", throwOnError: false, displayMode: true });
+}
+
+const STYLE = `
+body{font:15px/1.5 system-ui,"Segoe UI",sans-serif;color:#17323a;max-width:960px;margin:24px auto;padding:0 16px}
+h1{font-size:22px;margin-bottom:4px} h2{font-size:17px;margin:28px 0 6px;border-top:1px solid #cfe0e4;padding-top:14px}
+h3{font-size:14px;margin:14px 0 4px}
+.meta{color:#4a6670;font-size:13px}
+.caution{background:#fff4de;border:1px solid #e6c98f;color:#5c3a00;padding:8px 12px;border-radius:4px}
+.counts span{display:inline-block;margin-right:14px}
+.status{font-weight:600;padding:1px 8px;border-radius:10px;font-size:12px}
+.ok{background:#dff3e4;color:#1d5b2c}.warning{background:#fff0c7;color:#6b4a00}.error{background:#fbdcdc;color:#8a1c1c}
+table{border-collapse:collapse;width:100%;font-size:13px;margin:4px 0}
+th,td{text-align:left;vertical-align:top;border-bottom:1px solid #e3eef0;padding:3px 6px}
+code{background:#eef5f6;padding:1px 4px;border-radius:3px;word-break:break-word}
+.call{margin-left:12px;border-left:3px solid #cfe0e4;padding-left:12px}
+ul{margin:2px 0 6px;padding-left:20px}
+math{font-size:1.1em}
+@media print{.call{break-inside:avoid}}
+`;
+
+function list(title: string, items: readonly string[], cls = ""): string {
+  if (!items.length) return "";
+  return `<h3>${escapeHtml(title)}</h3><ul${cls ? ` class="${cls}"` : ""}>${items.map((i) => `<li>${escapeHtml(i)}</li>`).join("")}</ul>`;
+}
+
+/** The audit as one self-contained HTML page (MathML equations, no scripts, nothing loaded). */
+export function renderHtml(report: AuditReport): string {
+  const entries = report.entries
+    .map((e) => {
+      const calls = e.calls
+        .map(
+          (c) => `<div class="call">
+<h3>NAPPE.${escapeHtml(c.id)}: ${escapeHtml(c.purpose)}</h3>
+${equation(c.equation)}
+<table><tr><th>argument</th><th>as written</th><th>as read</th><th>how</th></tr>
+${c.inputs.map((i) => `<tr><td>${escapeHtml(i.name)}</td><td><code>${escapeHtml(i.written)}</code></td><td>${escapeHtml(i.read)}</td><td>${escapeHtml(i.how)}</td></tr>`).join("\n")}
+</table>
+<p><strong>Result:</strong> ${escapeHtml(c.result || "(error)")}</p>
+${c.error ? `<p class="status error">${escapeHtml(c.error)}</p>` : ""}
+${list("Warnings", c.warnings)}${list("Assumptions", c.assumptions)}${list("Cautions", c.cautions)}${list("Sources", c.sources)}
+</div>`,
+        )
+        .join("\n");
+      const loose = e.messages.filter((m) => !e.calls.some((c) => m.includes(c.id)));
+      return `<section id="${escapeHtml(`${e.sheet}!${e.address}`)}">
+<h2>${escapeHtml(e.sheet)}!${escapeHtml(e.address)} <span class="status ${e.status}">${e.status}</span></h2>
+<p><code>${escapeHtml(e.formula)}</code> → <strong>${escapeHtml(e.result)}</strong></p>
+${list("Notes", loose)}
+${calls}
+</section>`;
+    })
+    .join("\n");
+  return `<!doctype html>
+<html lang="en"><head><meta charset="utf-8">
+<meta http-equiv="Content-Security-Policy" content="default-src 'none'; style-src 'unsafe-inline'">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<title>${escapeHtml(report.title)}</title><style>${STYLE}</style></head>
+<body>
+<h1>${escapeHtml(report.title)}</h1>
+<p class="meta">Workbook: ${escapeHtml(report.source)} · generated ${escapeHtml(report.generated)} by Nappe</p>
+<div class="caution">${report.cautions.map((c) => `<p>${escapeHtml(c)}</p>`).join("")}</div>
+<p class="counts"><span>${report.entries.length} NAPPE formulas</span><span class="status ok">${report.counts.ok} ok</span><span class="status warning">${report.counts.warning} warning</span><span class="status error">${report.counts.error} error</span></p>
+${entries}
+</body></html>
+`;
+}
+
+/** Adds the audit as a print-ready sheet to an exceljs workbook (replacing a sheet of that name). */
+export function addAuditSheet(book: ExcelJS.Workbook, report: AuditReport, name = "Nappe audit"): ExcelJS.Worksheet {
+  const old = book.getWorksheet(name);
+  if (old) book.removeWorksheet(old.id);
+  const ws = book.addWorksheet(name, {
+    pageSetup: { orientation: "landscape", fitToPage: true, fitToWidth: 1, fitToHeight: 0, paperSize: 9 },
+    views: [{ state: "frozen", ySplit: 4 }],
+  });
+  ws.addRow([report.title]).font = { bold: true, size: 14 };
+  ws.addRow([`Workbook: ${report.source} · generated ${report.generated} · ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`]);
+  ws.addRow([report.cautions.join(" ")]).font = { italic: true, color: { argb: "FF7A4B00" } };
+  const header = ws.addRow(AUDIT_COLUMNS);
+  header.font = { bold: true, color: { argb: "FFFFFFFF" } };
+  header.eachCell((c) => (c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FF0E5463" } }));
+  for (const row of auditRows(report).slice(1)) {
+    const r = ws.addRow(row);
+    r.alignment = { vertical: "top", wrapText: true };
+    const status = row[3];
+    if (status) {
+      const colour = status === "error" ? "FFFBDCDC" : status === "warning" ? "FFFFF0C7" : "FFDFF3E4";
+      r.getCell(4).fill = { type: "pattern", pattern: "solid", fgColor: { argb: colour } };
+    }
+  }
+  const widths = [12, 7, 40, 9, 18, 18, 32, 48, 40, 40, 36, 32];
+  widths.forEach((w, i) => (ws.getColumn(i + 1).width = w));
+  ws.pageSetup.printTitlesRow = "4:4";
+  return ws;
+}
