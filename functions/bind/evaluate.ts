@@ -189,8 +189,7 @@ export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evalua
   let unit: string = DIMENSIONS[dim].base;
   const outUnit = args["unit"];
   if (typeof outUnit === "string" && spec.params.some((p) => p.name === "unit" && p.kind === "unit")) {
-    const asNumber = parseNumberText(outUnit);
-    if (asNumber !== undefined || !hasUnit(dim)) {
+    if (!hasUnit(dim)) {
       throw new CalcError("unit", `expected a unit of ${DIMENSIONS[dim].noun.replace(/^an? /, "")} such as ${DIMENSIONS[dim].example.replace(/^"[\d.]+ /, '"')}; got "${outUnit}"`, "value");
     }
     value = fromBase("unit", value, dim, outUnit);

@@ -3,6 +3,12 @@ import { DEFAULT_PRESSURE_PA, DEFAULT_TEMPERATURE_C } from "../calc/_lib/constan
 import { waterDensity, waterKinematicViscosity } from "../calc/water";
 import type { QuantityParam, UnitParam } from "./types";
 
+/** A value computed on first use and kept (for defaults that never change). */
+function once(compute: () => number): () => number {
+  let value: number | undefined;
+  return () => (value ??= compute());
+}
+
 /** The optional result unit, always named `unit`. */
 export function unitParam(example: string): UnitParam {
   return { name: "unit", kind: "unit", optional: true, description: `Unit of the result, such as ${example}; base unit when left out.` };
@@ -16,7 +22,7 @@ export const densityParam: QuantityParam = {
   dim: "density",
   optional: true,
   description: "Liquid density; water at 20 °C when left out.",
-  default: () => waterDensity(DEFAULT_TEMPERATURE_C, DEFAULT_PRESSURE_PA).value,
+  default: once(() => waterDensity(DEFAULT_TEMPERATURE_C, DEFAULT_PRESSURE_PA).value),
   defaultNote: DEFAULT_WATER_NOTE,
 };
 
@@ -26,7 +32,7 @@ export const kinematicViscosityParam: QuantityParam = {
   dim: "kinematicViscosity",
   optional: true,
   description: "Liquid kinematic viscosity; water at 20 °C when left out.",
-  default: () => waterKinematicViscosity(DEFAULT_TEMPERATURE_C, DEFAULT_PRESSURE_PA).value,
+  default: once(() => waterKinematicViscosity(DEFAULT_TEMPERATURE_C, DEFAULT_PRESSURE_PA).value),
   defaultNote: DEFAULT_WATER_NOTE,
 };
 

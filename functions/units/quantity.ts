@@ -10,8 +10,15 @@ import { type MathUnit, parseUnitText, quantity, unitOf } from "./mathjs";
 
 const CACHE_LIMIT = 5000;
 const ALL_DIMENSIONS = Object.keys(DIMENSIONS) as Dimension[];
-const quantityCache = new Map<string, ParsedQuantity>();
-const unitCache = new Map<string, UnitConversion>();
+/** Caches by dimension, then by text: no key strings to build on the hot path. */
+const quantityCache = new Map<Dimension, Map<string, ParsedQuantity>>();
+const unitCache = new Map<Dimension, Map<string, UnitConversion>>();
+
+function cacheFor<T>(caches: Map<Dimension, Map<string, T>>, dim: Dimension): Map<string, T> {
+  let m = caches.get(dim);
+  if (!m) caches.set(dim, (m = new Map()));
+  return m;
+}
 
 /** A text quantity read into base units. */
 export interface ParsedQuantity {
@@ -65,8 +72,8 @@ function normaliseUnitText(unit: string): string {
 
 /** Conversion between a unit name and a dimension's base unit (cached). */
 function conversionFor(arg: string, unitText: string, dim: Dimension): UnitConversion {
-  const key = `${dim}|${unitText}`;
-  const hit = unitCache.get(key);
+  const cache = cacheFor(unitCache, dim);
+  const hit = cache.get(unitText);
   if (hit) return hit;
   const info = DIMENSIONS[dim];
   let unit: MathUnit;
@@ -92,7 +99,7 @@ function conversionFor(arg: string, unitText: string, dim: Dimension): UnitConve
     const factor = quantity(1, name).toNumber(info.base);
     conversion = { unit: unitText, toBase: (x) => x * factor, fromBase: (x) => x / factor };
   }
-  return remember(unitCache, key, conversion);
+  return remember(cache, unitText, conversion);
 }
 
 /**
@@ -100,19 +107,19 @@ function conversionFor(arg: string, unitText: string, dim: Dimension): UnitConve
  * the dimensionless kinds ("78%" → 0.78). Throws a CalcError naming `arg` otherwise.
  */
 export function parseQuantity(arg: string, text: string, dim: Dimension): ParsedQuantity {
-  const key = `${dim}|${text}`;
-  const hit = quantityCache.get(key);
+  const cache = cacheFor(quantityCache, dim);
+  const hit = cache.get(text);
   if (hit) return hit;
   const t = text.trim();
   const bare = parseNumberText(t);
-  if (bare !== undefined) return remember(quantityCache, key, { base: bare, number: bare, unit: "" });
+  if (bare !== undefined) return remember(cache, text, { base: bare, number: bare, unit: "" });
   if (!hasUnit(dim)) {
     const percent = /^(.*\S)\s*%$/.exec(t);
     const n = percent ? parseNumberText(percent[1]) : undefined;
     if (n === undefined) {
       throw new CalcError(arg, `could not read "${text}" as ${DIMENSIONS[dim].noun}: expected ${DIMENSIONS[dim].example}`, "value");
     }
-    return remember(quantityCache, key, { base: n / 100, number: n, unit: "%" });
+    return remember(cache, text, { base: n / 100, number: n, unit: "%" });
   }
   const m = QUANTITY_TEXT.exec(t);
   if (!m) throw describeUnitProblem(arg, text, dim);
@@ -122,7 +129,7 @@ export function parseQuantity(arg: string, text: string, dim: Dimension): Parsed
   if (!Number.isFinite(number) || !Number.isFinite(base)) {
     throw new CalcError(arg, `"${text}" is too large to use`, "num");
   }
-  return remember(quantityCache, key, { base, number, unit: m[2].trim() });
+  return remember(cache, text, { base, number, unit: m[2].trim() });
 }
 
 /** Converts a base-unit value to `unitText`, which must be a unit of `dim`. */

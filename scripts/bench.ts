@@ -1,0 +1,108 @@
+/**
+ * npm run bench: speed and memory, measured side by side in one run and reported as ratios
+ * (absolute times depend on the machine). Writes bench/results.json.
+ *
+ *  - exact Colebrook against Swamee–Jain (target: at most 3× its cost)
+ *  - a worksheet call with text quantities against bare numbers (target: at most 1.5×)
+ *  - 10 000 HEADLOSS calls through the binding layer
+ *  - headless recalculation of a generated workbook with 5 000 NAPPE formulas: time, peak memory
+ *  - built bundle sizes, minified and gzipped (run npm run build first)
+ */
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import { gzipSync } from "node:zlib";
+import ExcelJS from "exceljs";
+import { colebrookFriction, swameeJainFriction } from "../functions/calc/friction";
+import { evaluate, type RawArg } from "../functions/bind/evaluate";
+import { CATALOG_BY_ID } from "../functions/catalog";
+import { recalculate } from "../headless/recalc";
+import { fromExcelJS } from "../headless/workbook";
+
+const root = join(import.meta.dirname, "..");
+
+/** Median time per call in nanoseconds over `rounds` rounds of `n` calls. */
+function timePerCall(n: number, rounds: number, fn: (i: number) => void): number {
+  const samples: number[] = [];
+  for (let r = 0; r < rounds; r++) {
+    const t0 = process.hrtime.bigint();
+    for (let i = 0; i < n; i++) fn(i);
+    samples.push(Number(process.hrtime.bigint() - t0) / n);
+  }
+  samples.sort((a, b) => a - b);
+  return samples[Math.floor(samples.length / 2)];
+}
+
+let sink = 0;
+const res: Record<string, unknown> = { date: new Date().toISOString(), node: process.version };
+
+// 1. Colebrook against Swamee–Jain over a spread of Re and ε/D.
+const re = Array.from({ length: 1000 }, (_, i) => 4000 * Math.pow(10, (i % 100) / 25));
+const rr = Array.from({ length: 1000 }, (_, i) => Math.pow(10, -6 + (i % 37) / 9.25));
+const colebrook = timePerCall(100000, 9, (i) => (sink += colebrookFriction(re[i % 1000], rr[i % 1000])));
+const swamee = timePerCall(100000, 9, (i) => (sink += swameeJainFriction(re[i % 1000], rr[i % 1000])));
+res.colebrook_vs_swamee_jain = { colebrook_ns: colebrook, swamee_jain_ns: swamee, ratio: colebrook / swamee, target: "≤ 3" };
+
+// 2. Worksheet call with text quantities against bare numbers (same values).
+const headloss = CATALOG_BY_ID.get("HEADLOSS")!;
+const bare: RawArg[] = [0.02, 0.1541, 300, 4.6e-5, null, null];
+const text: RawArg[] = ["317.006 gpm", "6.067 in", "984.252 ft", "0.0018110 in", null, "ft"];
+const bareNs = timePerCall(20000, 9, () => (sink += evaluate(headloss, bare).value as number));
+const textNs = timePerCall(20000, 9, () => (sink += evaluate(headloss, text).value as number));
+res.text_vs_bare_numbers = { bare_ns: bareNs, text_ns: textNs, ratio: textNs / bareNs, target: "≤ 1.5" };
+
+// 3. 10 000 HEADLOSS calls through the built binding (the same wrapper Excel calls).
+const bundle = join(root, "dist/functions.js");
+if (existsSync(bundle)) {
+  const vm = await import("node:vm");
+  const registry = new Map<string, (...a: unknown[]) => unknown>();
+  class StubError extends Error {}
+  vm.runInContext(readFileSync(bundle, "utf8"), vm.createContext({ CustomFunctions: { associate: (id: string, f: (...a: unknown[]) => unknown) => registry.set(id, f), Error: StubError, ErrorCode: {} } }));
+  const fn = registry.get("HEADLOSS")!;
+  const t0 = process.hrtime.bigint();
+  for (let i = 0; i < 10000; i++) sink += fn(0.01 + i * 1e-7, 0.1541, 300, 4.6e-5, null, null) as number;
+  res.binding_10000_headloss_ms = Number(process.hrtime.bigint() - t0) / 1e6;
+}
+
+// 4. Headless recalculation of 5 000 NAPPE formulas.
+const book = new ExcelJS.Workbook();
+const ws = book.addWorksheet("Bench");
+for (let r = 1; r <= 1000; r++) {
+  ws.getCell(r, 1).value = 0.005 + r * 1e-5;
+  ws.getCell(r, 2).value = { formula: `NAPPE.HEADLOSS(A${r}, "6 in", 100, "0.045 mm")` };
+  ws.getCell(r, 3).value = { formula: `NAPPE.VELOCITY(A${r}&" m^3/s", 0.15, "ft/s")` };
+  ws.getCell(r, 4).value = { formula: `NAPPE.WATER.DENSITY(${10 + (r % 60)})` };
+  ws.getCell(r, 5).value = { formula: `NAPPE.POWER.SHAFT(A${r}, B${r}+30, "75%", D${r}, "kW")` };
+  ws.getCell(r, 6).value = { formula: `NAPPE.NPSHA(NAPPE.ATMPRESSURE(${r}), -2, B${r}, 20)` };
+}
+const model = fromExcelJS(book);
+global.gc?.();
+const rssBefore = process.memoryUsage().rss;
+let peak = rssBefore;
+const t0 = process.hrtime.bigint();
+const result = recalculate(model, { onProgress: () => (peak = Math.max(peak, process.memoryUsage().rss)) });
+const ms = Number(process.hrtime.bigint() - t0) / 1e6;
+peak = Math.max(peak, process.memoryUsage().rss);
+res.recalc_5000_nappe_formulas = {
+  formulas: result.cells.length,
+  errors: result.cells.filter((c) => c.status === "error").length,
+  ms,
+  per_formula_us: (ms * 1000) / result.cells.length,
+  peak_rss_mb: peak / 2 ** 20,
+  rss_growth_mb: (peak - rssBefore) / 2 ** 20,
+};
+
+// 5. Bundle sizes.
+const sizes: Record<string, { bytes: number; gzip: number }> = {};
+for (const f of ["functions.js", "taskpane.js"]) {
+  const p = join(root, "dist", f);
+  if (existsSync(p)) {
+    const b = readFileSync(p);
+    sizes[f] = { bytes: b.length, gzip: gzipSync(b).length };
+  }
+}
+res.bundles = sizes;
+
+mkdirSync(join(root, "bench"), { recursive: true });
+writeFileSync(join(root, "bench/results.json"), `${JSON.stringify(res, null, 2)}\n`);
+console.log(JSON.stringify(res, null, 2));
+if (sink === 42) console.log("");
