@@ -10,7 +10,7 @@ import type { Table } from "../functions/bind/table";
 import { DIMENSIONS } from "../functions/units/dimensions";
 import type { CellOutcome, Status } from "./recalc";
 import { checkCallUnits, type LabelSource } from "./unitCheck";
-import type { CellValue } from "./workbook";
+import type { CellValue } from "./model";
 
 /** Shown at the top of every audit. */
 export const GENERAL_CAUTIONS = [
@@ -60,13 +60,10 @@ export interface AuditReport {
   entries: AuditEntry[];
 }
 
-/** A number as people read it: six significant figures, no exponent for ordinary sizes. */
+/** A number as people read it: six significant figures, the shortest form JavaScript prints. */
 export function formatNumber(x: number): string {
   if (!Number.isFinite(x)) return String(x);
-  if (x === 0) return "0";
-  const a = Math.abs(x);
-  if (a >= 1e-4 && a < 1e9) return String(Number(x.toPrecision(6)));
-  return x.toPrecision(6);
+  return String(Number(x.toPrecision(6)));
 }
 
 export function formatValue(v: CellValue | CellValue[][]): string {

@@ -35,3 +35,13 @@ declare module "fast-formula-parser" {
     static MAX_COLUMN: number;
   }
 }
+
+declare module "fast-formula-parser/grammar/lexing" {
+  export interface Token {
+    image: string;
+    startOffset: number;
+    endOffset: number;
+    tokenType: { name: string };
+  }
+  export function lex(text: string): { tokens: Token[]; errors: unknown[] };
+}

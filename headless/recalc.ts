@@ -8,7 +8,7 @@ import FormulaParser, { type FunctionArg, type RangeRef } from "fast-formula-par
 import { CalcError } from "../functions/calc/_lib/result";
 import { evaluate, type Evaluation, type RawArg } from "../functions/bind/evaluate";
 import { CATALOG } from "../functions/catalog";
-import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAddress, type WorkbookModel } from "./workbook";
+import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAddress, type WorkbookModel } from "./model";
 
 const { FormulaError } = FormulaParser;
 
@@ -48,7 +48,7 @@ export interface RecalcOptions {
   all?: boolean;
 }
 
-interface Computed {
+export interface Computed {
   value: CellValue | CellValue[][];
   error?: string;
   message?: string;

@@ -25,6 +25,8 @@ export interface UnitFinding {
   message: string;
   /** The formula text that fixes it: the reference joined with the unit, such as B7&" ft". */
   fix?: string;
+  /** The unit the label declares, when joining it would fix the reading. */
+  unit?: string;
 }
 
 const ALL_DIMS = Object.keys(DIMENSIONS) as Dimension[];
@@ -77,6 +79,7 @@ export function checkCallUnits(spec: FunctionSpec, evaluation: Evaluation, refs:
         ref,
         message: `${ref} is labelled "${text}" but its bare number ${reading.raw} is read as ${reading.raw} ${DIMENSIONS[p.dim].baseLabel}: join the unit, ${fixRef}&" ${declared.unit}", or correct the label.`,
         fix: `${fixRef}&" ${declared.unit}"`,
+        unit: declared.unit,
       });
       return;
     }

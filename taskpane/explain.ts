@@ -1,0 +1,251 @@
+/**
+ * The explanation of a selected cell: every NAPPE call in its formula (nested ones too) with
+ * its purpose, equation, each argument as written and as read (unit and why), the result in
+ * base units and in the requested unit, assumptions, checks, cautions and sources, plus the
+ * unit check of arguments read from labelled cells, with one-click fixes. Pure: it reads the
+ * workbook through the HostPort only, and evaluates with the same recalculation engine as the
+ * headless command (over a snapshot of the formula's direct precedents).
+ */
+import FormulaParser from "fast-formula-parser";
+import { CATALOG_BY_ID } from "../functions/catalog";
+import { resultDimension } from "../functions/catalog/types";
+import type { ArgReading } from "../functions/bind/evaluate";
+import type { Table } from "../functions/bind/table";
+import { DIMENSIONS } from "../functions/units/dimensions";
+import { formatNumber, formatValue } from "../headless/audit";
+import { callSites, evaluationOrder, replaceArgument, type CallSite } from "../headless/formula";
+import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../headless/model";
+import { type CallRecord, Recalculation } from "../headless/recalc";
+import { checkCallUnits, type LabelSource } from "../headless/unitCheck";
+import type { HostPort } from "./host/port";
+
+export interface ArgExplanation {
+  name: string;
+  /** The argument as written in the formula ("Inputs!B14", "\"6 in\"", or "" when left out). */
+  written: string;
+  /** Value as read, for people. */
+  value: string;
+  /** Unit it was read in. */
+  unit: string;
+  /** Why that unit: bare number (base unit), text quantity, percent, table header, default. */
+  why: string;
+  /** Base-unit value with its unit. */
+  base: string;
+}
+
+export interface UnitWarning {
+  message: string;
+  /** The whole formula with the fix applied, ready to write back. */
+  fixedFormula?: string;
+  /** Short label for the fix button: Inputs!B14&" ft". */
+  fixLabel?: string;
+}
+
+export interface CallExplanation {
+  id: string;
+  /** The call's own text in the formula. */
+  text: string;
+  purpose: string;
+  equation: string;
+  args: ArgExplanation[];
+  resultBase?: string;
+  resultRequested?: string;
+  assumptions: readonly string[];
+  checks: readonly string[];
+  warnings: string[];
+  unitWarnings: UnitWarning[];
+  cautions: readonly string[];
+  sources: readonly string[];
+  error?: string;
+}
+
+export interface CellExplanation {
+  sheet: string;
+  address: string;
+  formula?: string;
+  value: string;
+  /** A short message when there is nothing to explain (empty cell, constant, no NAPPE call). */
+  message?: string;
+  /** An error of the whole formula (parse error, circular reference...). */
+  error?: string;
+  calls: CallExplanation[];
+}
+
+const { DepParser } = FormulaParser as unknown as { DepParser: new () => { parse(f: string, pos: { sheet: string; row: number; col: number }): RefLike[] } };
+interface RefLike {
+  sheet: string;
+  row?: number;
+  col?: number;
+  from?: { row: number; col: number };
+  to?: { row: number; col: number };
+}
+
+function howWhy(r: ArgReading): { unit: string; why: string } {
+  switch (r.how) {
+    case "base unit":
+      return { unit: r.unit, why: "bare number: read in the base unit" };
+    case "text quantity":
+      return { unit: r.unit, why: "text quantity: unit written with the number" };
+    case "percent":
+      return { unit: "%", why: "percent text" };
+    case "default":
+      return { unit: r.unit, why: "left out: default used" };
+    case "table":
+      return { unit: "", why: "table: units from its header row (base units without one)" };
+    default:
+      return { unit: "", why: r.how };
+  }
+}
+
+function describeArg(r: ArgReading, written: string, baseUnit: string): ArgExplanation {
+  const { unit, why } = howWhy(r);
+  if (r.how === "table") {
+    const t = r.value as Table;
+    const cols = t.columns.map((c) => `${c.header ?? c.role} → ${c.role} in ${c.unit || DIMENSIONS[c.dim].baseLabel}`).join("; ");
+    return { name: r.name, written, value: `${t.rows} rows`, unit: "", why, base: cols };
+  }
+  const raw = r.raw === null || r.raw === undefined ? undefined : Array.isArray(r.raw) ? "(range)" : typeof r.raw === "number" ? formatNumber(r.raw) : String(r.raw);
+  if (typeof r.value !== "number") return { name: r.name, written, value: raw ?? String(r.value), unit, why, base: String(r.value) };
+  return { name: r.name, written, value: raw ?? formatNumber(r.value), unit, why, base: `${formatNumber(r.value)}${baseUnit ? ` ${baseUnit}` : ""}` };
+}
+
+/** Reads the formula's direct precedents from the host into a small workbook model. */
+async function snapshot(port: HostPort, sheet: string, address: string, formula: string): Promise<{ wb: WorkbookModel; labels: Map<string, string[]>; formats: Map<string, string | undefined> }> {
+  const target = parseAddress(address);
+  const wb: WorkbookModel = { sheets: [] };
+  const sheetModel = (name: string) => {
+    let s = wb.sheets.find((x) => x.name === name);
+    if (!s) wb.sheets.push((s = { name, cells: new Map() }));
+    return s;
+  };
+  const put = (c: CellModel) => sheetModel(c.sheet).cells.set(cellKey(c.row, c.col), c);
+  put({ sheet, address, row: target.row, col: target.col, value: null, formula });
+  let refs: RefLike[] = [];
+  try {
+    refs = new DepParser().parse(formula, { sheet, row: target.row, col: target.col });
+  } catch {
+    refs = [];
+  }
+  const labels = new Map<string, string[]>();
+  const formats = new Map<string, string | undefined>();
+  for (const ref of refs) {
+    const from = ref.from ?? { row: ref.row!, col: ref.col! };
+    const to = ref.to ?? from;
+    if (to.row - from.row > 5000 || to.col - from.col > 100) continue;
+    const rangeText = `${addressOf(from.row, from.col)}:${addressOf(to.row, to.col)}`;
+    const cells = await port.range(ref.sheet, rangeText);
+    cells.forEach((row, i) =>
+      row.forEach((c, j) => {
+        const r = from.row + i;
+        const col = from.col + j;
+        if (ref.sheet === sheet && r === target.row && col === target.col) return;
+        // Precedents keep the host's values: their own formulas were already calculated there.
+        put({ sheet: ref.sheet, address: addressOf(r, col), row: r, col, value: c.value, numFmt: c.numberFormat });
+      }),
+    );
+    if (!ref.from) {
+      const a = addressOf(from.row, from.col);
+      labels.set(`${ref.sheet}!${a}`, await port.labelsNear(ref.sheet, a));
+      formats.set(`${ref.sheet}!${a}`, cells[0]?.[0]?.numberFormat);
+    }
+  }
+  return { wb, labels, formats };
+}
+
+function labelSourceFrom(labels: Map<string, string[]>, formats: Map<string, string | undefined>): LabelSource {
+  return {
+    labelsNear: (sheet, row, col) => labels.get(`${sheet}!${addressOf(row, col)}`) ?? [],
+    numberFormat: (sheet, row, col) => formats.get(`${sheet}!${addressOf(row, col)}`),
+  };
+}
+
+/** Pairs recorded calls with their places in the formula (both in evaluation order). */
+function pairCalls(records: CallRecord[], sites: CallSite[]): (CallSite | undefined)[] {
+  const nappe = sites.filter((s) => s.name.startsWith("NAPPE."));
+  const used = new Set<CallSite>();
+  return records.map((rec) => {
+    const site = nappe.find((s) => !used.has(s) && s.name === `NAPPE.${rec.id}`);
+    if (site) used.add(site);
+    return site;
+  });
+}
+
+function explainCall(rec: CallRecord, site: CallSite | undefined, formula: string, sheet: string, labels: LabelSource): CallExplanation {
+  const spec = CATALOG_BY_ID.get(rec.id)!;
+  const ev = rec.evaluation;
+  const args = spec.params.flatMap((p, i) => {
+    const written = site?.args[i]?.text ?? "";
+    const r = ev?.readings.find((x) => x.name === p.name);
+    if (!r) return written ? [{ name: p.name, written, value: "", unit: "", why: "", base: "" }] : [];
+    const dim = p.kind === "quantity" ? p.dim : p.kind === "anyQuantity" && ev ? resultDimension(spec, Object.fromEntries(ev.readings.map((x) => [x.name, x.value])) as never) : undefined;
+    return [describeArg(r, written, dim ? DIMENSIONS[dim].base || (dim === "efficiency" ? "(fraction)" : "") : "")];
+  });
+  const unitWarnings: UnitWarning[] = [];
+  if (ev) {
+    for (const f of checkCallUnits(spec, ev, rec.refs, sheet, labels)) {
+      const i = spec.params.findIndex((p) => p.name === f.arg);
+      const arg = site?.args[i];
+      const joined = arg && f.unit ? `${/^[A-Za-z0-9_$!'. ]+$/.test(arg.text) ? arg.text : `(${arg.text})`}&" ${f.unit}"` : undefined;
+      unitWarnings.push({ message: f.message, fixedFormula: arg && joined ? replaceArgument(formula, arg, joined) : undefined, fixLabel: joined });
+    }
+  }
+  const requested = ev && ev.unit && typeof ev.value === "number" ? `${formatNumber(ev.value)} ${ev.unit}` : ev ? formatValue(ev.value) : undefined;
+  return {
+    id: rec.id,
+    text: site ? formula.slice(site.start, site.end) : `NAPPE.${rec.id}(…)`,
+    purpose: spec.purpose,
+    equation: spec.equation,
+    args,
+    resultRequested: requested,
+    resultBase: ev && typeof ev.value === "number" ? baseResult(rec) : undefined,
+    assumptions: spec.assumptions,
+    checks: spec.validity,
+    warnings: ev?.warnings ?? [],
+    unitWarnings,
+    cautions: spec.cautions,
+    sources: spec.sources,
+    error: rec.error?.message,
+  };
+}
+
+/** The result in the result dimension's base unit (undoing any `unit` argument). */
+function baseResult(rec: CallRecord): string {
+  const ev = rec.evaluation!;
+  const base = DIMENSIONS[ev.dim].base;
+  if (ev.unit === base || !ev.unit) return `${formatNumber(ev.value as number)}${base ? ` ${base}` : ""}`;
+  const spec = CATALOG_BY_ID.get(rec.id)!;
+  const args: Record<string, unknown> = {};
+  for (const r of ev.readings) args[r.name] = r.value;
+  const value = spec.compute(args as never).value;
+  return typeof value === "number" ? `${formatNumber(value)} ${base}` : "";
+}
+
+/** Explains the cell at sheet!address. */
+export async function explainCell(port: HostPort, sheet: string, address: string): Promise<CellExplanation> {
+  const cell = await port.cell(sheet, address);
+  const base = { sheet, address, value: formatValue(cell.value), calls: [] as CallExplanation[] };
+  if (!cell.formula) {
+    if (cell.value === null || cell.value === "") return { ...base, message: "Empty cell. Select a cell with a NAPPE formula to see its equation, inputs and units." };
+    return { ...base, message: "A constant, not a formula. If a NAPPE formula reads it as a bare number, that number is taken in the base unit of the argument: select that formula to check." };
+  }
+  const formula = cell.formula;
+  if (!/\bNAPPE\./i.test(formula)) {
+    return { ...base, formula, message: "This formula calls no NAPPE function. Use the function guide to insert one." };
+  }
+  let sites: CallSite[] = [];
+  try {
+    sites = evaluationOrder(callSites(formula));
+  } catch {
+    return { ...base, formula, error: "The formula could not be read: check brackets, commas and quotes." };
+  }
+  const snap = await snapshot(port, sheet, address, formula);
+  const engine = new Recalculation(snap.wb);
+  const { row, col } = parseAddress(address);
+  const computed = engine.compute(snap.wb.sheets.find((s) => s.name === sheet)!.cells.get(cellKey(row, col))!);
+  const labels = labelSourceFrom(snap.labels, snap.formats);
+  const pairs = pairCalls(computed.calls, sites);
+  const calls = computed.calls.map((rec, i) => explainCall(rec, pairs[i], formula, sheet, labels));
+  // Outermost first reads best: reverse evaluation order.
+  calls.reverse();
+  return { ...base, formula, value: formatValue(computed.value as CellValue), error: computed.error ? computed.message ?? computed.error : undefined, calls };
+}
