@@ -47,9 +47,14 @@ export default async (env, argv) => {
     entry: {
       functions: "./functions/functions.ts",
       taskpane: "./taskpane/taskpane.ts",
+      preview: "./taskpane/preview.ts",
     },
     output: { path: path.join(root, "dist"), filename: "[name].js", clean: true },
-    resolve: { extensions: [".ts", ".js"] },
+    resolve: {
+      extensions: [".ts", ".js"],
+      // The pane's workbook model is pure; Node-only modules of the headless command stay out.
+      fallback: { fs: false, "node:fs/promises": false, path: false },
+    },
     module: {
       rules: [{ test: /\.ts$/, exclude: /node_modules/, use: { loader: "ts-loader", options: { transpileOnly: true } } }],
     },
@@ -58,9 +63,11 @@ export default async (env, argv) => {
       new CustomFunctionsMetadataPlugin({ output: "functions.json", input: "./functions/functions.ts" }),
       new HtmlWebpackPlugin({ filename: "functions.html", template: "./functions/functions.html", chunks: ["functions"] }),
       new HtmlWebpackPlugin({ filename: "taskpane.html", template: "./taskpane/taskpane.html", chunks: ["taskpane"] }),
+      new HtmlWebpackPlugin({ filename: "preview.html", template: "./taskpane/preview.html", chunks: ["preview"] }),
       new CopyWebpackPlugin({
         patterns: [
           { from: "manifest/assets", to: "assets" },
+          { from: "taskpane/pane.css", to: "pane.css" },
           { from: "manifest/manifest.xml", to: "manifest.xml", transform: manifestFor },
         ],
       }),

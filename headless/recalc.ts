@@ -267,6 +267,37 @@ function relativeDifference(value: number, cached: number): number {
   return Math.abs(value - cached) / Math.max(Math.abs(cached), 1e-300);
 }
 
+/** A formula cell's report: status, messages and the comparison with the cached value. */
+export function outcomeFor(cell: CellModel, computed: Computed, tolerance = 1e-6): CellOutcome {
+  const messages: string[] = [];
+  let status: Status = "ok";
+  for (const call of computed.calls) {
+    if (call.error) messages.push(`NAPPE.${call.id}: ${call.error.message}`);
+    for (const w of call.evaluation?.warnings ?? []) messages.push(`NAPPE.${call.id}: ${w}`);
+    if (call.evaluation?.warnings.length) status = "warning";
+  }
+  if (computed.error) {
+    status = "error";
+    if (computed.message && !messages.some((m) => m.endsWith(computed.message!))) messages.unshift(computed.message);
+    if (!messages.length) messages.push(`the formula returns ${computed.error}`);
+  }
+  const top = computed.calls[computed.calls.length - 1];
+  const unit = isSingleNappeCall(cell.formula!) && top?.evaluation ? top.evaluation.unit : "";
+  const shown = Array.isArray(computed.value) ? computed.value[0]?.[0] ?? null : computed.value;
+  let difference: number | null = null;
+  if (typeof shown === "number" && typeof cell.value === "number") {
+    difference = relativeDifference(shown, cell.value);
+    if (difference > tolerance) {
+      status = "error";
+      messages.push(`differs from the value cached in the file (${cell.value}) by ${(difference * 100).toPrecision(3)} %`);
+    }
+  } else if (cell.value !== null && shown !== cell.value && !computed.error) {
+    status = "error";
+    messages.push(`differs from the value cached in the file (${String(cell.value)})`);
+  }
+  return { sheet: cell.sheet, address: cell.address, formula: `=${cell.formula}`, value: computed.value, unit, cached: cell.value, difference, status, messages, calls: computed.calls };
+}
+
 export interface RecalcResult {
   /** The NAPPE formula cells (or every formula cell, with options.all), in sheet order. */
   cells: CellOutcome[];
@@ -285,37 +316,7 @@ export function recalculate(wb: WorkbookModel, options: RecalcOptions = {}): Rec
     engine.compute(cell);
     options.onProgress?.(i + 1, formulaCells.length);
   });
-  const outcomes: CellOutcome[] = [];
-  reported.forEach((cell) => {
-    const computed = engine.compute(cell);
-    const messages: string[] = [];
-    let status: Status = "ok";
-    for (const call of computed.calls) {
-      if (call.error) messages.push(`NAPPE.${call.id}: ${call.error.message}`);
-      for (const w of call.evaluation?.warnings ?? []) messages.push(`NAPPE.${call.id}: ${w}`);
-      if (call.evaluation?.warnings.length) status = "warning";
-    }
-    if (computed.error) {
-      status = "error";
-      if (computed.message && !messages.some((m) => m.endsWith(computed.message!))) messages.unshift(computed.message);
-      if (!messages.length) messages.push(`the formula returns ${computed.error}`);
-    }
-    const top = computed.calls[computed.calls.length - 1];
-    const unit = isSingleNappeCall(cell.formula!) && top?.evaluation ? top.evaluation.unit : "";
-    const shown = Array.isArray(computed.value) ? computed.value[0]?.[0] ?? null : computed.value;
-    let difference: number | null = null;
-    if (typeof shown === "number" && typeof cell.value === "number") {
-      difference = relativeDifference(shown, cell.value);
-      if (difference > tolerance) {
-        status = "error";
-        messages.push(`differs from the value cached in the file (${cell.value}) by ${(difference * 100).toPrecision(3)} %`);
-      }
-    } else if (cell.value !== null && shown !== cell.value && !computed.error) {
-      status = "error";
-      messages.push(`differs from the value cached in the file (${String(cell.value)})`);
-    }
-    outcomes.push({ sheet: cell.sheet, address: cell.address, formula: `=${cell.formula}`, value: computed.value, unit, cached: cell.value, difference, status, messages, calls: computed.calls });
-  });
+  const outcomes = reported.map((cell) => outcomeFor(cell, engine.compute(cell), tolerance));
   return {
     cells: outcomes,
     valueOf: (sheet, address) => {

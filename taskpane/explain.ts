@@ -15,7 +15,7 @@ import { DIMENSIONS } from "../functions/units/dimensions";
 import { formatNumber, formatValue } from "../headless/audit";
 import { callSites, evaluationOrder, replaceArgument, type CallSite } from "../headless/formula";
 import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../headless/model";
-import { type CallRecord, Recalculation } from "../headless/recalc";
+import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../headless/recalc";
 import { checkCallUnits, type LabelSource } from "../headless/unitCheck";
 import type { HostPort } from "./host/port";
 
@@ -97,6 +97,12 @@ function howWhy(r: ArgReading): { unit: string; why: string } {
   }
 }
 
+/** "81.56041424282913 m^3/h" → "81.5604 m^3/h" (the number as people read it, the unit as written). */
+function shortenQuantity(text: string): string {
+  const m = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)(\s*.*)$/.exec(text);
+  return m ? `${formatNumber(Number(m[1]))}${m[2]}` : text;
+}
+
 function describeArg(r: ArgReading, written: string, baseUnit: string): ArgExplanation {
   const { unit, why } = howWhy(r);
   if (r.how === "table") {
@@ -104,7 +110,7 @@ function describeArg(r: ArgReading, written: string, baseUnit: string): ArgExpla
     const cols = t.columns.map((c) => `${c.header ?? c.role} → ${c.role} in ${c.unit || DIMENSIONS[c.dim].baseLabel}`).join("; ");
     return { name: r.name, written, value: `${t.rows} rows`, unit: "", why, base: cols };
   }
-  const raw = r.raw === null || r.raw === undefined ? undefined : Array.isArray(r.raw) ? "(range)" : typeof r.raw === "number" ? formatNumber(r.raw) : String(r.raw);
+  const raw = r.raw === null || r.raw === undefined ? undefined : Array.isArray(r.raw) ? "(range)" : typeof r.raw === "number" ? formatNumber(r.raw) : shortenQuantity(String(r.raw));
   if (typeof r.value !== "number") return { name: r.name, written, value: raw ?? String(r.value), unit, why, base: String(r.value) };
   return { name: r.name, written, value: raw ?? formatNumber(r.value), unit, why, base: `${formatNumber(r.value)}${baseUnit ? ` ${baseUnit}` : ""}` };
 }
@@ -220,32 +226,50 @@ function baseResult(rec: CallRecord): string {
   return typeof value === "number" ? `${formatNumber(value)} ${base}` : "";
 }
 
+/** A cell's explanation, and its outcome in the audit model (status, messages, calls). */
+export interface CellAnalysis {
+  explanation: CellExplanation;
+  outcome?: CellOutcome;
+  /** Labels and formats of the referenced cells, for the audit's unit check. */
+  labels: LabelSource;
+}
+
+const NO_LABELS: LabelSource = { labelsNear: () => [], numberFormat: () => undefined };
+
 /** Explains the cell at sheet!address. */
 export async function explainCell(port: HostPort, sheet: string, address: string): Promise<CellExplanation> {
+  return (await analyseCell(port, sheet, address)).explanation;
+}
+
+/** Evaluates the cell's formula over a snapshot of its precedents and explains every NAPPE call. */
+export async function analyseCell(port: HostPort, sheet: string, address: string): Promise<CellAnalysis> {
   const cell = await port.cell(sheet, address);
   const base = { sheet, address, value: formatValue(cell.value), calls: [] as CallExplanation[] };
   if (!cell.formula) {
-    if (cell.value === null || cell.value === "") return { ...base, message: "Empty cell. Select a cell with a NAPPE formula to see its equation, inputs and units." };
-    return { ...base, message: "A constant, not a formula. If a NAPPE formula reads it as a bare number, that number is taken in the base unit of the argument: select that formula to check." };
+    if (cell.value === null || cell.value === "") return { labels: NO_LABELS, explanation: { ...base, message: "Empty cell. Select a cell with a NAPPE formula to see its equation, inputs and units." } };
+    return { labels: NO_LABELS, explanation: { ...base, message: "A constant, not a formula. If a NAPPE formula reads it as a bare number, that number is taken in the base unit of the argument: select that formula to check." } };
   }
   const formula = cell.formula;
   if (!/\bNAPPE\./i.test(formula)) {
-    return { ...base, formula, message: "This formula calls no NAPPE function. Use the function guide to insert one." };
+    return { labels: NO_LABELS, explanation: { ...base, formula, message: "This formula calls no NAPPE function. Use the function guide to insert one." } };
   }
   let sites: CallSite[] = [];
   try {
     sites = evaluationOrder(callSites(formula));
   } catch {
-    return { ...base, formula, error: "The formula could not be read: check brackets, commas and quotes." };
+    sites = [];
   }
   const snap = await snapshot(port, sheet, address, formula);
   const engine = new Recalculation(snap.wb);
   const { row, col } = parseAddress(address);
-  const computed = engine.compute(snap.wb.sheets.find((s) => s.name === sheet)!.cells.get(cellKey(row, col))!);
+  const model = snap.wb.sheets.find((s) => s.name === sheet)!.cells.get(cellKey(row, col))!;
+  const computed = engine.compute(model);
   const labels = labelSourceFrom(snap.labels, snap.formats);
   const pairs = pairCalls(computed.calls, sites);
   const calls = computed.calls.map((rec, i) => explainCall(rec, pairs[i], formula, sheet, labels));
   // Outermost first reads best: reverse evaluation order.
   calls.reverse();
-  return { ...base, formula, value: formatValue(computed.value as CellValue), error: computed.error ? computed.message ?? computed.error : undefined, calls };
+  const outcome = outcomeFor({ ...model, value: cell.value }, computed);
+  const error = computed.error ? computed.message ?? computed.error : undefined;
+  return { labels, outcome, explanation: { ...base, formula, value: formatValue(computed.value as CellValue), error, calls } };
 }

@@ -1,0 +1,141 @@
+/**
+ * The Office.js adapter of the HostPort: reads and writes the workbook through Excel's
+ * JavaScript API. Kept thin; everything it returns is plain data for the pure pane logic.
+ */
+import { addressOf, parseAddress } from "../../headless/address";
+import type { CellValue } from "../../headless/model";
+import type { CellAddress, CellSnapshot, FormulaCell, HostPort } from "./port";
+
+function plain(v: unknown): CellValue {
+  if (v === null || v === undefined || v === "") return v === "" ? "" : null;
+  if (typeof v === "number" || typeof v === "string" || typeof v === "boolean") return v;
+  return String(v);
+}
+
+function snapshot(formula: unknown, value: unknown, format: unknown): CellSnapshot {
+  const f = typeof formula === "string" && formula.startsWith("=") ? formula.slice(1) : undefined;
+  const nf = typeof format === "string" && format !== "General" ? format : undefined;
+  return { formula: f, value: plain(value), numberFormat: nf };
+}
+
+/** Strips "Sheet1!" from an address Excel returns. */
+function localAddress(address: string): string {
+  return address.includes("!") ? address.slice(address.lastIndexOf("!") + 1) : address;
+}
+
+export class OfficeHost implements HostPort {
+  async selection(): Promise<CellAddress> {
+    return Excel.run(async (context) => {
+      const cell = context.workbook.getActiveCell();
+      cell.load("address");
+      const sheet = cell.worksheet;
+      sheet.load("name");
+      await context.sync();
+      return { sheet: sheet.name, address: localAddress(cell.address).split(":")[0] };
+    });
+  }
+
+  onSelectionChanged(handler: () => void): void {
+    void Excel.run(async (context) => {
+      context.workbook.onSelectionChanged.add(async () => handler());
+      await context.sync();
+    });
+  }
+
+  async cell(sheet: string, address: string): Promise<CellSnapshot> {
+    return (await this.range(sheet, address))[0][0];
+  }
+
+  async range(sheet: string, range: string): Promise<CellSnapshot[][]> {
+    return Excel.run(async (context) => {
+      const r = context.workbook.worksheets.getItem(sheet).getRange(range);
+      r.load("formulas, values, numberFormat");
+      await context.sync();
+      return r.values.map((row, i) => row.map((v, j) => snapshot(r.formulas[i][j], v, r.numberFormat[i][j])));
+    });
+  }
+
+  async labelsNear(sheet: string, address: string): Promise<string[]> {
+    const { row, col } = parseAddress(address);
+    const found: string[] = [];
+    if (col > 1) {
+      const left = await this.range(sheet, `${addressOf(row, Math.max(1, col - 3))}:${addressOf(row, col - 1)}`);
+      const text = left[0].map((c) => c.value).reverse().find((v) => typeof v === "string" && v.trim());
+      if (typeof text === "string") found.push(text);
+    }
+    if (row > 1) {
+      const above = (await this.cell(sheet, addressOf(row - 1, col))).value;
+      if (typeof above === "string" && above.trim()) found.push(above);
+    }
+    return found;
+  }
+
+  async setFormula(sheet: string, address: string, formula: string): Promise<void> {
+    await Excel.run(async (context) => {
+      context.workbook.worksheets.getItem(sheet).getRange(address).formulas = [[`=${formula.replace(/^=/, "")}`]];
+      await context.sync();
+    });
+  }
+
+  async nappeFormulaCells(onProgress?: (done: number, total: number) => void): Promise<FormulaCell[]> {
+    return Excel.run(async (context) => {
+      const sheets = context.workbook.worksheets;
+      sheets.load("items/name");
+      await context.sync();
+      const out: FormulaCell[] = [];
+      for (let s = 0; s < sheets.items.length; s++) {
+        const used = sheets.items[s].getUsedRangeOrNullObject(true);
+        used.load("formulas, values, rowIndex, columnIndex");
+        await context.sync();
+        if (!used.isNullObject) {
+          used.formulas.forEach((row, i) =>
+            row.forEach((f, j) => {
+              if (typeof f === "string" && /\bNAPPE\./i.test(f)) {
+                out.push({ sheet: sheets.items[s].name, address: addressOf(used.rowIndex + i + 1, used.columnIndex + j + 1), formula: f.replace(/^=/, ""), value: plain(used.values[i][j]) });
+              }
+            }),
+          );
+        }
+        onProgress?.(s + 1, sheets.items.length);
+      }
+      return out;
+    });
+  }
+
+  async select(sheet: string, address: string): Promise<void> {
+    await Excel.run(async (context) => {
+      const ws = context.workbook.worksheets.getItem(sheet);
+      ws.activate();
+      ws.getRange(address).select();
+      await context.sync();
+    });
+  }
+
+  async writeSheet(name: string, rows: string[][], options: { headerRow?: number; widths?: number[] } = {}): Promise<void> {
+    await Excel.run(async (context) => {
+      const existing = context.workbook.worksheets.getItemOrNullObject(name);
+      await context.sync();
+      if (!existing.isNullObject) existing.delete();
+      const ws = context.workbook.worksheets.add(name);
+      const width = Math.max(...rows.map((r) => r.length));
+      const values = rows.map((r) => [...r, ...Array(width - r.length).fill("")]);
+      const range = ws.getRangeByIndexes(0, 0, values.length, width);
+      range.numberFormat = values.map((r) => r.map(() => "@"));
+      range.values = values;
+      range.format.wrapText = true;
+      range.format.verticalAlignment = "Top";
+      if (options.headerRow !== undefined) {
+        const header = ws.getRangeByIndexes(options.headerRow, 0, 1, width);
+        header.format.font.bold = true;
+        header.format.fill.color = "#0E5463";
+        header.format.font.color = "#FFFFFF";
+        ws.freezePanes.freezeRows(options.headerRow + 1);
+      }
+      options.widths?.forEach((w, i) => (ws.getRangeByIndexes(0, i, 1, 1).format.columnWidth = w * 6));
+      ws.pageLayout.orientation = Excel.PageOrientation.landscape;
+      ws.pageLayout.zoom = { horizontalFitToPages: 1, verticalFitToPages: 0 };
+      ws.activate();
+      await context.sync();
+    });
+  }
+}

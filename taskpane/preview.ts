@@ -1,0 +1,108 @@
+/**
+ * The preview page: the pane beside a read-only grid of a workbook served by `npm run preview`,
+ * over the in-memory adapter, so anyone can try the pane without Excel. Clicking a cell selects
+ * it. Loads nothing but this page's own files and /workbook.json.
+ */
+import { addressOf, type CellModel, cellKey, parseAddress, type WorkbookModel } from "../headless/model";
+import { formatValue } from "../headless/audit";
+import { MemoryHost } from "./host/memory";
+import { el, mountPane } from "./ui";
+import { workbookTab } from "./workbookTab";
+
+interface WorkbookJson {
+  name: string;
+  sheets: { name: string; cells: CellModel[] }[];
+}
+
+function toModel(json: WorkbookJson): WorkbookModel {
+  return { sheets: json.sheets.map((s) => ({ name: s.name, cells: new Map(s.cells.map((c) => [cellKey(c.row, c.col), c])) })) };
+}
+
+function drawGrid(host: MemoryHost, target: HTMLElement, tabs: HTMLElement, formulaBar: HTMLElement, state: { sheet: string }): void {
+  const wb = host.workbook;
+  tabs.replaceChildren(
+    ...wb.sheets.map((s) => {
+      const b = el("button", "sheet-tab", s.name);
+      b.setAttribute("aria-selected", String(s.name === state.sheet));
+      b.addEventListener("click", () => {
+        state.sheet = s.name;
+        drawGrid(host, target, tabs, formulaBar, state);
+      });
+      return b;
+    }),
+  );
+  const sheet = wb.sheets.find((s) => s.name === state.sheet) ?? wb.sheets[0];
+  let maxRow = 1;
+  let maxCol = 1;
+  for (const c of sheet.cells.values()) {
+    maxRow = Math.max(maxRow, c.row);
+    maxCol = Math.max(maxCol, c.col);
+  }
+  const table = el("table", "grid");
+  table.setAttribute("aria-label", `Sheet ${sheet.name}`);
+  const head = el("tr", "", el("th", "corner", ""));
+  for (let c = 1; c <= maxCol; c++) head.append(el("th", "col", addressOf(1, c).replace(/\d+$/, "")));
+  table.append(head);
+  void host.selection().then((sel) => {
+    for (let r = 1; r <= maxRow; r++) {
+      const tr = el("tr", "", el("th", "row", String(r)));
+      for (let c = 1; c <= maxCol; c++) {
+        const cell = sheet.cells.get(cellKey(r, c));
+        const address = addressOf(r, c);
+        const td = el("td", cell?.formula ? (/\bNAPPE\./i.test(cell.formula) ? "nappe" : "formula") : typeof cell?.value === "number" ? "number" : "", cell ? formatValue(cell.value) : "");
+        td.tabIndex = 0;
+        td.dataset.address = address;
+        if (sel.sheet === sheet.name && sel.address === address) td.classList.add("selected");
+        const choose = () => host.setSelection(sheet.name, address);
+        td.addEventListener("click", choose);
+        td.addEventListener("keydown", (e) => {
+          if (e.key === "Enter" || e.key === " ") {
+            e.preventDefault();
+            choose();
+          }
+        });
+        tr.append(td);
+      }
+      table.append(tr);
+    }
+    target.replaceChildren(table);
+    showSelection(host, target, formulaBar);
+  });
+}
+
+/** Marks the selected cell in the grid and shows its formula or value in the formula bar. */
+function showSelection(host: MemoryHost, target: HTMLElement, formulaBar: HTMLElement): void {
+  void host.selection().then((sel) => {
+    target.querySelectorAll("td.selected").forEach((x) => x.classList.remove("selected"));
+    const td = target.querySelector<HTMLElement>(`td[data-address="${sel.address}"]`);
+    td?.classList.add("selected");
+    td?.focus({ preventScroll: false });
+    const { row, col } = parseAddress(sel.address);
+    const cell = host.workbook.sheets.find((s) => s.name === sel.sheet)?.cells.get(cellKey(row, col));
+    formulaBar.textContent = cell?.formula ? `${sel.sheet}!${sel.address}  =${cell.formula}` : `${sel.sheet}!${sel.address}  ${cell ? formatValue(cell.value) : ""}`;
+  });
+}
+
+async function start(): Promise<void> {
+  const response = await fetch("workbook.json");
+  const json = (await response.json()) as WorkbookJson;
+  const host = new MemoryHost(toModel(json));
+  const state = { sheet: host.workbook.sheets[0]?.name ?? "" };
+  const gridRoot = document.getElementById("grid")!;
+  const tabs = document.getElementById("sheet-tabs")!;
+  const bar = document.getElementById("formula-bar")!;
+  document.getElementById("book-name")!.textContent = json.name;
+  host.onSelectionChanged(() => {
+    void host.selection().then((sel) => {
+      if (sel.sheet !== state.sheet) {
+        state.sheet = sel.sheet;
+        drawGrid(host, gridRoot, tabs, bar, state);
+      } else showSelection(host, gridRoot, bar);
+    });
+  });
+  host.onChanged(() => drawGrid(host, gridRoot, tabs, bar, state));
+  drawGrid(host, gridRoot, tabs, bar, state);
+  mountPane(document.getElementById("app")!, host, [workbookTab]);
+}
+
+void start();

@@ -1,0 +1,198 @@
+/**
+ * The pane's user interface for any HostPort: the selected cell explained, the function guide,
+ * and the cautions, always in view. Built with DOM calls only (textContent, never HTML strings),
+ * so workbook text can never become markup. Equations are rendered by KaTeX as MathML.
+ */
+import katex from "katex";
+import { CATALOG } from "../functions/catalog";
+import type { FunctionSpec } from "../functions/catalog/types";
+import { type CallExplanation, type CellExplanation, explainCell } from "./explain";
+import { describeArguments, exampleFormula, searchCatalog, signature } from "./guide";
+import type { HostPort } from "./host/port";
+
+export const CAUTION_TEXT =
+  "A design aid for preliminary sizing. Confirm with the pump maker's certified curves, local codes and a licensed engineer. Pressurised systems, surge, cavitation and public water features can hurt people.";
+
+type Child = Node | string;
+
+/** Creates an element with optional class and children (strings become text nodes). */
+export function el<K extends keyof HTMLElementTagNameMap>(tag: K, className?: string, ...children: Child[]): HTMLElementTagNameMap[K] {
+  const node = document.createElement(tag);
+  if (className) node.className = className;
+  for (const c of children) node.append(typeof c === "string" ? document.createTextNode(c) : c);
+  return node;
+}
+
+function equation(tex: string): HTMLElement {
+  const box = el("div", "equation");
+  try {
+    katex.render(tex, box, { output: "mathml", displayMode: true, throwOnError: false });
+  } catch {
+    box.textContent = tex;
+  }
+  return box;
+}
+
+function list(title: string, items: readonly string[], className = ""): HTMLElement | string {
+  if (!items.length) return "";
+  const ul = el("ul", className);
+  for (const i of items) ul.append(el("li", "", i));
+  return el("div", "block", el("h4", "", title), ul);
+}
+
+function collapsible(title: string, items: readonly string[]): HTMLElement | string {
+  if (!items.length) return "";
+  const details = el("details", "more", el("summary", "", title));
+  const ul = el("ul");
+  for (const i of items) ul.append(el("li", "", i));
+  details.append(ul);
+  return details;
+}
+
+export interface PaneContext {
+  port: HostPort;
+  /** Shows a short status line. */
+  say(text: string): void;
+}
+
+function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext, refresh: () => void): HTMLElement {
+  const card = el("section", "call");
+  card.append(el("h3", "", `NAPPE.${call.id}`), el("p", "purpose", call.purpose), el("code", "formula", call.text), equation(call.equation));
+  const table = el("table", "args");
+  table.append(el("tr", "", el("th", "", "argument, as written"), el("th", "", "read as: unit and why"), el("th", "", "base value")));
+  for (const a of call.args) {
+    table.append(
+      el(
+        "tr",
+        "",
+        el("td", "", el("span", "name", a.name), el("br"), el("code", "written", a.written || "(left out)")),
+        el("td", "", el("span", "read", a.value), el("br"), el("span", "why", a.unit ? `${a.unit}: ${a.why}` : a.why)),
+        el("td", "base", a.base),
+      ),
+    );
+  }
+  card.append(el("div", "table-wrap", table));
+  if (call.error) card.append(el("p", "status error", call.error));
+  else card.append(el("p", "result", "Result: ", el("strong", "", call.resultRequested ?? ""), call.resultBase && call.resultBase !== call.resultRequested ? ` (${call.resultBase} in base units)` : ""));
+  for (const w of call.unitWarnings) {
+    const box = el("div", "status warning unit-warning", el("p", "", `Unit check: ${w.message}`));
+    if (w.fixedFormula) {
+      const button = el("button", "fix", `Use ${w.fixLabel}`);
+      button.addEventListener("click", async () => {
+        await ctx.port.setFormula(cell.sheet, cell.address, w.fixedFormula!);
+        ctx.say(`Joined the unit in ${cell.sheet}!${cell.address}.`);
+        refresh();
+      });
+      box.append(button);
+    }
+    card.append(box);
+  }
+  card.append(list("Warnings", call.warnings, "warnings"));
+  card.append(el("div", `checks ${call.warnings.length || call.unitWarnings.length ? "warn" : "ok"}`, el("h4", "", call.warnings.length || call.unitWarnings.length ? "Checks: see the warnings" : "Checks: all passed"), ...call.checks.map((c) => el("p", "check", c))));
+  card.append(list("Assumptions", call.assumptions));
+  card.append(list("Cautions", call.cautions, "cautions"));
+  card.append(collapsible("Sources", call.sources));
+  return card;
+}
+
+function renderCell(target: HTMLElement, cell: CellExplanation, ctx: PaneContext, refresh: () => void): void {
+  target.replaceChildren();
+  target.append(el("h2", "cell-address", `${cell.sheet}!${cell.address}`));
+  if (cell.formula) target.append(el("code", "formula", `=${cell.formula}`));
+  if (cell.value !== "") target.append(el("p", "value", "Value: ", el("strong", "", cell.value)));
+  if (cell.message) target.append(el("p", "message", cell.message));
+  if (cell.error) target.append(el("p", "status error", cell.error));
+  for (const call of cell.calls) target.append(callCard(call, cell, ctx, refresh));
+}
+
+function guideDetail(spec: FunctionSpec, target: HTMLElement, ctx: PaneContext): void {
+  target.replaceChildren();
+  target.append(el("h3", "", signature(spec)), el("p", "purpose", spec.purpose), equation(spec.equation));
+  const table = el("table", "args");
+  table.append(el("tr", "", el("th", "", "argument"), el("th", "", "reads"), el("th", "", "meaning")));
+  for (const a of describeArguments(spec)) table.append(el("tr", "", el("td", "name", a.name), el("td", "", a.reads), el("td", "", a.meaning)));
+  target.append(el("div", "table-wrap", table), el("p", "", "Result: ", spec.result.description));
+  const example = exampleFormula(spec);
+  if (example) {
+    const button = el("button", "insert", "Insert into the selected cell");
+    button.addEventListener("click", async () => {
+      const sel = await ctx.port.selection();
+      await ctx.port.setFormula(sel.sheet, sel.address, example.replace(/^=/, ""));
+      ctx.say(`Inserted ${example} into ${sel.sheet}!${sel.address}.`);
+    });
+    target.append(el("h4", "", "Example"), el("code", "formula", example), button);
+  }
+  target.append(list("Assumptions", spec.assumptions), list("Cautions", spec.cautions, "cautions"), collapsible("Sources", spec.sources));
+}
+
+function guideView(ctx: PaneContext): HTMLElement {
+  const view = el("div", "guide");
+  const input = el("input", "search");
+  input.type = "search";
+  input.placeholder = "Search: head loss, npsh, gpm…";
+  input.setAttribute("aria-label", "Search the functions");
+  const results = el("ul", "results");
+  results.setAttribute("aria-label", "Functions");
+  const detail = el("div", "detail");
+  const render = () => {
+    results.replaceChildren();
+    for (const spec of searchCatalog(CATALOG, input.value)) {
+      const button = el("button", "fn", `NAPPE.${spec.id}`);
+      button.addEventListener("click", () => guideDetail(spec, detail, ctx));
+      results.append(el("li", "", button, el("span", "purpose", spec.purpose)));
+    }
+  };
+  input.addEventListener("input", render);
+  render();
+  view.append(input, results, detail);
+  return view;
+}
+
+/** Builds the pane inside `root` and keeps it in step with the selection. */
+export function mountPane(root: HTMLElement, port: HostPort, extraTabs: { name: string; build: (ctx: PaneContext) => HTMLElement }[] = []): PaneContext {
+  const status = el("p", "status-line");
+  status.setAttribute("role", "status");
+  const ctx: PaneContext = { port, say: (t) => (status.textContent = t) };
+  const cellView = el("div", "cell-view");
+  const tabs = [{ name: "This cell", build: () => cellView }, { name: "Function guide", build: () => guideView(ctx) }, ...extraTabs.map((t) => ({ name: t.name, build: () => t.build(ctx) }))];
+  const bar = el("nav", "tabs");
+  bar.setAttribute("role", "tablist");
+  const body = el("main", "pane-body");
+  const panels = tabs.map((t) => {
+    const panel = el("div", "panel");
+    panel.setAttribute("role", "tabpanel");
+    panel.append(t.build());
+    return panel;
+  });
+  const buttons = tabs.map((t, i) => {
+    const b = el("button", "tab", t.name);
+    b.setAttribute("role", "tab");
+    b.addEventListener("click", () => show(i));
+    return b;
+  });
+  const show = (i: number) => {
+    panels.forEach((p, j) => (p.hidden = j !== i));
+    buttons.forEach((b, j) => b.setAttribute("aria-selected", String(j === i)));
+  };
+  bar.append(...buttons);
+  body.append(...panels);
+  show(0);
+  const caution = el("footer", "caution", CAUTION_TEXT);
+  caution.setAttribute("role", "note");
+  root.replaceChildren(el("header", "pane-header", el("h1", "", "Nappe"), status), bar, body, caution);
+
+  let generation = 0;
+  const refresh = async () => {
+    const mine = ++generation;
+    try {
+      const sel = await port.selection();
+      const explanation = await explainCell(port, sel.sheet, sel.address);
+      if (mine === generation) renderCell(cellView, explanation, ctx, () => void refresh());
+    } catch (e) {
+      if (mine === generation) cellView.replaceChildren(el("p", "status error", `Could not read the cell: ${e instanceof Error ? e.message : String(e)}`));
+    }
+  };
+  port.onSelectionChanged(() => void refresh());
+  void refresh();
+  return ctx;
+}

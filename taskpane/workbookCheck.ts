@@ -1,0 +1,88 @@
+/**
+ * The whole-workbook check (pure): every NAPPE formula analysed through the HostPort, with
+ * status and counts, yielding to the page between cells so long scans stay responsive; and the
+ * audit sheet built from the same audit model as the headless report.
+ */
+import { type AuditReport, auditRows, buildAudit, GENERAL_CAUTIONS } from "../headless/audit";
+import type { CellOutcome, Status } from "../headless/recalc";
+import type { LabelSource } from "../headless/unitCheck";
+import { analyseCell } from "./explain";
+import type { HostPort } from "./host/port";
+
+export interface CheckRow {
+  sheet: string;
+  address: string;
+  formula: string;
+  status: Status;
+  /** First message, for the list. */
+  note: string;
+}
+
+export interface WorkbookCheck {
+  rows: CheckRow[];
+  counts: Record<Status, number>;
+  outcomes: CellOutcome[];
+  labels: LabelSource;
+}
+
+/** Name of the sheet the audit is written to; it is replaced, never any other sheet. */
+export const AUDIT_SHEET = "Nappe audit";
+
+function mergeLabels(sources: LabelSource[]): LabelSource {
+  return {
+    labelsNear: (s, r, c) => sources.flatMap((x) => x.labelsNear(s, r, c)).filter((v, i, a) => a.indexOf(v) === i),
+    numberFormat: (s, r, c) => sources.map((x) => x.numberFormat(s, r, c)).find(Boolean),
+  };
+}
+
+export async function checkWorkbook(port: HostPort, onProgress?: (done: number, total: number) => void, yieldEvery = 25): Promise<WorkbookCheck> {
+  const cells = await port.nappeFormulaCells();
+  const rows: CheckRow[] = [];
+  const outcomes: CellOutcome[] = [];
+  const labels: LabelSource[] = [];
+  const counts: Record<Status, number> = { ok: 0, warning: 0, error: 0 };
+  for (let i = 0; i < cells.length; i++) {
+    const c = cells[i];
+    const analysis = await analyseCell(port, c.sheet, c.address);
+    const unitWarnings = analysis.explanation.calls.flatMap((x) => x.unitWarnings.map((w) => `Unit check: ${w.message}`));
+    let status: Status = analysis.outcome?.status ?? "error";
+    if (status === "ok" && unitWarnings.length) status = "warning";
+    const note = [...unitWarnings, ...(analysis.outcome?.messages ?? [analysis.explanation.error ?? ""])][0] ?? "";
+    rows.push({ sheet: c.sheet, address: c.address, formula: `=${c.formula}`, status, note });
+    counts[status]++;
+    if (analysis.outcome) outcomes.push(analysis.outcome);
+    labels.push(analysis.labels);
+    onProgress?.(i + 1, cells.length);
+    if ((i + 1) % yieldEvery === 0) await new Promise((r) => setTimeout(r, 0));
+  }
+  return { rows, counts, outcomes, labels: mergeLabels(labels) };
+}
+
+/** The audit report for the checked workbook (same model as `nappe audit`). */
+export function auditOf(check: WorkbookCheck, source: string): AuditReport {
+  return buildAudit(check.outcomes, { title: "Nappe audit", source }, check.labels);
+}
+
+/** Rows of the audit sheet: title, summary, cautions, a blank row, then the audit table. */
+export function auditSheetRows(report: AuditReport): { rows: string[][]; headerRow: number } {
+  const table = auditRows(report);
+  const rows = [
+    [report.title],
+    [`Workbook: ${report.source} · ${report.generated} · ${report.entries.length} NAPPE formulas: ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`],
+    [GENERAL_CAUTIONS.join(" ")],
+    [""],
+    ...table,
+  ];
+  return { rows, headerRow: 4 };
+}
+
+/** Column widths of the audit sheet, in characters. */
+export const AUDIT_WIDTHS = [12, 7, 40, 9, 18, 18, 32, 48, 40, 40, 36, 32];
+
+/** Writes (or replaces) the audit sheet through the port. */
+export async function writeAuditSheet(port: HostPort, check: WorkbookCheck, source: string): Promise<AuditReport> {
+  const report = auditOf(check, source);
+  const { rows, headerRow } = auditSheetRows(report);
+  await port.writeSheet(AUDIT_SHEET, rows, { headerRow, widths: AUDIT_WIDTHS });
+  return report;
+}

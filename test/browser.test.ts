@@ -1,0 +1,185 @@
+/**
+ * Browser tests of the preview page (the pane beside a read-only grid) in Debian's Chromium,
+ * driven by playwright-core. Screenshots go to test-output/. Without /usr/bin/chromium these
+ * tests are skipped with a loud notice, unless NAPPE_REQUIRE_BROWSER=1 (as .ci/run sets), when
+ * they fail instead.
+ */
+import { type ChildProcess, spawn } from "node:child_process";
+import { existsSync, mkdirSync, mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import ExcelJS from "exceljs";
+import { type Browser, chromium, type Locator, type Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+
+const root = join(__dirname, "..");
+const CHROMIUM = "/usr/bin/chromium";
+const hasChromium = existsSync(CHROMIUM);
+const required = process.env.NAPPE_REQUIRE_BROWSER === "1";
+const shots = join(root, "test-output");
+
+if (!hasChromium) {
+  const notice = `\n${"!".repeat(78)}\n! BROWSER TESTS SKIPPED: ${CHROMIUM} is missing (apt-get install -y chromium).\n${"!".repeat(78)}\n`;
+  if (required) throw new Error(`NAPPE_REQUIRE_BROWSER=1 but ${CHROMIUM} is missing`);
+  console.warn(notice);
+}
+
+async function startPreview(file?: string): Promise<{ url: string; server: ChildProcess }> {
+  const server = spawn(process.execPath, ["--import", "tsx", "scripts/preview.ts", "--port", "0", ...(file ? [file] : [])], { cwd: root, stdio: ["ignore", "pipe", "pipe"] });
+  const url = await new Promise<string>((resolve, reject) => {
+    let out = "";
+    const timer = setTimeout(() => reject(new Error(`preview server did not start: ${out}`)), 30000);
+    server.stdout!.on("data", (d) => {
+      out += String(d);
+      const m = /(http:\/\/127\.0\.0\.1:\d+\/preview\.html)/.exec(out);
+      if (m) {
+        clearTimeout(timer);
+        resolve(m[1]);
+      }
+    });
+    server.stderr!.on("data", (d) => (out += String(d)));
+    server.on("exit", (code) => reject(new Error(`preview server exited (${code}): ${out}`)));
+  });
+  return { url, server };
+}
+
+/** Waits until `read` gives a value that passes `check` (Playwright's own matchers are not vitest's). */
+async function eventually<T>(read: () => Promise<T>, check: (v: T) => boolean, what: string, ms = 8000): Promise<void> {
+  const end = Date.now() + ms;
+  let last: T | undefined;
+  while (Date.now() < end) {
+    last = await read().catch(() => undefined as T);
+    if (last !== undefined && check(last)) return;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`timed out waiting for ${what}; last seen: ${JSON.stringify(last)}`);
+}
+const containsText = (loc: Locator, text: string) => eventually(() => loc.innerText(), (t) => t.includes(text), `text "${text}"`);
+const hasExactText = (loc: Locator, text: string) => eventually(() => loc.innerText(), (t) => t.trim() === text, `exact text "${text}"`);
+const notContainsText = (loc: Locator, text: string) => eventually(() => loc.innerText(), (t) => !t.includes(text), `no text "${text}"`);
+const countIs = (loc: Locator, n: number) => eventually(() => loc.count(), (c) => c === n, `${n} elements`);
+
+async function selectCell(page: Page, sheet: string, address: string): Promise<void> {
+  await page.getByRole("button", { name: sheet, exact: true }).click();
+  await page.locator(`td[data-address="${address}"]`).click();
+  await page.locator(".cell-address", { hasText: `${sheet}!${address}` }).waitFor();
+}
+
+describe.runIf(hasChromium)("preview page in Chromium", () => {
+  let browser: Browser;
+  let page: Page;
+  let preview: { url: string; server: ChildProcess };
+  const requests: string[] = [];
+  const errors: string[] = [];
+
+  beforeAll(async () => {
+    mkdirSync(shots, { recursive: true });
+    if (!existsSync(join(root, "dist/preview.html"))) throw new Error("dist/preview.html is missing: run npm run build (npm test does)");
+    preview = await startPreview();
+    browser = await chromium.launch({
+      executablePath: CHROMIUM,
+      args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+    });
+    page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
+    page.on("request", (r) => requests.push(r.url()));
+    page.on("pageerror", (e) => errors.push(String(e)));
+    await page.goto(preview.url);
+    await page.locator("table.grid").waitFor();
+  }, 60000);
+
+  afterAll(async () => {
+    await browser?.close();
+    preview?.server.kill();
+  });
+
+  it("explains a NAPPE cell: equation, arguments with their units, result", async () => {
+    await selectCell(page, "Calc", "B9");
+    const card = page.locator(".call").first();
+    await hasExactText(card.locator("h3"), "NAPPE.HEAD");
+    expect(await card.locator(".equation math").count()).toBe(1);
+    const rows = card.locator("table.args tr");
+    await containsText(rows.nth(1), "Inputs!B10");
+    await containsText(rows.nth(1), "4.8 bar");
+    await containsText(rows.nth(1), "bar: text quantity");
+    await containsText(rows.nth(1), "480000 Pa");
+    await containsText(card.locator(".result"), "49.1281 m");
+    await page.screenshot({ path: join(shots, "pane-cell-view.png") });
+  });
+
+  it("flags the mislabelled input and applies the one-click fix", async () => {
+    await selectCell(page, "Calc", "B21");
+    const warning = page.locator(".unit-warning");
+    await containsText(warning, 'Inputs!B14 is labelled "Suction pipe length (ft)"');
+    await page.screenshot({ path: join(shots, "pane-unit-warning.png") });
+    await warning.getByRole("button", { name: 'Use Inputs!B14&" ft"' }).click();
+    await containsText(page.locator("code.formula").first(), 'Inputs!B14&" ft"');
+    await countIs(page.locator(".unit-warning"), 0);
+    await containsText(page.locator(".call table.args"), "30 ft");
+    await page.screenshot({ path: join(shots, "pane-unit-fixed.png") });
+  });
+
+  it("finds a function in the guide and inserts it into the selected cell", async () => {
+    await selectCell(page, "Calc", "D40");
+    await page.getByRole("tab", { name: "Function guide" }).click();
+    await page.getByRole("searchbox", { name: "Search the functions" }).fill("npsh available");
+    await page.getByRole("button", { name: "NAPPE.NPSHA", exact: true }).click();
+    await containsText(page.locator(".detail h3").first(), "NAPPE.NPSHA(surface_pressure");
+    await page.getByRole("button", { name: "Insert into the selected cell" }).click();
+    await containsText(page.locator(".status-line"), "Inserted =NAPPE.NPSHA(");
+    await eventually(() => page.locator('td[data-address="D40"]').innerText(), (t) => t.trim() !== "", "a value");
+    await page.screenshot({ path: join(shots, "pane-guide-insert.png") });
+    await page.getByRole("tab", { name: "This cell" }).click();
+  });
+
+  it("checks the whole workbook and goes to a cell from its row", async () => {
+    await page.getByRole("tab", { name: "Workbook" }).click();
+    await page.getByRole("button", { name: "Check the whole workbook" }).click();
+    await containsText(page.locator(".workbook .counts"), "NAPPE formulas");
+    const rows = page.locator(".check-row");
+    expect(await rows.count()).toBeGreaterThan(25);
+    await page.screenshot({ path: join(shots, "pane-workbook-check.png") });
+    await page.locator(".check-row").filter({ hasText: "Calc!B36" }).getByRole("button", { name: "Calc!B36" }).click();
+    await containsText(page.locator("#formula-bar"), "Calc!B36");
+    await eventually(() => page.locator('td[data-address="B36"]').getAttribute("class"), (c) => Boolean(c?.includes("selected")), "B36 selected");
+  });
+
+  it("loads nothing from the network", () => {
+    const outside = requests.filter((u) => !u.startsWith("http://127.0.0.1:"));
+    expect(outside).toEqual([]);
+    expect(errors).toEqual([]);
+  });
+});
+
+describe.runIf(hasChromium)("workbook text with markup", () => {
+  it("renders as text, never as HTML", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "nappe-markup-"));
+    const book = new ExcelJS.Workbook();
+    const ws = book.addWorksheet("<i>Sheet<i>");
+    ws.getCell("A1").value = '<img src=x onerror="window.__pwned=1">';
+    ws.getCell("A2").value = "Flow <b>(gpm)</b>";
+    ws.getCell("B2").value = 400;
+    ws.getCell("B3").value = { formula: 'NAPPE.VELOCITY(B2, "<script>window.__pwned=2</script>")' };
+    ws.getCell("B4").value = { formula: 'NAPPE.HEAD("<svg onload=window.__pwned=3>")' };
+    const file = join(dir, "markup.xlsx");
+    writeFileSync(file, Buffer.from(await book.xlsx.writeBuffer()));
+    const preview = await startPreview(file);
+    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
+    try {
+      const page = await browser.newPage();
+      await page.goto(preview.url);
+      await page.locator("table.grid").waitFor();
+      await hasExactText(page.locator('td[data-address="A1"]'), '<img src=x onerror="window.__pwned=1">');
+      await page.locator('td[data-address="B3"]').click();
+      await containsText(page.locator(".cell-view"), "<script>window.__pwned=2</script>");
+      await page.locator('td[data-address="B4"]').click();
+      await containsText(page.locator(".cell-view"), "<svg onload=window.__pwned=3>");
+      expect(await page.evaluate(() => (window as unknown as { __pwned?: number }).__pwned)).toBeUndefined();
+      expect(await page.locator("img[src=x], .cell-view script, .cell-view svg, .grid b, .grid i").count()).toBe(0);
+      await page.getByRole("button", { name: "<i>Sheet<i>" }).waitFor();
+      await page.screenshot({ path: join(shots, "pane-markup-inert.png") });
+    } finally {
+      await browser.close();
+      preview.server.kill();
+    }
+  }, 60000);
+});
