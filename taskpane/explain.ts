@@ -17,6 +17,7 @@ import { callSites, evaluationOrder, replaceArgument, type CallSite } from "../h
 import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../headless/model";
 import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../headless/recalc";
 import { checkCallUnits, type LabelSource } from "../headless/unitCheck";
+import { type ChartData, chartFor } from "./chartData";
 import type { HostPort } from "./host/port";
 
 export interface ArgExplanation {
@@ -69,6 +70,8 @@ export interface CellExplanation {
   /** An error of the whole formula (parse error, circular reference...). */
   error?: string;
   calls: CallExplanation[];
+  /** Curves to draw when the formula calls a pump or system function. */
+  chart?: ChartData;
 }
 
 const { DepParser } = FormulaParser as unknown as { DepParser: new () => { parse(f: string, pos: { sheet: string; row: number; col: number }): RefLike[] } };
@@ -271,5 +274,11 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
   calls.reverse();
   const outcome = outcomeFor({ ...model, value: cell.value }, computed);
   const error = computed.error ? computed.message ?? computed.error : undefined;
-  return { labels, outcome, explanation: { ...base, formula, value: formatValue(computed.value as CellValue), error, calls } };
+  let chart: ChartData | undefined;
+  try {
+    chart = chartFor(computed.calls);
+  } catch {
+    chart = undefined;
+  }
+  return { labels, outcome, explanation: { ...base, formula, value: formatValue(computed.value as CellValue), error, calls, chart } };
 }

@@ -7,6 +7,7 @@ import katex from "katex";
 import { CATALOG } from "../functions/catalog";
 import type { FunctionSpec } from "../functions/catalog/types";
 import { type CallExplanation, type CellExplanation, explainCell } from "./explain";
+import { drawChart } from "./chart";
 import { describeArguments, exampleFormula, searchCatalog, signature } from "./guide";
 import type { HostPort } from "./host/port";
 
@@ -102,6 +103,7 @@ function renderCell(target: HTMLElement, cell: CellExplanation, ctx: PaneContext
   if (cell.value !== "") target.append(el("p", "value", "Value: ", el("strong", "", cell.value)));
   if (cell.message) target.append(el("p", "message", cell.message));
   if (cell.error) target.append(el("p", "status error", cell.error));
+  if (cell.chart) target.append(drawChart(cell.chart));
   for (const call of cell.calls) target.append(callCard(call, cell, ctx, refresh));
 }
 

@@ -143,6 +143,41 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
     await eventually(() => page.locator('td[data-address="B36"]').getAttribute("class"), (c) => Boolean(c?.includes("selected")), "B36 selected");
   });
 
+  it("draws the pump and system curves with the operating point for a duty-point cell", async () => {
+    await page.getByRole("tab", { name: "This cell" }).click();
+    await selectCell(page, "Calc", "B28");
+    const chart = page.locator(".cell-view .chart");
+    await chart.waitFor();
+    const op = (await chart.getAttribute("data-operating-point"))!.split(",").map(Number);
+    expect(op[0]).toBeCloseTo(87.4559, 3);
+    expect(op[1]).toBeCloseTo(102.3, 3);
+    expect(await chart.getAttribute("data-series")).toBe("Pump curve (points)|Pump curve|Efficiency|NPSHr|System curve|Operating point");
+    // Something was drawn: the canvas has many non-blank pixels.
+    const inked = await chart.locator("canvas").evaluate((c: HTMLCanvasElement) => {
+      const d = c.getContext("2d")!.getImageData(0, 0, c.width, c.height).data;
+      let n = 0;
+      for (let i = 3; i < d.length; i += 4) if (d[i] > 0) n++;
+      return n;
+    });
+    expect(inked).toBeGreaterThan(2000);
+    await chart.scrollIntoViewIfNeeded();
+    await page.screenshot({ path: join(shots, "pane-duty-chart.png") });
+  });
+
+  it("writes the audit sheet into the in-memory workbook and nothing else", async () => {
+    const sheetsBefore = await page.locator("#sheet-tabs button").allInnerTexts();
+    await page.getByRole("tab", { name: "Workbook" }).click();
+    await page.getByRole("button", { name: "Check the whole workbook" }).click();
+    await containsText(page.locator(".workbook .counts"), "NAPPE formulas");
+    await page.getByRole("button", { name: 'Write the "Nappe audit" sheet' }).click();
+    await containsText(page.locator(".status-line"), 'Wrote the "Nappe audit" sheet');
+    await eventually(() => page.locator("#sheet-tabs button").allInnerTexts(), (t) => t.length === sheetsBefore.length + 1 && t.includes("Nappe audit"), "a new audit sheet tab");
+    await page.getByRole("button", { name: "Nappe audit", exact: true }).click();
+    await containsText(page.locator("table.grid"), "Inputs (as written → as read)");
+    await containsText(page.locator("table.grid"), "NAPPE.HEADLOSS");
+    await page.screenshot({ path: join(shots, "preview-audit-sheet.png") });
+  });
+
   it("loads nothing from the network", () => {
     const outside = requests.filter((u) => !u.startsWith("http://127.0.0.1:"));
     expect(outside).toEqual([]);

@@ -1,0 +1,165 @@
+/** The pane's pure logic against the in-memory adapter: explanations, unit check, chart data, workbook check, audit sheet. */
+import { join } from "node:path";
+import ExcelJS from "exceljs";
+import { describe, expect, it } from "vitest";
+import { fromExcelJS, readWorkbook } from "../headless/workbook";
+import { chartFor } from "../taskpane/chartData";
+import { analyseCell, explainCell } from "../taskpane/explain";
+import { MemoryHost } from "../taskpane/host/memory";
+import { AUDIT_SHEET, auditSheetRows, checkWorkbook, writeAuditSheet } from "../taskpane/workbookCheck";
+
+const root = join(__dirname, "..");
+const demo = () => readWorkbook(join(root, "demo/orchard-pumping-station.xlsx"));
+
+function book(build: (ws: ExcelJS.Worksheet) => void): MemoryHost {
+  const b = new ExcelJS.Workbook();
+  build(b.addWorksheet("S"));
+  return new MemoryHost(fromExcelJS(b));
+}
+
+describe("cell explanation", () => {
+  it("explains nested calls outermost first, with arguments as written", async () => {
+    const host = book((ws) => {
+      ws.getCell("A1").value = "Pressure";
+      ws.getCell("B1").value = "2 bar";
+      ws.getCell("B2").value = { formula: 'NAPPE.HEAD(NAPPE.PRESSURE(NAPPE.HEAD(B1, 1000), 1000), , "ft")' };
+    });
+    const e = await explainCell(host, "S", "B2");
+    expect(e.calls.map((c) => c.id)).toEqual(["HEAD", "PRESSURE", "HEAD"]);
+    expect(e.calls[0].args.map((a) => a.written)).toEqual(["NAPPE.PRESSURE(NAPPE.HEAD(B1, 1000), 1000)", "", '"ft"']);
+    expect(e.calls[2].args[0]).toMatchObject({ written: "B1", value: "2 bar", unit: "bar", base: "200000 Pa" });
+    // 2 bar = 20.3943 m of water at 1000 kg/m³; the outer HEAD takes water at 20 °C (998.206 kg/m³): 20.431 m.
+    expect(e.calls[0].resultRequested).toBe("67.0308 ft");
+    expect(e.calls[0].resultBase).toBe("20.431 m");
+    expect(e.calls[0].args.find((a) => a.name === "density")).toMatchObject({ written: "", why: "left out: default used" });
+  });
+  it("shows a range with header units as a table with its columns' units", async () => {
+    const host = new MemoryHost(await demo());
+    const e = await explainCell(host, "Calc", "B28");
+    const curve = e.calls[0].args.find((a) => a.name === "curve")!;
+    expect(curve.written).toBe("Pump!H3:K9");
+    expect(curve.base).toMatch(/Flow \(m\^3\/h\) → flow in m\^3\/h/);
+  });
+  it("says what is wrong when a NAPPE call fails", async () => {
+    const host = book((ws) => (ws.getCell("A1").value = { formula: 'NAPPE.VELOCITY("1 gpm", "2 psi")' }));
+    const e = await explainCell(host, "S", "A1");
+    expect(e.calls[0].error).toMatch(/^diameter: "psi" is a pressure unit/);
+    expect(e.error).toBeDefined();
+  });
+  it("has a short message for empty cells, constants and formulas without NAPPE", async () => {
+    const host = book((ws) => {
+      ws.getCell("A1").value = 5;
+      ws.getCell("A2").value = { formula: "A1*2" };
+    });
+    expect((await explainCell(host, "S", "C9")).message).toMatch(/^Empty cell/);
+    expect((await explainCell(host, "S", "A1")).message).toMatch(/^A constant/);
+    expect((await explainCell(host, "S", "A2")).message).toMatch(/calls no NAPPE function/);
+  });
+});
+
+describe("unit check", () => {
+  it("warns on a bare number labelled in another unit and offers the fix that joins the unit", async () => {
+    const host = new MemoryHost(await demo());
+    const [call] = (await explainCell(host, "Calc", "B21")).calls;
+    expect(call.unitWarnings).toHaveLength(1);
+    expect(call.unitWarnings[0].fixedFormula).toBe('NAPPE.HEADLOSS(B11&" m^3/h", B16, Inputs!B14&" ft", B18, B6)');
+    await host.setFormula("Calc", "B21", call.unitWarnings[0].fixedFormula!);
+    expect((await explainCell(host, "Calc", "B21")).calls[0].unitWarnings).toEqual([]);
+  });
+  it("reads a unit from the number format", async () => {
+    const host = book((ws) => {
+      ws.getCell("B1").value = 400;
+      ws.getCell("B1").numFmt = '0.0 "gpm"';
+      ws.getCell("B2").value = { formula: 'NAPPE.VELOCITY(B1, "4 in")' };
+    });
+    const [call] = (await explainCell(host, "S", "B2")).calls;
+    expect(call.unitWarnings[0].message).toMatch(/labelled "0.0 "gpm"" but its bare number 400 is read as 400 m³\/s/);
+    expect(call.unitWarnings[0].fixedFormula).toBe('NAPPE.VELOCITY(B1&" gpm", "4 in")');
+  });
+  it("reports a label of another dimension without a fix", async () => {
+    const host = book((ws) => {
+      ws.getCell("A1").value = "Pressure (psi)";
+      ws.getCell("B1").value = 0.1;
+      ws.getCell("B2").value = { formula: "NAPPE.VELOCITY(0.01, B1)" };
+    });
+    const [call] = (await explainCell(host, "S", "B2")).calls;
+    expect(call.unitWarnings[0].message).toMatch(/pressure\) but diameter expects a length/);
+    expect(call.unitWarnings[0].fixedFormula).toBeUndefined();
+  });
+  it("is quiet when the label names the base unit or the value is a text quantity", async () => {
+    const host = book((ws) => {
+      ws.getCell("A1").value = "Diameter (m)";
+      ws.getCell("B1").value = 0.1;
+      ws.getCell("A2").value = "Flow (gpm)";
+      ws.getCell("B2").value = "400 gpm";
+      ws.getCell("B3").value = { formula: "NAPPE.VELOCITY(B2, B1)" };
+    });
+    expect((await explainCell(host, "S", "B3")).calls[0].unitWarnings).toEqual([]);
+  });
+});
+
+describe("chart data", () => {
+  it("draws the pump curve, system curve and operating point of PUMP.DUTY in the table's units", async () => {
+    const host = new MemoryHost(await demo());
+    const { outcome } = await analyseCell(host, "Calc", "B28");
+    const chart = chartFor(outcome!.calls)!;
+    expect([chart.flowUnit, chart.headUnit, chart.efficiencyUnit]).toEqual(["m^3/h", "m", "%"]);
+    expect(chart.series.map((s) => s.name)).toEqual(["Pump curve (points)", "Pump curve", "Efficiency", "NPSHr", "System curve", "Operating point"]);
+    expect(chart.operatingPoint!.x).toBeCloseTo(87.4559, 3);
+    expect(chart.operatingPoint!.y).toBeCloseTo(102.3, 3);
+    // The operating point lies on both drawn curves (interpolating the sampled lines).
+    const onLine = (name: string) => {
+      const pts = chart.series.find((s) => s.name === name)!.points;
+      const i = pts.findIndex((p) => p.x >= chart.operatingPoint!.x);
+      const [a, b] = [pts[i - 1], pts[i]];
+      return a.y + ((b.y - a.y) * (chart.operatingPoint!.x - a.x)) / (b.x - a.x);
+    };
+    expect(Math.abs(onLine("System curve") - chart.operatingPoint!.y)).toBeLessThan(0.05);
+    expect(Math.abs(onLine("Pump curve") - chart.operatingPoint!.y)).toBeLessThan(0.05);
+    // Table points are in the header's units (Pump!H4:I4: 0 m³/h, 114.7 m for the 265 mm impeller).
+    expect(chart.series[0].points[0]).toEqual({ x: 0, y: 114.7 });
+  });
+  it("draws the trimmed curve through the duty point for TRIM", async () => {
+    const host = new MemoryHost(await demo());
+    const chart = chartFor((await analyseCell(host, "Calc", "B29")).outcome!.calls)!;
+    const trimmed = chart.series.find((s) => s.name === "Trimmed curve")!.points;
+    const op = chart.operatingPoint!;
+    const i = trimmed.findIndex((p) => p.x >= op.x);
+    const y = trimmed[i - 1].y + ((trimmed[i].y - trimmed[i - 1].y) * (op.x - trimmed[i - 1].x)) / (trimmed[i].x - trimmed[i - 1].x);
+    expect(Math.abs(y - op.y)).toBeLessThan(0.2);
+  });
+  it("has no chart for functions that are not about pumps or systems", async () => {
+    const host = new MemoryHost(await demo());
+    expect((await explainCell(host, "Calc", "B9")).chart).toBeUndefined();
+  });
+});
+
+describe("workbook check and audit sheet", () => {
+  it("lists every NAPPE formula with status and counts, including the unit check", async () => {
+    const host = new MemoryHost(await demo());
+    const progress: number[] = [];
+    const check = await checkWorkbook(host, (d) => progress.push(d));
+    expect(check.rows.length).toBe(30);
+    expect(check.counts.ok + check.counts.warning + check.counts.error).toBe(30);
+    expect(check.counts.error).toBe(0);
+    expect(check.rows.find((r) => r.address === "B21")).toMatchObject({ status: "warning" });
+    expect(progress[progress.length - 1]).toBe(30);
+  });
+  it("writes the audit sheet from the same audit model, replacing only that sheet", async () => {
+    const host = new MemoryHost(await demo());
+    const before = host.workbook.sheets.map((s) => [s.name, s.cells.size]);
+    const check = await checkWorkbook(host);
+    await writeAuditSheet(host, check, "demo");
+    await writeAuditSheet(host, check, "demo");
+    const names = host.workbook.sheets.map((s) => s.name);
+    expect(names.filter((n) => n === AUDIT_SHEET)).toHaveLength(1);
+    expect(host.workbook.sheets.filter((s) => s.name !== AUDIT_SHEET).map((s) => [s.name, s.cells.size])).toEqual(before);
+    const { rows, headerRow } = auditSheetRows((await import("../taskpane/workbookCheck")).auditOf(check, "demo"));
+    expect(rows[headerRow]).toEqual(["Sheet", "Cell", "Formula", "Status", "Result", "Function", "Purpose", "Inputs (as written → as read)", "Assumptions", "Warnings", "Sources", "Cautions"]);
+    const audit = host.workbook.sheets.find((s) => s.name === AUDIT_SHEET)!;
+    const text = [...audit.cells.values()].map((c) => String(c.value)).join("\n");
+    expect(text).toMatch(/Unit check: Inputs!B14 is labelled/);
+    expect(text).toMatch(/design aid for preliminary sizing/);
+    expect(text).toMatch(/NAPPE\.NPSHA/);
+  });
+});
