@@ -3,6 +3,7 @@
 import CopyWebpackPlugin from "copy-webpack-plugin";
 import CustomFunctionsMetadataPlugin from "custom-functions-metadata-plugin";
 import HtmlWebpackPlugin from "html-webpack-plugin";
+import webpack from "webpack";
 import { existsSync, readFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -60,6 +61,8 @@ export default async (env, argv) => {
     },
     performance: { hints: false },
     plugins: [
+      // No code generation from strings in any shipped bundle (see taskpane/stubs).
+      new webpack.NormalModuleReplacementPlugin(/chevrotain[\\/]lib(_esm)?[\\/]src[\\/]generate[\\/]generate_public\.js$/, path.join(root, "taskpane/stubs/chevrotainNoCodegen.js")),
       new CustomFunctionsMetadataPlugin({ output: "functions.json", input: "./functions/functions.ts" }),
       new HtmlWebpackPlugin({ filename: "functions.html", template: "./functions/functions.html", chunks: ["functions"] }),
       new HtmlWebpackPlugin({ filename: "taskpane.html", template: "./taskpane/taskpane.html", chunks: ["taskpane"] }),

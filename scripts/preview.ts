@@ -41,7 +41,10 @@ async function main(): Promise<void> {
     }
     try {
       const body = await readFile(target);
-      res.writeHead(200, { "Content-Type": TYPES[extname(target)] ?? "application/octet-stream", "Content-Security-Policy": CSP, "X-Content-Type-Options": "nosniff" });
+      const headers: Record<string, string> = { "Content-Type": TYPES[extname(target)] ?? "application/octet-stream", "X-Content-Type-Options": "nosniff" };
+      // The preview page gets its policy as a header too; other pages (the Excel pane) carry their own.
+      if (path === "/preview.html") headers["Content-Security-Policy"] = CSP;
+      res.writeHead(200, headers);
       res.end(body);
     } catch {
       res.writeHead(404, { "Content-Type": "text/plain" }).end("not found");

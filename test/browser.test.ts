@@ -185,6 +185,30 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
   });
 });
 
+describe.runIf(hasChromium)("the Excel pane page", () => {
+  it("requests nothing from the network but Office.js", async () => {
+    const preview = await startPreview();
+    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
+    try {
+      const page = await browser.newPage();
+      const outside: string[] = [];
+      // No Office here: requests leaving 127.0.0.1 are recorded and refused.
+      await page.route("**/*", (route) => {
+        const url = route.request().url();
+        if (url.startsWith("http://127.0.0.1:")) return route.continue();
+        outside.push(url);
+        return route.abort();
+      });
+      await page.goto(preview.url.replace("preview.html", "taskpane.html"));
+      await page.waitForTimeout(1500);
+      expect(outside).toEqual(["https://appsforoffice.microsoft.com/lib/1/hosted/office.js"]);
+    } finally {
+      await browser.close();
+      preview.server.kill();
+    }
+  }, 60000);
+});
+
 describe.runIf(hasChromium)("workbook text with markup", () => {
   it("renders as text, never as HTML", async () => {
     const dir = mkdtempSync(join(tmpdir(), "nappe-markup-"));
