@@ -54,7 +54,7 @@ function declaredUnit(text: string): { unit: string; dim: Dimension } | undefine
  * number, whose label or number format declares a unit other than the one it was read in.
  */
 export function checkCallUnits(spec: FunctionSpec, evaluation: Evaluation, refs: readonly (string | undefined)[], here: string, labels: LabelSource): UnitFinding[] {
-  const findings: UnitFinding[] = [];
+  const findings: UnitFinding[] = [...implausibleMagnitudes(spec, evaluation, refs)];
   spec.params.forEach((p, i) => {
     const ref = refs[i];
     if (!ref || ref.includes(":") || p.kind !== "quantity" || !hasUnit(p.dim)) return;
@@ -83,6 +83,29 @@ export function checkCallUnits(spec: FunctionSpec, evaluation: Evaluation, refs:
       });
       return;
     }
+  });
+  return findings;
+}
+
+/**
+ * Bare numbers whose size is implausible for their dimension in pump and pipe work (a bare
+ * flow of 4000 is 4000 m³/s): usually a number meant in another unit.
+ */
+export function implausibleMagnitudes(spec: FunctionSpec, evaluation: Evaluation, refs: readonly (string | undefined)[]): UnitFinding[] {
+  const findings: UnitFinding[] = [];
+  spec.params.forEach((p, i) => {
+    if (p.kind !== "quantity") return;
+    const range = p.plausible ?? (DIMENSIONS[p.dim] as { plausible?: readonly [number, number] }).plausible;
+    const reading = evaluation.readings.find((r) => r.name === p.name);
+    if (!range || !reading || reading.how !== "base unit" || typeof reading.value !== "number" || reading.value === 0) return;
+    const size = Math.abs(reading.value);
+    if (size >= range[0] && size <= range[1]) return;
+    const where = refs[i] ?? "the formula";
+    findings.push({
+      arg: p.name,
+      ref: where,
+      message: `${p.name} is a bare ${reading.value} read as ${reading.value} ${DIMENSIONS[p.dim].baseLabel}, an implausible ${DIMENSIONS[p.dim].noun.replace(/^an? /, "")} (usual: ${range[0]} to ${range[1]} ${DIMENSIONS[p.dim].baseLabel}); if another unit was meant, write it with the number, such as ${DIMENSIONS[p.dim].example}.`,
+    });
   });
   return findings;
 }

@@ -166,3 +166,14 @@ function recBaseResult(rec: CallRecord): number {
   const v = ev.value as number;
   return ev.unit && ev.unit !== DIMENSIONS[ev.dim].base ? toBase("chart", v, ev.dim, ev.unit) : v;
 }
+
+/** Adds the workbook's NPSHa (base units, m) as a level line against the NPSHr curve. */
+export function withNpsha(chart: ChartData, npshaBase: number, source: string): ChartData {
+  const npshr = chart.series.find((x) => x.name === "NPSHr");
+  if (!npshr) return chart;
+  const head = chart.headUnit === DIMENSIONS.length.base ? npshaBase : fromBase("chart", npshaBase, "length", chart.headUnit);
+  const xs = chart.series.flatMap((x) => x.points.map((p) => p.x));
+  const line: ChartSeries = { name: `NPSHa (${source})`, style: "dashed", axis: "head", points: [{ x: Math.min(...xs), y: head }, { x: Math.max(...xs), y: head }] };
+  const at = chart.series.findIndex((x) => x.name === "NPSHr");
+  return { ...chart, series: [...chart.series.slice(0, at + 1), line, ...chart.series.slice(at + 1)] };
+}

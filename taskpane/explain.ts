@@ -17,7 +17,8 @@ import { callSites, evaluationOrder, replaceArgument, type CallSite } from "../h
 import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../headless/model";
 import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../headless/recalc";
 import { checkCallUnits, type LabelSource } from "../headless/unitCheck";
-import { type ChartData, chartFor } from "./chartData";
+import { type ChartData, chartFor, withNpsha } from "./chartData";
+import { toBase } from "../functions/units/quantity";
 import type { HostPort } from "./host/port";
 
 export interface ArgExplanation {
@@ -229,6 +230,28 @@ function baseResult(rec: CallRecord): string {
   return typeof value === "number" ? `${formatNumber(value)} ${base}` : "";
 }
 
+/**
+ * NPSH available as the workbook computes it: the first NAPPE.NPSHA formula's result, in m.
+ * (A workbook with several pumps should keep one NPSHA per pump; the first one is drawn.)
+ */
+async function workbookNpsha(port: HostPort): Promise<{ value: number; cell: string } | undefined> {
+  const cells = (await port.nappeFormulaCells()).filter((c) => /\bNAPPE\.NPSHA\s*\(/i.test(c.formula));
+  for (const c of cells) {
+    const snap = await snapshot(port, c.sheet, c.address, c.formula);
+    const { row, col } = parseAddress(c.address);
+    const computed = new Recalculation(snap.wb).compute(snap.wb.sheets.find((s) => s.name === c.sheet)!.cells.get(cellKey(row, col))!);
+    const call = computed.calls.find((x) => x.id === "NPSHA" && x.evaluation);
+    if (call) return { value: baseValue(call), cell: `${c.sheet}!${c.address}` };
+  }
+  return undefined;
+}
+
+/** A scalar call result in its dimension's base unit. */
+function baseValue(rec: CallRecord): number {
+  const ev = rec.evaluation!;
+  return ev.unit && ev.unit !== DIMENSIONS[ev.dim].base ? toBase("npsha", ev.value as number, ev.dim, ev.unit) : (ev.value as number);
+}
+
 /** A cell's explanation, and its outcome in the audit model (status, messages, calls). */
 export interface CellAnalysis {
   explanation: CellExplanation;
@@ -277,6 +300,10 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
   let chart: ChartData | undefined;
   try {
     chart = chartFor(computed.calls);
+    if (chart?.series.some((x) => x.name === "NPSHr")) {
+      const npsha = await workbookNpsha(port);
+      if (npsha) chart = withNpsha(chart, npsha.value, npsha.cell);
+    }
   } catch {
     chart = undefined;
   }

@@ -73,8 +73,9 @@ describe("unit check", () => {
       ws.getCell("B2").value = { formula: 'NAPPE.VELOCITY(B1, "4 in")' };
     });
     const [call] = (await explainCell(host, "S", "B2")).calls;
-    expect(call.unitWarnings[0].message).toMatch(/labelled "0.0 "gpm"" but its bare number 400 is read as 400 m³\/s/);
-    expect(call.unitWarnings[0].fixedFormula).toBe('NAPPE.VELOCITY(B1&" gpm", "4 in")');
+    const labelled = call.unitWarnings.find((w) => w.fixedFormula)!;
+    expect(labelled.message).toMatch(/labelled "0.0 "gpm"" but its bare number 400 is read as 400 m³\/s/);
+    expect(labelled.fixedFormula).toBe('NAPPE.VELOCITY(B1&" gpm", "4 in")');
   });
   it("reports a label of another dimension without a fix", async () => {
     const host = book((ws) => {
@@ -105,6 +106,10 @@ describe("chart data", () => {
     const chart = chartFor(outcome!.calls)!;
     expect([chart.flowUnit, chart.headUnit, chart.efficiencyUnit]).toEqual(["m^3/h", "m", "%"]);
     expect(chart.series.map((s) => s.name)).toEqual(["Pump curve (points)", "Pump curve", "Efficiency", "NPSHr", "System curve", "Operating point"]);
+    // With the workbook's NPSHa (Calc!B36) drawn against NPSHr in the cell view.
+    const drawn = (await explainCell(host, "Calc", "B28")).chart!;
+    const npsha = drawn.series.find((s) => s.name === "NPSHa (Calc!B36)")!;
+    expect(npsha.points[0].y).toBeCloseTo(3.94789, 4);
     expect(chart.operatingPoint!.x).toBeCloseTo(87.4559, 3);
     expect(chart.operatingPoint!.y).toBeCloseTo(102.3, 3);
     // The operating point lies on both drawn curves (interpolating the sampled lines).
@@ -161,5 +166,22 @@ describe("workbook check and audit sheet", () => {
     expect(text).toMatch(/Unit check: Inputs!B14 is labelled/);
     expect(text).toMatch(/design aid for preliminary sizing/);
     expect(text).toMatch(/NAPPE\.NPSHA/);
+  });
+});
+
+describe("implausible magnitudes", () => {
+  it("warns on a bare flow of 4000 (4000 m³/s) and a bare diameter of 150 (150 m)", async () => {
+    const host = book((ws) => {
+      ws.getCell("B1").value = 4000;
+      ws.getCell("B2").value = { formula: "NAPPE.VELOCITY(B1, 150)" };
+    });
+    const [call] = (await explainCell(host, "S", "B2")).calls;
+    const messages = call.unitWarnings.map((w) => w.message).join("\n");
+    expect(messages).toMatch(/flow is a bare 4000 read as 4000 m³\/s, an implausible volume flow/);
+    expect(messages).toMatch(/diameter is a bare 150 read as 150 m/);
+  });
+  it("is quiet for ordinary sizes", async () => {
+    const host = book((ws) => (ws.getCell("B2").value = { formula: "NAPPE.VELOCITY(0.02, 0.15)" }));
+    expect((await explainCell(host, "S", "B2")).calls[0].unitWarnings).toEqual([]);
   });
 });

@@ -37,7 +37,7 @@ export const kinematicViscosityParam: QuantityParam = {
 };
 
 export const flowParam: QuantityParam = { name: "flow", kind: "quantity", dim: "flow", description: "Volume flow rate." };
-export const diameterParam: QuantityParam = { name: "diameter", kind: "quantity", dim: "length", description: "Pipe inside diameter." };
+export const diameterParam: QuantityParam = { name: "diameter", kind: "quantity", dim: "length", description: "Pipe inside diameter.", plausible: [1e-4, 10] };
 
 /** Shown with every result that sizes a pump or a pipe. */
 export const DESIGN_AID =

@@ -28,6 +28,8 @@ export interface QuantityParam extends ParamBase {
   default?: number | ((args: Args) => number);
   /** Says where the default comes from, for people. */
   defaultNote?: string;
+  /** Base-unit magnitudes outside which a bare number is implausible (overrides the dimension's). */
+  plausible?: readonly [number, number];
 }
 
 /** One of a fixed set of words, compared without regard to case. */
