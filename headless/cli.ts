@@ -12,12 +12,11 @@ import { mkdir, rename, writeFile } from "node:fs/promises";
 import { basename, dirname, extname, join, resolve } from "node:path";
 import cliProgress from "cli-progress";
 import ExcelJS from "exceljs";
-import { buildAudit } from "./audit";
+import { buildAudit, formatValue } from "./audit";
 import { buildDemoWorkbook, DEMO_FILE } from "../demo/build";
 import { recalculate, type RecalcResult } from "./recalc";
 import { addAuditSheet, renderHtml, renderTable } from "./render";
 import { labelSource, readWorkbook, type WorkbookModel, WorkbookError } from "./workbook";
-import { formatValue } from "./audit";
 
 class UsageError extends Error {}
 

@@ -1,23 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { CalcError } from "../functions/calc/_lib/result";
-import { evaluate, type RawArg } from "../functions/bind/evaluate";
-import { CATALOG_BY_ID } from "../functions/catalog";
+import { failure, run } from "./helpers";
 
-function run(id: string, ...args: RawArg[]) {
-  const spec = CATALOG_BY_ID.get(id);
-  if (!spec) throw new Error(`no spec ${id}`);
-  return evaluate(spec, args);
-}
 
-function failure(id: string, ...args: RawArg[]): CalcError {
-  try {
-    run(id, ...args);
-  } catch (e) {
-    if (e instanceof CalcError) return e;
-    throw e;
-  }
-  throw new Error(`${id} did not fail`);
-}
 
 describe("bad input gives a worksheet error naming the argument", () => {
   it("wrong dimension is #VALUE!", () => {

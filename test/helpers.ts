@@ -1,5 +1,26 @@
 import { expect } from "vitest";
+import { CalcError } from "../functions/calc/_lib/result";
+import { evaluate, type Evaluation, type RawArg } from "../functions/bind/evaluate";
+import { CATALOG_BY_ID } from "../functions/catalog";
 import type { Cell, Example } from "../functions/catalog/types";
+
+/** Evaluates worksheet function `id` (without NAPPE.) on Excel-style arguments, in Node. */
+export function run(id: string, ...args: RawArg[]): Evaluation {
+  const spec = CATALOG_BY_ID.get(id);
+  if (!spec) throw new Error(`no spec ${id}`);
+  return evaluate(spec, args);
+}
+
+/** The CalcError a call fails with; fails the test if it does not fail that way. */
+export function failure(id: string, ...args: RawArg[]): CalcError {
+  try {
+    run(id, ...args);
+  } catch (e) {
+    if (e instanceof CalcError) return e;
+    throw e;
+  }
+  throw new Error(`${id} did not fail`);
+}
 
 /** Relative difference, with absolute difference where the expected value is zero. */
 export function relativeError(got: number, want: number): number {

@@ -1,12 +1,10 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { CalcError } from "../functions/calc/_lib/result";
 import { affinityRatioThrough } from "../functions/calc/affinity";
 import { operatingPoint } from "../functions/calc/operatingPoint";
 import { checkSeries, interpolant, valueAt } from "../functions/calc/pumpCurve";
-import { evaluate, type RawArg } from "../functions/bind/evaluate";
-import { CATALOG_BY_ID } from "../functions/catalog";
-import { relativeError } from "./helpers";
+import type { RawArg } from "../functions/bind/evaluate";
+import { failure, relativeError, run } from "./helpers";
 
 // SciPy PchipInterpolator, numpy.polyfit and scipy.optimize.brentq, run by
 // test/reference/curve_reference.py (versions recorded in the JSON).
@@ -16,16 +14,6 @@ const ref = JSON.parse(readFileSync(new URL("./reference/curve_reference.json", 
   affinity_ratios: { curve: string; flow: number; head: number; ratio: number }[];
 };
 
-const run = (id: string, ...args: RawArg[]) => evaluate(CATALOG_BY_ID.get(id)!, args);
-function failure(id: string, ...args: RawArg[]): CalcError {
-  try {
-    run(id, ...args);
-  } catch (e) {
-    if (e instanceof CalcError) return e;
-    throw e;
-  }
-  throw new Error(`${id} did not fail`);
-}
 
 describe("curve evaluation against SciPy and NumPy", () => {
   for (const [name, c] of Object.entries(ref.curves)) {

@@ -1,9 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { evaluate, type RawArg } from "../functions/bind/evaluate";
-import { CATALOG_BY_ID } from "../functions/catalog";
-import { relativeError } from "./helpers";
-
-const run = (id: string, ...args: RawArg[]) => evaluate(CATALOG_BY_ID.get(id)!, args);
+import { relativeError, run } from "./helpers";
 
 const SEGMENTS = [
   ["Length (ft)", "ID (in)", "Roughness (mm)", "K"],
