@@ -190,7 +190,7 @@ export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evalua
   const outUnit = args["unit"];
   if (typeof outUnit === "string" && spec.params.some((p) => p.name === "unit" && p.kind === "unit")) {
     if (!hasUnit(dim)) {
-      throw new CalcError("unit", `expected a unit of ${DIMENSIONS[dim].noun.replace(/^an? /, "")} such as ${DIMENSIONS[dim].example.replace(/^"[\d.]+ /, '"')}; got "${outUnit}"`, "value");
+      throw new CalcError("unit", `this result is a plain number and takes no unit; leave unit out (got "${outUnit}")`, "value");
     }
     value = fromBase("unit", value, dim, outUnit);
     unit = outUnit;
