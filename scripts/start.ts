@@ -35,8 +35,22 @@ async function waitForServer(seconds: number): Promise<void> {
   fail(`the https server did not answer at ${URL_TO_WAIT_FOR} within ${seconds} s (see the webpack output above).`);
 }
 
+/** office-addin-dev-settings is optional (its native keychain module may not build); load it by name. */
+export async function devSettings(): Promise<{
+  sideloadAddIn(manifest: string, app: unknown, canPrompt: boolean, launchOnly: boolean, appType: unknown): Promise<void>;
+  unregisterAddIn(manifest: string): Promise<void>;
+  AppType: { Desktop: unknown };
+}> {
+  const name = "office-addin-dev-settings";
+  try {
+    return await import(name);
+  } catch {
+    throw new Error(`${name} is not installed (it is optional: its keychain module needs a native build); run npm install on a machine where it builds`);
+  }
+}
+
 async function sideloadDesktop(): Promise<void> {
-  const { sideloadAddIn, AppType } = await import("office-addin-dev-settings");
+  const { sideloadAddIn, AppType } = await devSettings();
   const { OfficeApp } = await import("office-addin-manifest");
   await sideloadAddIn(MANIFEST, OfficeApp.Excel, false, false, AppType.Desktop);
   console.log("\nSideloaded into desktop Excel. Type =NAPPE. in a cell; the Nappe button on the Home tab opens the pane.");
@@ -79,4 +93,4 @@ async function main(): Promise<void> {
   }
 }
 
-main().catch((e) => fail(e instanceof Error ? e.message : String(e)));
+if (process.argv[1]?.endsWith("start.ts")) main().catch((e) => fail(e instanceof Error ? e.message : String(e)));

@@ -1,11 +1,12 @@
 /** npm run stop: removes the sideloaded add-in from desktop Excel (Windows, macOS). */
 import { join } from "node:path";
+import { devSettings } from "./start";
 
 const MANIFEST = join(import.meta.dirname, "..", "dist", "manifest.xml");
 
 if (process.platform === "win32" || process.platform === "darwin") {
-  const { unregisterAddIn } = await import("office-addin-dev-settings");
   try {
+    const { unregisterAddIn } = await devSettings();
     await unregisterAddIn(MANIFEST);
     console.log("Removed the sideloaded Nappe add-in from desktop Excel.");
   } catch (e) {
