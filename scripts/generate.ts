@@ -77,6 +77,7 @@ async function readmeSections(): Promise<Record<string, string>> {
   const { CATALOG } = (await import("../functions/catalog/index")) as Catalog;
   const { DIMENSIONS } = await import("../functions/units/dimensions");
   const { TRADE_UNITS } = await import("../functions/units/mathjs");
+  const { exampleFormula } = await import("../functions/catalog/_formula");
   const summary = [
     "| function | returns | method and source |",
     "|---|---|---|",
@@ -98,7 +99,8 @@ async function readmeSections(): Promise<Record<string, string>> {
       return `| ${p.name}${p.optional ? " (optional)" : ""} | ${escapeCell(kind)} | ${escapeCell(p.description + dflt)} |`;
     });
     const ex = s.examples[0];
-    const exText = ex ? `\`=NAPPE.${s.id}(${ex.args.map((a) => (a === null ? "" : typeof a === "string" ? `"${a}"` : String(a))).join(", ")})\` → ${typeof ex.expect === "number" ? Number(ex.expect.toPrecision(6)) : "spills " + ex.expect.map((r) => r.join(" \\| ")).join("; ")}` : "";
+    const formula = exampleFormula(s);
+    const exText = ex && formula ? `\`${formula}\` → ${typeof ex.expect === "number" ? Number(ex.expect.toPrecision(6)) : "spills " + ex.expect.map((r) => r.join(" \\| ")).join("; ")}` : "";
     return [
       `#### NAPPE.${s.id}`,
       "",

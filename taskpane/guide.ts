@@ -32,11 +32,4 @@ export function describeArguments(spec: FunctionSpec): { name: string; reads: st
   });
 }
 
-/** The first example as a formula a user can paste. */
-export function exampleFormula(spec: FunctionSpec): string | undefined {
-  const ex = spec.examples[0];
-  if (!ex) return undefined;
-  const args = ex.args.map((a) => (a === null ? "" : typeof a === "string" ? `"${a.replace(/"/g, '""')}"` : String(a)));
-  while (args.length && args[args.length - 1] === "") args.pop();
-  return `=NAPPE.${spec.id}(${args.join(", ")})`;
-}
+export { exampleFormula } from "../functions/catalog/_formula";

@@ -3,6 +3,10 @@ import { evaluate } from "../functions/bind/evaluate";
 import { CATALOG } from "../functions/catalog";
 import * as bindings from "../functions/functions";
 import { bindingName } from "../scripts/generate";
+import ExcelJS from "exceljs";
+import { exampleFormula } from "../functions/catalog/_formula";
+import { recalculate } from "../headless/recalc";
+import { fromExcelJS } from "../headless/workbook";
 import { expectMatchesExample } from "./helpers";
 
 describe("catalogue", () => {
@@ -37,5 +41,15 @@ describe("worked examples in the catalogue (each names its source)", () => {
   const cases = CATALOG.flatMap((s) => s.examples.map((ex) => ({ s, ex, name: `${s.id}(${ex.args.map((a) => JSON.stringify(a)).join(", ")}) = ${ex.expect} — ${ex.source}` })));
   it.each(cases)("$name", ({ s, ex }) => {
     expectMatchesExample(evaluate(s, ex.args).value, ex);
+  });
+});
+
+describe("each example as the formula the guide inserts, recalculated by the headless engine", () => {
+  it.each(CATALOG.map((s) => [s.id, s]))("%s", (_id, spec) => {
+    const book = new ExcelJS.Workbook();
+    book.addWorksheet("S").getCell("A1").value = { formula: exampleFormula(spec)!.slice(1) };
+    const result = recalculate(fromExcelJS(book));
+    expect(result.cells[0].status, result.cells[0].messages.join("; ")).not.toBe("error");
+    expectMatchesExample(result.valueOf("S", "A1"), spec.examples[0], spec.id);
   });
 });
