@@ -56,9 +56,16 @@ function drawGrid(host: MemoryHost, target: HTMLElement, tabs: HTMLElement, form
         const choose = () => host.setSelection(sheet.name, address);
         td.addEventListener("click", choose);
         td.addEventListener("keydown", (e) => {
+          const moves: Record<string, [number, number]> = { ArrowUp: [-1, 0], ArrowDown: [1, 0], ArrowLeft: [0, -1], ArrowRight: [0, 1] };
           if (e.key === "Enter" || e.key === " ") {
             e.preventDefault();
             choose();
+          } else if (moves[e.key]) {
+            e.preventDefault();
+            const [dr, dc] = moves[e.key];
+            const r2 = Math.min(Math.max(r + dr, 1), maxRow);
+            const c2 = Math.min(Math.max(c + dc, 1), maxCol);
+            host.setSelection(sheet.name, addressOf(r2, c2));
           }
         });
         tr.append(td);

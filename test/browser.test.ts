@@ -143,6 +143,15 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
     await eventually(() => page.locator('td[data-address="B36"]').getAttribute("class"), (c) => Boolean(c?.includes("selected")), "B36 selected");
   });
 
+  it("moves the selection with the arrow keys", async () => {
+    await page.getByRole("tab", { name: "This cell" }).click();
+    await selectCell(page, "Calc", "B9");
+    await page.keyboard.press("ArrowDown");
+    await page.locator(".cell-address", { hasText: "Calc!B10" }).waitFor();
+    await page.keyboard.press("ArrowRight");
+    await page.locator(".cell-address", { hasText: "Calc!C10" }).waitFor();
+  });
+
   it("draws the pump and system curves with the operating point for a duty-point cell", async () => {
     await page.getByRole("tab", { name: "This cell" }).click();
     await selectCell(page, "Calc", "B28");
