@@ -87,15 +87,15 @@ interface RefLike {
 function howWhy(r: ArgReading): { unit: string; why: string } {
   switch (r.how) {
     case "base unit":
-      return { unit: r.unit, why: "bare number: read in the base unit" };
+      return { unit: r.unit, why: "bare number, so the base unit" };
     case "text quantity":
-      return { unit: r.unit, why: "text quantity: unit written with the number" };
+      return { unit: r.unit, why: "unit written with the number" };
     case "percent":
       return { unit: "%", why: "percent text" };
     case "default":
-      return { unit: r.unit, why: "left out: default used" };
+      return { unit: r.unit, why: "left out, so the default" };
     case "table":
-      return { unit: "", why: "table: units from its header row (base units without one)" };
+      return { unit: "", why: "units from the header row (base units without one)" };
     default:
       return { unit: "", why: r.how };
   }

@@ -67,7 +67,7 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
         "tr",
         "",
         el("td", "", el("span", "name", a.name), el("br"), el("code", "written", a.written || "(left out)")),
-        el("td", "", el("span", "read", a.value), el("br"), el("span", "why", a.unit ? `${a.unit}: ${a.why}` : a.why)),
+        el("td", "", el("span", "read", a.value), el("br"), el("span", "why", a.unit ? `${a.unit} · ${a.why}` : a.why)),
         el("td", "base", a.base),
       ),
     );

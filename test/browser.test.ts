@@ -100,7 +100,7 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
     const rows = card.locator("table.args tr");
     await containsText(rows.nth(1), "Inputs!B10");
     await containsText(rows.nth(1), "4.8 bar");
-    await containsText(rows.nth(1), "bar: text quantity");
+    await containsText(rows.nth(1), "bar · unit written with the number");
     await containsText(rows.nth(1), "480000 Pa");
     await containsText(card.locator(".result"), "49.1281 m");
     await page.screenshot({ path: join(shots, "pane-cell-view.png") });

@@ -31,7 +31,7 @@ describe("cell explanation", () => {
     // 2 bar = 20.3943 m of water at 1000 kg/m³; the outer HEAD takes water at 20 °C (998.206 kg/m³): 20.431 m.
     expect(e.calls[0].resultRequested).toBe("67.0308 ft");
     expect(e.calls[0].resultBase).toBe("20.431 m");
-    expect(e.calls[0].args.find((a) => a.name === "density")).toMatchObject({ written: "", why: "left out: default used" });
+    expect(e.calls[0].args.find((a) => a.name === "density")).toMatchObject({ written: "", why: "left out, so the default" });
   });
   it("shows a range with header units as a table with its columns' units", async () => {
     const host = new MemoryHost(await demo());
