@@ -4,6 +4,7 @@ import { CATALOG } from "../functions/catalog";
 import * as bindings from "../functions/functions";
 import { bindingName } from "../scripts/generate";
 import ExcelJS from "exceljs";
+import katex from "katex";
 import { exampleFormula } from "../functions/catalog/_formula";
 import { recalculate } from "../headless/recalc";
 import { fromExcelJS } from "../headless/workbook";
@@ -29,6 +30,12 @@ describe("catalogue", () => {
       const firstOptional = s.params.findIndex((p) => p.optional);
       if (firstOptional >= 0) expect(s.params.slice(firstOptional).every((p) => p.optional), s.id).toBe(true);
       for (const p of s.params) if (p.kind === "unit" && p.optional) expect(p.name).toMatch(/^(unit|\w+_unit)$/);
+    }
+  });
+  it("gives every function an equation KaTeX can typeset, with no stray control characters", () => {
+    for (const s of CATALOG) {
+      expect(s.equation, s.id).not.toMatch(/[\u0000-\u001f]/);
+      expect(() => katex.renderToString(s.equation, { throwOnError: true, output: "mathml" }), s.id).not.toThrow();
     }
   });
   it("has a worksheet binding for every spec and a spec for every binding", () => {

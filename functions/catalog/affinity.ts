@@ -9,7 +9,7 @@ const curveParam: TableParam = { name: "curve", kind: "table", table: "curve", d
 const dutyFlow: QuantityParam = { name: "flow", kind: "quantity", dim: "flow", description: "Duty flow." };
 const dutyHead: QuantityParam = { name: "head", kind: "quantity", dim: "length", description: "Duty head." };
 const headOf = (a: Args) => curveColumn("curve", curveFromTable("curve", a.curve as Table), "head");
-const RATIO_EQUATION = String.raw`r^2\,H_c\!\left(rac{Q}{r}ight) = H \quad \Rightarrow \quad r`;
+const RATIO_EQUATION = String.raw`r^2\,H_c\!\left(\frac{Q}{r}\right) = H \quad \Rightarrow \quad r`;
 /** Invented curve on the parabola H = 52 − 12000·Q² (m, m³/s), for hand-checkable examples. */
 const PARABOLA = [0, 0.01, 0.02, 0.03, 0.04, 0.05].map((q) => [q, 52 - 12000 * q * q]);
 /** On that parabola the ratio through (Q, H) is √((H + 12000·Q²)/52). */
