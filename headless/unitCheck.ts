@@ -104,8 +104,13 @@ export function implausibleMagnitudes(spec: FunctionSpec, evaluation: Evaluation
     findings.push({
       arg: p.name,
       ref: where,
-      message: `${p.name} is a bare ${reading.value} read as ${reading.value} ${DIMENSIONS[p.dim].baseLabel}, an implausible ${DIMENSIONS[p.dim].noun.replace(/^an? /, "")} (usual: ${range[0]} to ${range[1]} ${DIMENSIONS[p.dim].baseLabel}); if another unit was meant, write it with the number, such as ${DIMENSIONS[p.dim].example}.`,
+      message: `${p.name} is a bare ${short(reading.value)} read as ${short(reading.value)} ${DIMENSIONS[p.dim].baseLabel}, an implausible ${DIMENSIONS[p.dim].noun.replace(/^an? /, "")} (usual: ${range[0]} to ${range[1]} ${DIMENSIONS[p.dim].baseLabel}); if another unit was meant, write it with the number, such as ${DIMENSIONS[p.dim].example}.`,
     });
   });
   return findings;
+}
+
+/** Six significant figures, as people read numbers. */
+function short(x: number): string {
+  return String(Number(x.toPrecision(6)));
 }

@@ -35,7 +35,7 @@ export const specs: FunctionSpec[] = [
     topic: "surge",
     purpose: "Pressure rise from a sudden change of velocity (Joukowsky).",
     params: [
-      { name: "wave_speed", kind: "quantity", dim: "velocity", description: "Pressure-wave speed, from NAPPE.SURGE.WAVESPEED." },
+      { name: "wave_speed", kind: "quantity", dim: "velocity", description: "Pressure-wave speed, from NAPPE.SURGE.WAVESPEED.", plausible: [50, 2000] },
       { name: "velocity_change", kind: "quantity", dim: "velocity", description: "Change of mean velocity, such as the full velocity for a fast valve closure." },
       densityParam,
       unitParam('"kPa" or "psi"'),
