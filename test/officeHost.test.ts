@@ -1,0 +1,144 @@
+/**
+ * The Office.js adapter against a small in-memory stand-in for Excel's JavaScript API (no Excel
+ * runs here). It checks the adapter's own mapping: formulas without "=", values, number formats,
+ * labels, writes, the formula scan and the audit sheet. It cannot check Excel itself.
+ */
+import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import { addressOf, parseAddress } from "../headless/address";
+import { OfficeHost } from "../taskpane/host/office";
+
+type Cell = { formula?: string; value: unknown; format?: string };
+class FakeSheet {
+  cells = new Map<string, Cell>();
+  deleted = false;
+  frozenRows = 0;
+  pageLayout: Record<string, unknown> = {};
+  constructor(public name: string) {}
+  get freezePanes() {
+    return { freezeRows: (n: number) => (this.frozenRows = n) };
+  }
+  getRange(address: string) {
+    const [a, b] = address.split(":");
+    const from = parseAddress(a);
+    const to = parseAddress(b ?? a);
+    return new FakeRange(this, from.row, from.col, to.row - from.row + 1, to.col - from.col + 1);
+  }
+  getRangeByIndexes(r: number, c: number, rows: number, cols: number) {
+    return new FakeRange(this, r + 1, c + 1, rows, cols);
+  }
+  getUsedRangeOrNullObject() {
+    const keys = [...this.cells.keys()].map((k) => parseAddress(k));
+    if (!keys.length) return { isNullObject: true, load() {} };
+    const maxR = Math.max(...keys.map((k) => k.row));
+    const maxC = Math.max(...keys.map((k) => k.col));
+    const r = new FakeRange(this, 1, 1, maxR, maxC);
+    return Object.assign(r, { isNullObject: false, rowIndex: 0, columnIndex: 0 });
+  }
+  activate() {}
+  delete() {
+    this.deleted = true;
+  }
+  load() {}
+}
+class FakeRange {
+  format = { wrapText: false, verticalAlignment: "", font: { bold: false, color: "" }, fill: { color: "" }, columnWidth: 0 };
+  constructor(public sheet: FakeSheet, public row: number, public col: number, public rows: number, public cols: number) {}
+  load() {}
+  select() {
+    fake.selected = { sheet: this.sheet.name, address: addressOf(this.row, this.col) };
+  }
+  get address() {
+    return `${this.sheet.name}!${addressOf(this.row, this.col)}`;
+  }
+  get worksheet() {
+    return this.sheet;
+  }
+  private grid<T>(f: (c: Cell | undefined) => T): T[][] {
+    return Array.from({ length: this.rows }, (_, i) => Array.from({ length: this.cols }, (_, j) => f(this.sheet.cells.get(addressOf(this.row + i, this.col + j)))));
+  }
+  get values() {
+    return this.grid((c) => (c ? c.value : ""));
+  }
+  set values(v: unknown[][]) {
+    v.forEach((row, i) => row.forEach((x, j) => this.sheet.cells.set(addressOf(this.row + i, this.col + j), { value: x })));
+  }
+  get formulas() {
+    return this.grid((c) => (c?.formula ? `=${c.formula}` : c ? c.value : ""));
+  }
+  set formulas(v: string[][]) {
+    v.forEach((row, i) => row.forEach((x, j) => this.sheet.cells.set(addressOf(this.row + i, this.col + j), { formula: x.replace(/^=/, ""), value: 0 })));
+  }
+  get numberFormat() {
+    return this.grid((c) => c?.format ?? "General");
+  }
+  set numberFormat(_v: string[][]) {}
+}
+const fake = { sheets: [] as FakeSheet[], active: { sheet: "Calc", address: "B2" }, selected: undefined as undefined | { sheet: string; address: string }, handlers: [] as (() => void)[] };
+
+function install() {
+  const sheetByName = (n: string) => fake.sheets.find((s) => s.name === n && !s.deleted)!;
+  const context = {
+    workbook: {
+      getActiveCell: () => sheetByName(fake.active.sheet).getRange(fake.active.address),
+      onSelectionChanged: { add: (h: () => void) => fake.handlers.push(h) },
+      worksheets: {
+        getItem: sheetByName,
+        getItemOrNullObject: (n: string) => sheetByName(n) ?? { isNullObject: true },
+        add: (n: string) => {
+          const s = new FakeSheet(n);
+          fake.sheets.push(s);
+          return s;
+        },
+        load() {},
+        get items() {
+          return fake.sheets.filter((s) => !s.deleted);
+        },
+      },
+    },
+    sync: async () => {},
+  };
+  (globalThis as Record<string, unknown>).Excel = { run: async (f: (c: typeof context) => unknown) => f(context), PageOrientation: { landscape: "Landscape" } };
+  const calc = new FakeSheet("Calc");
+  calc.cells.set("A1", { value: "Flow (gpm)" });
+  calc.cells.set("B1", { value: 400, format: '0 "gpm"' });
+  calc.cells.set("B2", { formula: 'NAPPE.VELOCITY(B1&" gpm", "4 in")', value: 3.11 });
+  calc.cells.set("B3", { formula: "B2*2", value: 6.22 });
+  fake.sheets = [calc];
+}
+
+describe("Office.js adapter (against a stand-in for Excel's API)", () => {
+  beforeEach(install);
+  afterEach(() => delete (globalThis as Record<string, unknown>).Excel);
+
+  it("reads the selection, formulas without '=', values and number formats", async () => {
+    const host = new OfficeHost();
+    expect(await host.selection()).toEqual({ sheet: "Calc", address: "B2" });
+    expect(await host.cell("Calc", "B2")).toEqual({ formula: 'NAPPE.VELOCITY(B1&" gpm", "4 in")', value: 3.11, numberFormat: undefined });
+    expect(await host.cell("Calc", "B1")).toEqual({ formula: undefined, value: 400, numberFormat: '0 "gpm"' });
+  });
+  it("finds the label to the left", async () => {
+    expect(await new OfficeHost().labelsNear("Calc", "B1")).toEqual(["Flow (gpm)"]);
+  });
+  it("writes a formula with '='", async () => {
+    await new OfficeHost().setFormula("Calc", "C5", "NAPPE.HEAD(1)");
+    expect(fake.sheets[0].cells.get("C5")!.formula).toBe("NAPPE.HEAD(1)");
+  });
+  it("lists only the NAPPE formulas", async () => {
+    const cells = await new OfficeHost().nappeFormulaCells();
+    expect(cells).toEqual([{ sheet: "Calc", address: "B2", formula: 'NAPPE.VELOCITY(B1&" gpm", "4 in")', value: 3.11 }]);
+  });
+  it("selects a cell", async () => {
+    await new OfficeHost().select("Calc", "B3");
+    expect(fake.selected).toEqual({ sheet: "Calc", address: "B3" });
+  });
+  it("writes the audit sheet as text with a frozen header row, replacing an older one", async () => {
+    const host = new OfficeHost();
+    await host.writeSheet("Nappe audit", [["title"], ["Sheet", "Cell"], ["Calc", "B2"]], { headerRow: 1, widths: [10, 5] });
+    await host.writeSheet("Nappe audit", [["title"], ["Sheet", "Cell"], ["Calc", "B3"]], { headerRow: 1, widths: [10, 5] });
+    const live = fake.sheets.filter((s) => s.name === "Nappe audit" && !s.deleted);
+    expect(live).toHaveLength(1);
+    expect(live[0].cells.get("B3")!.value).toBe("B3");
+    expect(live[0].frozenRows).toBe(2);
+    expect(fake.sheets.find((s) => s.name === "Calc")!.cells.size).toBe(4);
+  });
+});
