@@ -65,13 +65,13 @@ class FakeRange {
   get formulas() {
     return this.grid((c) => (c?.formula ? `=${c.formula}` : c ? c.value : ""));
   }
-  set formulas(v: string[][]) {
-    v.forEach((row, i) => row.forEach((x, j) => this.sheet.cells.set(addressOf(this.row + i, this.col + j), { formula: x.replace(/^=/, ""), value: 0 })));
+  set formulas(v: unknown[][]) {
+    v.forEach((row, i) => row.forEach((x, j) => this.sheet.cells.set(addressOf(this.row + i, this.col + j), { formula: String(x).replace(/^=/, ""), value: 0 })));
   }
   get numberFormat() {
     return this.grid((c) => c?.format ?? "General");
   }
-  set numberFormat(_v: string[][]) {}
+  set numberFormat(_v: unknown[][]) {}
 }
 const fake = { sheets: [] as FakeSheet[], active: { sheet: "Calc", address: "B2" }, selected: undefined as undefined | { sheet: string; address: string }, handlers: [] as (() => void)[] };
 
