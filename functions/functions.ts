@@ -242,7 +242,7 @@ export function systemCurve(static_head: any, segments: any[][], max_flow: any, 
  * Head of a pump at a flow, read from its curve.
  * @customfunction PUMP.HEAD
  * @param flow Volume flow rate.
- * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
  * @param unit Unit of the result, such as "ft" or "m"; base unit when left out.
  * @param fit "pchip" (default: monotone cubic through the points), "quadratic" or "cubic" (least squares).
  * @returns Head, m.
@@ -255,7 +255,7 @@ export function pumpHead(flow: any, curve: any[][], unit?: any, fit?: any): numb
  * Efficiency of a pump at a flow, read from its curve's efficiency column.
  * @customfunction PUMP.EFFICIENCY
  * @param flow Volume flow rate.
- * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
  * @param fit "pchip" (default: monotone cubic through the points), "quadratic" or "cubic" (least squares).
  * @returns Efficiency as a fraction (0.76).
  */
@@ -267,7 +267,7 @@ export function pumpEfficiency(flow: any, curve: any[][], fit?: any): number {
  * NPSH required by a pump at a flow, read from its curve's NPSHr column.
  * @customfunction PUMP.NPSHR
  * @param flow Volume flow rate.
- * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
  * @param unit Unit of the result, such as "ft" or "m"; base unit when left out.
  * @param fit "pchip" (default: monotone cubic through the points), "quadratic" or "cubic" (least squares).
  * @returns NPSHr, m.
@@ -280,7 +280,7 @@ export function pumpNpshr(flow: any, curve: any[][], unit?: any, fit?: any): num
  * Shaft power of a pump at a flow: from the curve's power column, or ρgQH/η from its head and efficiency.
  * @customfunction PUMP.POWER
  * @param flow Volume flow rate.
- * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
  * @param density Liquid density; water at 20 °C when left out.
  * @param unit Unit of the result, such as "kW" or "hp"; base unit when left out.
  * @returns Shaft power, W.
@@ -292,7 +292,7 @@ export function pumpPower(flow: any, curve: any[][], density?: any, unit?: any):
 /**
  * Operating point where the pump curve meets the system curve; spills flow and head.
  * @customfunction PUMP.DUTY
- * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
  * @param static_head Static head: rise from suction surface to discharge, plus any pressure difference as head.
  * @param system Resistance k in H = Hs + k·Q² (s²/m⁵), or a segments table (Length, ID, Roughness, K).
  * @param kinematic_viscosity Liquid kinematic viscosity; water at 20 °C when left out.
@@ -307,7 +307,7 @@ export function pumpDuty(curve: any[][], static_head: any, system: any[][], kine
 /**
  * A pump curve scaled by the affinity laws for a speed (or small diameter) ratio; spills the new curve.
  * @customfunction PUMP.SCALE
- * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
  * @param ratio Speed ratio N2/N1 (or impeller diameter ratio for small trims).
  * @returns The curve with flow × r, head and NPSHr × r², power × r³, efficiency unchanged; same columns, header and units.
  */
@@ -318,7 +318,7 @@ export function pumpScale(curve: any[][], ratio: any): any[][] {
 /**
  * Curve of identical pumps in parallel (flows add) or series (heads add); spills the combined curve.
  * @customfunction PUMP.COMBINE
- * @param curve Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
  * @param count Number of identical pumps running, 1 or more.
  * @param arrangement "parallel" or "series".
  * @returns The combined curve; same columns, header and units.
@@ -356,7 +356,7 @@ export function affinity(value: any, kind: any, ratio: any, unit?: any): number 
 /**
  * Speed or diameter ratio r that moves a pump curve through a duty point by the affinity laws.
  * @customfunction AFFINITY.RATIO
- * @param curve Pump curve range (Flow, Head, ...) at the curve's impeller and speed; a header sets units.
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
  * @param flow Duty flow.
  * @param head Duty head.
  * @returns Ratio r = N2/N1 (or D2/D1).
@@ -368,7 +368,7 @@ export function affinityRatio(curve: any[][], flow: any, head: any): number {
 /**
  * Trimmed impeller diameter that meets a duty point, by the affinity laws.
  * @customfunction TRIM
- * @param curve Pump curve range (Flow, Head, ...) at the curve's impeller and speed; a header sets units.
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
  * @param diameter Impeller diameter of the curve.
  * @param flow Duty flow.
  * @param head Duty head.
@@ -382,7 +382,7 @@ export function trim(curve: any[][], diameter: any, flow: any, head: any, unit?:
 /**
  * Pump speed that meets a duty point, by the affinity laws.
  * @customfunction SPEED
- * @param curve Pump curve range (Flow, Head, ...) at the curve's impeller and speed; a header sets units.
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
  * @param speed Speed of the curve, rpm.
  * @param flow Duty flow.
  * @param head Duty head.

@@ -1,7 +1,7 @@
 /** Parameter and text pieces several specs share. */
 import { DEFAULT_PRESSURE_PA, DEFAULT_TEMPERATURE_C } from "../calc/_lib/constants";
 import { waterDensity, waterKinematicViscosity } from "../calc/water";
-import type { QuantityParam, UnitParam } from "./types";
+import type { QuantityParam, TableParam, UnitParam } from "./types";
 
 /** A value computed on first use and kept (for defaults that never change). */
 function once(compute: () => number): () => number {
@@ -48,3 +48,14 @@ export const CAVITATION_CAUTION =
   "Cavitation destroys impellers and can cause sudden loss of flow; keep a margin over NPSHr as the pump maker and ANSI/HI 9.6.1 advise.";
 export const JET_CAUTION =
   "Jets and water features in public places can injure people and spread waterborne disease; follow local codes for public water features.";
+
+/** A pump curve table argument, shared by the pump and affinity functions. */
+export const curveParam: TableParam = {
+  name: "curve",
+  kind: "table",
+  table: "curve",
+  description: 'Pump curve range at the curve\'s impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column\'s unit.',
+};
+
+/** Invented example curve on the parabola H = 52 − 12000·Q² (m, m³/s), for hand-checkable examples. */
+export const PARABOLA_CURVE = [0, 0.01, 0.02, 0.03, 0.04, 0.05].map((q) => [q, 52 - 12000 * q * q]);

@@ -2,16 +2,13 @@ import { AFFINITY_KINDS, type AffinityKind, affinityRatioThrough, affinityScale,
 import type { Table } from "../bind/table";
 import { curveColumn, curveFromTable } from "./_tables";
 import type { Dimension } from "../units/dimensions";
-import { DESIGN_AID, unitParam } from "./_shared";
-import type { Args, FunctionSpec, QuantityParam, TableParam } from "./types";
+import { curveParam, DESIGN_AID, PARABOLA_CURVE, unitParam } from "./_shared";
+import type { Args, FunctionSpec, QuantityParam } from "./types";
 
-const curveParam: TableParam = { name: "curve", kind: "table", table: "curve", description: "Pump curve range (Flow, Head, ...) at the curve's impeller and speed; a header sets units." };
 const dutyFlow: QuantityParam = { name: "flow", kind: "quantity", dim: "flow", description: "Duty flow." };
 const dutyHead: QuantityParam = { name: "head", kind: "quantity", dim: "length", description: "Duty head." };
 const headOf = (a: Args) => curveColumn("curve", curveFromTable("curve", a.curve as Table), "head");
 const RATIO_EQUATION = String.raw`r^2\,H_c\!\left(\frac{Q}{r}\right) = H \quad \Rightarrow \quad r`;
-/** Invented curve on the parabola H = 52 − 12000·Q² (m, m³/s), for hand-checkable examples. */
-const PARABOLA = [0, 0.01, 0.02, 0.03, 0.04, 0.05].map((q) => [q, 52 - 12000 * q * q]);
 /** On that parabola the ratio through (Q, H) is √((H + 12000·Q²)/52). */
 const PARABOLA_RATIO = Math.sqrt((35 + 12000 * 0.03 ** 2) / 52);
 const PARABOLA_SOURCE = "Hand calculation on the parabola H = 52 − 12000Q²: r = √((H + 12000Q²)/52) = 0.93849 for 0.03 m³/s at 35 m (PCHIP through its points)";
@@ -54,7 +51,7 @@ export const specs: FunctionSpec[] = [
     validity: ["An error when no ratio moves the curve through the duty while staying on its flow range."],
     cautions: [DESIGN_AID],
     sources: ["Affinity laws; ANSI/HI 1.3", "Brent (1973) root finding"],
-    examples: [{ args: [PARABOLA as never, 0.03, 35], expect: PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
+    examples: [{ args: [PARABOLA_CURVE as never, 0.03, 35], expect: PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
     compute: (a) => affinityRatioThrough(headOf(a), a.flow as number, a.head as number),
   },
   {
@@ -68,7 +65,7 @@ export const specs: FunctionSpec[] = [
     validity: ["A duty above the full-diameter curve is an error (a trim cannot add diameter).", "Trims deeper than about 10 % warn; below about 75 % of the diameter warn more strongly (common practice)."],
     cautions: [DESIGN_AID, "Trim in steps and test: an over-trimmed impeller cannot be restored."],
     sources: ["Affinity laws for impeller trimming; ANSI/HI 1.3 (common practice limits)"],
-    examples: [{ args: [PARABOLA as never, "250 mm", 0.03, 35, "mm"], expect: 250 * PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
+    examples: [{ args: [PARABOLA_CURVE as never, "250 mm", 0.03, 35, "mm"], expect: 250 * PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
     compute: (a) => trimDiameter(headOf(a), a.diameter as number, a.flow as number, a.head as number),
   },
   {
@@ -82,7 +79,7 @@ export const specs: FunctionSpec[] = [
     validity: ["Speeds above the curve's warn (maker's limit, motor power)."],
     cautions: [DESIGN_AID],
     sources: ["Affinity laws; ANSI/HI 1.3"],
-    examples: [{ args: [PARABOLA as never, 1750, 0.03, 35], expect: 1750 * PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
+    examples: [{ args: [PARABOLA_CURVE as never, 1750, 0.03, 35], expect: 1750 * PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
     compute: (a) => speedForDuty(headOf(a), a.speed as number, a.flow as number, a.head as number),
   },
 ];

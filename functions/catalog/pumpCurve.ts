@@ -5,16 +5,10 @@ import { hydraulicPower } from "../calc/power";
 import { CalcError, ok } from "../calc/_lib/result";
 import { fromBase } from "../units/quantity";
 import type { Table } from "../bind/table";
-import { CAVITATION_CAUTION, DESIGN_AID, densityParam, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
+import { CAVITATION_CAUTION, curveParam, DESIGN_AID, densityParam, PARABOLA_CURVE, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
 import { curveColumn, curveFromTable, impellersFromTable, spillHeader, spillTable, systemLosses } from "./_tables";
-import type { Args, ChoiceParam, FunctionSpec, ParamSpec, TableParam } from "./types";
+import type { Args, ChoiceParam, FunctionSpec, ParamSpec } from "./types";
 
-const curveParam: TableParam = {
-  name: "curve",
-  kind: "table",
-  table: "curve",
-  description: 'Pump curve range: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column\'s unit.',
-};
 const fitParam: ChoiceParam = {
   name: "fit",
   kind: "choice",
@@ -45,8 +39,6 @@ const CURVE_US = [
   [300, 80, 76, 11],
   [400, 60, 70, 16],
 ];
-/** Invented curve on the parabola H = 52 − 12000·Q² (m, m³/s), for hand-checkable examples. */
-const PARABOLA = [0, 0.01, 0.02, 0.03, 0.04, 0.05].map((q) => [q, 52 - 12000 * q * q]);
 
 const curveOf = (a: Args) => curveFromTable("curve", a.curve as Table);
 const fitOf = (a: Args) => (a.fit as CurveFit | undefined) ?? "pchip";
@@ -143,7 +135,7 @@ export const specs: FunctionSpec[] = [
     sources: ["Brent, R. P. (1973), Algorithms for Minimization without Derivatives, ch. 4 (root finding)", PCHIP_SOURCE],
     examples: [
       {
-        args: [PARABOLA as never, 20, 10000],
+        args: [PARABOLA_CURVE as never, 20, 10000],
         expect: [[Math.sqrt(32 / 22000), 20 + (10000 * 32) / 22000]],
         tolerance: 2e-3,
         source: "Hand calculation: 52 − 12000Q² = 20 + 10000Q² gives Q = 0.03814 m³/s, H = 34.55 m (PCHIP through points on the parabola)",
