@@ -9,6 +9,7 @@ import { fileURLToPath } from "node:url";
 import { writeFile } from "node:fs/promises";
 import { join } from "node:path";
 import ExcelJS from "exceljs";
+import { excelStoredForm } from "../headless/excelForm";
 import { recalculate } from "../headless/recalc";
 import { fromExcelJS, parseAddress, addressOf } from "../headless/workbook";
 
@@ -182,7 +183,37 @@ function layout(): ExcelJS.Workbook {
     for (let c = 2; c <= 11; c++) ws.getColumn(c).width = 14;
   }
   calc.getColumn(4).width = 14;
+  calc.getColumn(9).width = 3;
+  pump.getColumn(6).width = 3;
+  pump.getColumn(7).width = 3;
+  inputs.getColumn(4).width = 48;
+  for (let r = 4; r < 4 + INPUTS.length; r++) inputs.getCell(r, 4).alignment = { wrapText: true, vertical: "top" };
+  printSetup(summary, "A1:C16", "portrait");
+  printSetup(inputs, `A1:D${3 + INPUTS.length}`, "portrait", "3:3");
+  printSetup(calc, `A1:K${2 + CALC.length}`, "landscape");
+  printSetup(pump, "A1:K21", "landscape", "3:3");
   return book;
+}
+
+/**
+ * What a printed page shows: the used area only, fitted to one page wide (the sheets are laid
+ * out so that this stays at 60 % or more on A4 and Letter), as many pages tall as needed, with
+ * the header row repeated.
+ */
+function printSetup(ws: ExcelJS.Worksheet, area: string, orientation: "portrait" | "landscape", titles?: string): void {
+  ws.pageSetup = {
+    ...ws.pageSetup,
+    printArea: area,
+    orientation,
+    paperSize: 9,
+    fitToPage: true,
+    fitToWidth: 1,
+    fitToHeight: 0,
+    horizontalCentered: false,
+    margins: { left: 0.5, right: 0.5, top: 0.6, bottom: 0.6, header: 0.3, footer: 0.3 },
+    ...(titles ? { printTitlesRow: titles } : {}),
+  };
+  ws.headerFooter = { oddFooter: "&L&A&RPage &P of &N" };
 }
 
 /** The demo workbook with every formula's result cached from Nappe's recalculation. */
@@ -207,9 +238,14 @@ export async function buildDemoWorkbook(): Promise<ExcelJS.Workbook> {
   return book;
 }
 
-if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+/** The demo workbook as Excel saves it (NAPPE calls in the stored form, the add-in recorded): the file's bytes. */
+export async function demoWorkbookBytes(): Promise<Buffer> {
   const book = await buildDemoWorkbook();
+  return (await excelStoredForm(Buffer.from(await book.xlsx.writeBuffer()))).bytes;
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
   const out = join(fileURLToPath(new URL(".", import.meta.url)), DEMO_FILE);
-  await writeFile(out, Buffer.from(await book.xlsx.writeBuffer()));
+  await writeFile(out, await demoWorkbookBytes());
   console.log(`Wrote ${out}`);
 }

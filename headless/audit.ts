@@ -55,6 +55,8 @@ export interface AuditReport {
   title: string;
   source: string;
   generated: string;
+  /** What the run found and did ("30 NAPPE formulas found in 45 formulas (30 recalculated): …"). */
+  found?: string;
   counts: Record<Status, number>;
   cautions: string[];
   entries: AuditEntry[];
@@ -95,7 +97,7 @@ function written(raw: unknown, ref: string | undefined): string {
 }
 
 /** Builds the audit from recalculated cells. `labels` enables the unit check of referenced cells. */
-export function buildAudit(cells: readonly CellOutcome[], meta: { title: string; source: string; generated?: string }, labels?: LabelSource): AuditReport {
+export function buildAudit(cells: readonly CellOutcome[], meta: { title: string; source: string; generated?: string; found?: string }, labels?: LabelSource): AuditReport {
   const counts: Record<Status, number> = { ok: 0, warning: 0, error: 0 };
   const entries = cells.map((cell): AuditEntry => {
     const messages = [...cell.messages];
@@ -135,32 +137,49 @@ export function buildAudit(cells: readonly CellOutcome[], meta: { title: string;
     counts[status]++;
     return { sheet: cell.sheet, address: cell.address, formula: cell.formula, status, result: `${formatValue(cell.value)}${cell.unit ? ` ${cell.unit}` : ""}`, messages, calls };
   });
-  return { title: meta.title, source: meta.source, generated: meta.generated ?? new Date().toISOString(), counts, cautions: GENERAL_CAUTIONS, entries };
+  return { title: meta.title, source: meta.source, generated: meta.generated ?? new Date().toISOString(), found: meta.found, counts, cautions: GENERAL_CAUTIONS, entries };
 }
 
-/** The audit as rows of text: the audit sheet's layout (header row first). */
-export const AUDIT_COLUMNS = ["Sheet", "Cell", "Formula", "Status", "Result", "Function", "Purpose", "Inputs (as written → as read)", "Assumptions", "Warnings", "Sources", "Cautions"];
+/**
+ * The audit as rows of text: the audit sheet's layout (header row first). Seven columns, so
+ * that the sheet prints one page wide at a readable scale in landscape.
+ */
+export const AUDIT_COLUMNS = ["Cell", "Formula", "Status", "Result", "Function and purpose", "Inputs (as written → as read)", "Warnings, assumptions, sources, cautions"];
+
+/** Column widths of the audit sheet, in characters (about 210 in all: landscape A4 or Letter at 65 % or more). */
+export const AUDIT_WIDTHS = [16, 34, 9, 16, 30, 46, 58];
+
+/** Said at the top of an audit that found nothing to check. */
+export const NOTHING_FOUND = "No NAPPE formulas found in this workbook: nothing was checked.";
 
 export function auditRows(report: AuditReport): string[][] {
   const rows: string[][] = [AUDIT_COLUMNS];
   for (const e of report.entries) {
     const calls = e.calls.length ? e.calls : [undefined];
     calls.forEach((c, i) => {
+      const notes = [
+        ...(c?.error ? [`Error: ${c.error}`] : []),
+        ...(c?.warnings ?? []).map((w) => `Warning: ${w}`),
+        ...(i === 0 && !c ? e.messages : []),
+        ...(c?.assumptions ?? []).map((a) => `Assumes: ${a}`),
+        ...(c?.sources ?? []).map((x) => `Source: ${x}`),
+        ...(c?.cautions ?? []).map((x) => `Caution: ${x}`),
+      ];
       rows.push([
-        i === 0 ? e.sheet : "",
-        i === 0 ? e.address : "",
+        i === 0 ? `${e.sheet}!${e.address}` : "",
         i === 0 ? e.formula : "",
         i === 0 ? e.status : "",
         i === 0 ? e.result : "",
-        c ? `NAPPE.${c.id}` : "",
-        c?.purpose ?? "",
+        c ? `NAPPE.${c.id}: ${c.purpose}` : "",
         c ? c.inputs.map((x) => `${x.name}: ${x.written} → ${x.read}${x.how ? ` [${x.how}]` : ""}`).join("\n") : "",
-        c ? c.assumptions.join("\n") : "",
-        [...(c?.error ? [`Error: ${c.error}`] : []), ...(c?.warnings ?? []), ...(i === 0 && !c ? e.messages : [])].join("\n"),
-        c ? c.sources.join("\n") : "",
-        c ? c.cautions.join("\n") : "",
+        notes.join("\n"),
       ]);
     });
   }
   return rows;
+}
+
+/** Lines a text takes in a wrapped cell of the given width (characters), for row heights. */
+export function wrappedLines(text: string, width: number): number {
+  return text.split("\n").reduce((n, line) => n + Math.max(1, Math.ceil((line.length * 1.1) / Math.max(1, width - 1))), 0);
 }

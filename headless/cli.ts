@@ -1,29 +1,44 @@
 /**
- * nappe: recalculate and audit NAPPE workbooks outside Excel.
+ * nappe: recalculate and audit NAPPE workbooks outside Excel, and write hand-off copies.
  *
- *   nappe recalc <workbook.xlsx> [--tolerance 1e-6] [--all]
- *   nappe audit  <workbook.xlsx> [--html report.html] [--xlsx audit.xlsx]
- *   nappe demo   [--out folder]
+ *   nappe recalc  <workbook.xlsx> [--tolerance 1e-6] [--all] [--allow-empty]
+ *   nappe audit   <workbook.xlsx> [--html report.html] [--xlsx audit.xlsx] [--allow-empty]
+ *   nappe handoff <workbook.xlsx> [--out copy.xlsx]
+ *   nappe demo    [--out folder]
+ *   (every command reading a workbook also takes --max-seconds 60 --max-memory 1024)
  *
  * Exit status: 0 when every NAPPE cell is ok or only warns; 1 when one errors or differs from
- * the value cached in the file; 2 for a usage error or a file that cannot be read.
+ * the value cached in the file; 2 for a usage error, a file that cannot be read, or a run over
+ * its time or memory budget; 3 when the workbook holds no NAPPE formula (0 with --allow-empty).
  */
-import { mkdir, rename, writeFile } from "node:fs/promises";
-import { basename, dirname, extname, join, resolve } from "node:path";
+import { basename, extname, join, resolve } from "node:path";
+import { parseArgs as parseCommandLine } from "node:util";
 import cliProgress from "cli-progress";
 import ExcelJS from "exceljs";
 import { buildAudit, formatValue } from "./audit";
-import { buildDemoWorkbook, DEMO_FILE } from "../demo/build";
+import { demoWorkbookBytes, DEMO_FILE } from "../demo/build";
+import { writeAtomically } from "./atomic";
+import { writeHandoff } from "./handoff";
+import { Budget, DEFAULT_LIMITS, type Limits } from "./package";
 import { recalculate, type RecalcResult } from "./recalc";
 import { addAuditSheet, renderHtml, renderTable } from "./render";
-import { labelSource, readWorkbook, type WorkbookModel, WorkbookError } from "./workbook";
+import { BudgetError, labelSource, readWorkbook, type WorkbookModel, WorkbookError } from "./workbook";
 
 class UsageError extends Error {}
 
 const USAGE = `Usage:
-  nappe recalc <workbook.xlsx> [--tolerance 1e-6] [--all]
-  nappe audit  <workbook.xlsx> [--html report.html] [--xlsx audit.xlsx]
-  nappe demo   [--out folder]`;
+  nappe recalc  <workbook.xlsx> [--tolerance 1e-6] [--all] [--allow-empty]
+  nappe audit   <workbook.xlsx> [--html report.html] [--xlsx audit.xlsx] [--allow-empty]
+  nappe handoff <workbook.xlsx> [--out copy.xlsx]
+  nappe demo    [--out folder]
+Options for every command that reads a workbook:
+  --max-seconds 60   time budget for reading and recalculating one file
+  --max-memory 1024  memory budget in MB
+Exit status: 0 ok or warnings only; 1 an error or a value that differs from the file's cache;
+2 usage, unreadable file or budget exceeded; 3 no NAPPE formula found (0 with --allow-empty).`;
+
+/** The workbook holds no NAPPE formula. */
+export const EXIT_EMPTY = 3;
 
 /** Formulas above this count get a progress bar on a terminal. */
 const PROGRESS_FROM = 300;
@@ -31,37 +46,57 @@ const PROGRESS_FROM = 300;
 interface Options {
   command: string;
   file?: string;
-  flags: Map<string, string | true>;
+  flags: {
+    tolerance?: string;
+    html?: string;
+    xlsx?: string;
+    out?: string;
+    all?: boolean;
+    "allow-empty"?: boolean;
+    "max-seconds"?: string;
+    "max-memory"?: string;
+  };
 }
 
 function parseArgs(argv: string[]): Options {
   const [command, ...rest] = argv;
   if (!command || command === "--help" || command === "-h") throw new UsageError(USAGE);
-  const flags = new Map<string, string | true>();
-  let file: string | undefined;
-  for (let i = 0; i < rest.length; i++) {
-    const a = rest[i];
-    if (a.startsWith("--")) {
-      const next = rest[i + 1];
-      if (["--tolerance", "--html", "--xlsx", "--out"].includes(a)) {
-        if (next === undefined) throw new UsageError(`${a} needs a value\n\n${USAGE}`);
-        flags.set(a, next);
-        i++;
-      } else if (a === "--all") flags.set(a, true);
-      else throw new UsageError(`unknown option ${a}\n\n${USAGE}`);
-    } else if (!file) file = a;
-    else throw new UsageError(`one workbook at a time; got ${file} and ${a}`);
+  let parsed;
+  try {
+    parsed = parseCommandLine({
+      args: rest,
+      allowPositionals: true,
+      strict: true,
+      options: {
+        tolerance: { type: "string" },
+        html: { type: "string" },
+        xlsx: { type: "string" },
+        out: { type: "string" },
+        all: { type: "boolean" },
+        "allow-empty": { type: "boolean" },
+        "max-seconds": { type: "string" },
+        "max-memory": { type: "string" },
+      },
+    });
+  } catch (e) {
+    throw new UsageError(`${e instanceof Error ? e.message : String(e)}\n\n${USAGE}`);
   }
-  return { command, file, flags };
+  const [file, extra] = parsed.positionals;
+  if (extra !== undefined) throw new UsageError(`one workbook at a time; got ${file} and ${extra}`);
+  return { command, file, flags: parsed.values };
 }
 
-/** Writes a file atomically: a temporary file beside it, then a rename. */
-export async function writeAtomically(path: string, data: string | Buffer): Promise<void> {
-  await mkdir(dirname(path), { recursive: true });
-  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.tmp`);
-  await writeFile(tmp, data);
-  await rename(tmp, path);
+function positiveNumber(flag: string, text: string | undefined, fallback: number): number {
+  if (text === undefined) return fallback;
+  const n = Number(text);
+  if (!(n > 0) || !Number.isFinite(n)) throw new UsageError(`--${flag} must be a number above zero; got ${text}`);
+  return n;
 }
+
+function limitsOf(flags: Options["flags"]): Limits {
+  return { seconds: positiveNumber("max-seconds", flags["max-seconds"], DEFAULT_LIMITS.seconds), megabytes: positiveNumber("max-memory", flags["max-memory"], DEFAULT_LIMITS.megabytes) };
+}
+
 
 function progressFor(total: number): { update(done: number): void; stop(): void } {
   if (total < PROGRESS_FROM || !process.stderr.isTTY) return { update() {}, stop() {} };
@@ -70,27 +105,43 @@ function progressFor(total: number): { update(done: number): void; stop(): void 
   return { update: (d) => bar.update(d), stop: () => bar.stop() };
 }
 
-function run(wb: WorkbookModel, flags: Options["flags"]): RecalcResult {
-  const tol = flags.get("--tolerance");
+async function load(file: string, flags: Options["flags"]): Promise<{ wb: WorkbookModel; result: RecalcResult }> {
+  const limits = limitsOf(flags);
+  const budget = new Budget(limits, file);
+  const wb = await readWorkbook(file, limits);
+  budget.check("reading the workbook");
+  const tol = flags.tolerance;
   const tolerance = tol === undefined ? undefined : Number(tol);
   if (tolerance !== undefined && !(tolerance >= 0)) throw new UsageError(`--tolerance must be a number of zero or more; got ${String(tol)}`);
   const total = wb.sheets.reduce((n, s) => n + [...s.cells.values()].filter((c) => c.formula).length, 0);
   const progress = progressFor(total);
   try {
-    return recalculate(wb, { tolerance, all: flags.has("--all"), onProgress: (d) => progress.update(d) });
+    return { wb, result: recalculate(wb, { tolerance, all: flags.all, budget, onProgress: (d) => progress.update(d) }) };
   } finally {
     progress.stop();
   }
 }
 
-function summaryLine(result: RecalcResult): string {
+/** What the run found and did, in one line: always counts found, recalculated and not. */
+export function summaryLine(result: RecalcResult, all = false): string {
   const n = { ok: 0, warning: 0, error: 0 };
   for (const c of result.cells) n[c.status]++;
-  return `${result.cells.length} NAPPE formulas: ${n.ok} ok, ${n.warning} warning, ${n.error} error`;
+  const k = result.counts;
+  const statuses = `${n.ok} ok, ${n.warning} warning, ${n.error} error`;
+  const done = `${k.recalculated} recalculated${k.notRecalculated ? `, ${k.notRecalculated} could not be` : ""}`;
+  if (all) return `${k.formulas} formulas, ${k.nappe} of them calling NAPPE (${done}): ${statuses}`;
+  return `${k.nappe} NAPPE formulas found in ${k.formulas} formulas (${done}): ${statuses}`;
+}
+
+/** Says loudly that nothing was found; names other add-ins' functions when there are any. */
+function emptyNotice(file: string, result: RecalcResult): string {
+  const k = result.counts;
+  const others = k.otherAddins.length ? `\nIt calls custom functions of another add-in, which Nappe does not recalculate: ${k.otherAddins.join(", ")}.` : "";
+  return `nappe: no NAPPE formulas found in ${file} (${k.formulas} formulas, none calling NAPPE): nothing was checked.${others}`;
 }
 
 async function writeAudit(wb: WorkbookModel, result: RecalcResult, source: string, htmlPath: string, xlsxPath: string, title: string) {
-  const report = buildAudit(result.cells, { title, source }, labelSource(wb));
+  const report = buildAudit(result.cells, { title, source, found: summaryLine(result) }, labelSource(wb));
   await writeAtomically(htmlPath, renderHtml(report));
   const book = new ExcelJS.Workbook();
   addAuditSheet(book, report);
@@ -100,29 +151,53 @@ async function writeAudit(wb: WorkbookModel, result: RecalcResult, source: strin
 
 async function main(argv: string[]): Promise<number> {
   const opts = parseArgs(argv);
+  const { flags } = opts;
   switch (opts.command) {
     case "recalc": {
       if (!opts.file) throw new UsageError(`recalc needs a workbook\n\n${USAGE}`);
-      const wb = await readWorkbook(opts.file);
-      const result = run(wb, opts.flags);
+      const { result } = await load(opts.file, flags);
+      if (result.counts.nappe === 0 && !flags["allow-empty"]) {
+        if (flags.all && result.cells.length) console.log(renderTable(result.cells));
+        console.error(emptyNotice(opts.file, result));
+        return EXIT_EMPTY;
+      }
       console.log(renderTable(result.cells));
-      console.log(`\n${summaryLine(result)}`);
+      console.log(`\n${summaryLine(result, flags.all)}`);
+      if (result.counts.otherAddins.length) console.log(`Not recalculated, another add-in's functions: ${result.counts.otherAddins.join(", ")}`);
       return result.cells.some((c) => c.status === "error") ? 1 : 0;
     }
     case "audit": {
       if (!opts.file) throw new UsageError(`audit needs a workbook\n\n${USAGE}`);
-      const wb = await readWorkbook(opts.file);
-      const result = run(wb, opts.flags);
       const stem = opts.file.slice(0, opts.file.length - extname(opts.file).length);
-      const html = resolve(String(opts.flags.get("--html") ?? `${stem}.audit.html`));
-      const xlsx = resolve(String(opts.flags.get("--xlsx") ?? `${stem}.audit.xlsx`));
+      const html = resolve(flags.html ?? `${stem}.audit.html`);
+      const xlsx = resolve(flags.xlsx ?? `${stem}.audit.xlsx`);
       if ([html, xlsx].includes(resolve(opts.file))) throw new UsageError("the report would overwrite the workbook; choose another --html or --xlsx path");
+      const { wb, result } = await load(opts.file, flags);
+      if (result.counts.nappe === 0 && !flags["allow-empty"]) {
+        console.error(`${emptyNotice(opts.file, result)}\nNo audit written (--allow-empty writes one that says so).`);
+        return EXIT_EMPTY;
+      }
       const report = await writeAudit(wb, result, basename(opts.file), html, xlsx, `Nappe audit of ${basename(opts.file)}`);
-      console.log(`${summaryLine(result)}\nAudit written:\n  ${html}\n  ${xlsx}`);
+      console.log(`${summaryLine(result, flags.all)}\nAudit written:\n  ${html}\n  ${xlsx}`);
+      return report.counts.error ? 1 : 0;
+    }
+    case "handoff": {
+      if (!opts.file) throw new UsageError(`handoff needs a workbook\n\n${USAGE}`);
+      const stem = opts.file.slice(0, opts.file.length - extname(opts.file).length);
+      const out = resolve(flags.out ?? `${stem}.handoff.xlsx`);
+      if (out === resolve(opts.file)) throw new UsageError("the copy would overwrite the workbook; choose another --out path");
+      const { wb, result } = await load(opts.file, flags);
+      if (result.counts.nappe === 0 && !flags["allow-empty"]) {
+        console.error(`${emptyNotice(opts.file, result)}\nNo copy written.`);
+        return EXIT_EMPTY;
+      }
+      const report = buildAudit(result.cells, { title: `Nappe audit of ${basename(opts.file)}`, source: basename(opts.file), found: summaryLine(result) }, labelSource(wb));
+      const frozen = await writeHandoff(opts.file, out, result, report, limitsOf(flags));
+      console.log(`${summaryLine(result)}\nHand-off copy written: ${out}\n  ${frozen.nappe} NAPPE formulas frozen to their values${frozen.other ? `, ${frozen.other} formulas of another add-in frozen to their cached values` : ""}; the original is untouched.`);
       return report.counts.error ? 1 : 0;
     }
     case "demo":
-      return demo(resolve(String(opts.flags.get("--out") ?? "demo-output")));
+      return demo(resolve(flags.out ?? "demo-output"));
     default:
       throw new UsageError(`unknown command "${opts.command}"\n\n${USAGE}`);
   }
@@ -130,11 +205,9 @@ async function main(argv: string[]): Promise<number> {
 
 /** The main job: build the demo workbook, recalculate it, print the sizing summary, write the audit. */
 async function demo(out: string): Promise<number> {
-  const book = await buildDemoWorkbook();
   const path = join(out, DEMO_FILE);
-  await writeAtomically(path, Buffer.from(await book.xlsx.writeBuffer()));
-  const wb = await readWorkbook(path);
-  const result = run(wb, new Map());
+  await writeAtomically(path, await demoWorkbookBytes());
+  const { wb, result } = await load(path, {});
   const summary = wb.sheets.find((s) => s.name === "Summary");
   console.log("Nappe demo: hillside orchard pumping station (invented scenario)\n");
   if (summary) {
@@ -157,18 +230,16 @@ async function demo(out: string): Promise<number> {
   return report.counts.error ? 1 : 0;
 }
 
+// process.exitCode, never process.exit(): the process ends once stdout has drained, so output
+// piped into another program (nappe recalc … | less) is never cut short.
 main(process.argv.slice(2)).then(
-  (code) => process.exit(code),
+  (code) => {
+    process.exitCode = code;
+  },
   (e) => {
-    if (e instanceof UsageError) {
-      console.error(e.message);
-      process.exit(2);
-    }
-    if (e instanceof WorkbookError) {
-      console.error(`nappe: ${e.message}`);
-      process.exit(2);
-    }
-    console.error(`nappe: unexpected failure: ${e instanceof Error ? e.message : String(e)}`);
-    process.exit(2);
+    process.exitCode = 2;
+    if (e instanceof UsageError) console.error(e.message);
+    else if (e instanceof BudgetError || e instanceof WorkbookError) console.error(`nappe: ${e.message}`);
+    else console.error(`nappe: unexpected failure: ${e instanceof Error ? e.message : String(e)}`);
   },
 );

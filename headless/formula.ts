@@ -4,6 +4,7 @@
  * nested calls inside. Used to show arguments "as written" and to apply unit fixes.
  */
 import { lex, type Token } from "fast-formula-parser/grammar/lexing";
+import { dottedName } from "./storedForm";
 
 export interface ArgSite {
   /** Source text of the argument, trimmed ("" when left out). */
@@ -14,7 +15,7 @@ export interface ArgSite {
 }
 
 export interface CallSite {
-  /** Function name as written, upper case, without "(" ("NAPPE.HEAD"). */
+  /** Function name, upper case, without "(": NAPPE calls in the dotted form whichever form was stored ("NAPPE.HEAD"). */
   name: string;
   start: number;
   end: number;
@@ -38,7 +39,8 @@ export function callSites(formula: string): CallSite[] {
   for (const t of tokens as Token[]) {
     const type = t.tokenType.name;
     if (type === "Function") {
-      const call: CallSite = { name: t.image.slice(0, -1).trim().toUpperCase(), start: t.startOffset, end: -1, args: [], children: [] };
+      const written = t.image.slice(0, -1).trim();
+      const call: CallSite = { name: dottedName(written) ?? written.toUpperCase(), start: t.startOffset, end: -1, args: [], children: [] };
       const parent = [...stack].reverse().find((f) => f.call)?.call;
       (parent ? parent.children : roots).push(call);
       stack.push({ call, argStart: t.endOffset + 1 });
@@ -75,4 +77,70 @@ export function evaluationOrder(sites: readonly CallSite[]): CallSite[] {
 /** The formula with one argument's text replaced. */
 export function replaceArgument(formula: string, arg: ArgSite, text: string): string {
   return formula.slice(0, arg.start) + text + formula.slice(arg.end);
+}
+
+/** A reference found in a formula's text: one cell, or a rectangle (whole columns end at the last row). */
+export interface FormulaRef {
+  /** Sheet named in the reference, or undefined for the formula's own sheet. */
+  sheet?: string;
+  from: { row: number; col: number };
+  to: { row: number; col: number };
+}
+
+const MAX_ROW = 1048576;
+const MAX_COL = 16384;
+
+function colNumber(letters: string): number {
+  return [...letters.replace(/\$/g, "").toUpperCase()].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
+}
+
+function sheetOf(image: string): string {
+  const name = image.slice(0, -1);
+  return name.startsWith("'") ? name.slice(1, -1).replace(/''/g, "'") : name;
+}
+
+/**
+ * The cell and range references a formula names in its text (not those reached through
+ * INDIRECT or OFFSET), from the same lexer that evaluates it. Used to order a recalculation.
+ */
+export function references(formula: string): FormulaRef[] {
+  const tokens = (lex(formula).tokens as Token[]).map((t) => ({ type: t.tokenType.name, image: t.image }));
+  const out: FormulaRef[] = [];
+  const point = (image: string, type: string): { row: number; col: number } | undefined => {
+    if (type === "Cell") {
+      const m = /^\$?([A-Za-z]{1,3})\$?(\d+)$/.exec(image);
+      return m ? { row: Number(m[2]), col: colNumber(m[1]) } : undefined;
+    }
+    if (type === "Column") return { row: 0, col: colNumber(image) };
+    if (type === "Number" && /^\d+$/.test(image)) return { row: Number(image), col: 0 };
+    return undefined;
+  };
+  for (let i = 0; i < tokens.length; i++) {
+    let sheet: string | undefined;
+    let j = i;
+    if (tokens[j].type === "Sheet" || tokens[j].type === "SheetQuoted") {
+      sheet = sheetOf(tokens[j].image);
+      j++;
+    }
+    const a = tokens[j] && point(tokens[j].image, tokens[j].type);
+    if (!a) continue;
+    let b = a;
+    let end = j;
+    if (tokens[j + 1]?.type === "Colon") {
+      let k = j + 2;
+      if (tokens[k]?.type === "Sheet" || tokens[k]?.type === "SheetQuoted") k++;
+      const p = tokens[k] && point(tokens[k].image, tokens[k].type);
+      if (p) {
+        b = p;
+        end = k;
+      }
+    }
+    // A bare number or column letters alone is not a reference: only as part of A:A or 1:1.
+    if (end === j && tokens[j].type !== "Cell") continue;
+    const from = { row: Math.min(a.row, b.row) || 1, col: Math.min(a.col, b.col) || 1 };
+    const to = { row: a.row && b.row ? Math.max(a.row, b.row) : MAX_ROW, col: a.col && b.col ? Math.max(a.col, b.col) : MAX_COL };
+    out.push({ sheet, from, to });
+    i = end;
+  }
+  return out;
 }

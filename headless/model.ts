@@ -30,8 +30,20 @@ export interface SheetModel {
   cells: Map<string, CellModel>;
 }
 
+/** A defined name: workbook scope, or one sheet's when `sheet` is set. */
+export interface DefinedName {
+  name: string;
+  /** What it refers to, as stored: "Inputs!$B$4", "'Pump data'!$A$3:$E$21", "0.96". */
+  refersTo: string;
+  sheet?: string;
+}
+
 export interface WorkbookModel {
   sheets: SheetModel[];
+  /** Defined names, when the file has any. */
+  names?: DefinedName[];
+  /** External workbooks by their index in stored formulas ([1]Sheet1!A1). */
+  externalLinks?: Map<number, string>;
 }
 
 export function getCell(wb: WorkbookModel, sheet: string, row: number, col: number): CellModel | undefined {

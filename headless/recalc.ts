@@ -8,7 +8,11 @@ import FormulaParser, { type FunctionArg, type RangeRef } from "fast-formula-par
 import { CalcError } from "../functions/calc/_lib/result";
 import { evaluate, type Evaluation, type RawArg } from "../functions/bind/evaluate";
 import { CATALOG } from "../functions/catalog";
+import { references } from "./formula";
 import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAddress, type WorkbookModel } from "./model";
+import type { Budget } from "./package";
+import { displayFormula, expandLet, externalLinkIndexes, hasNappeCall, otherAddinFunctions, substituteNames, UDF_PREFIX, unknownNappeFunctions } from "./storedForm";
+import { EXTRA_FUNCTIONS } from "./extraFunctions";
 
 const { FormulaError } = FormulaParser;
 
@@ -37,6 +41,8 @@ export interface CellOutcome {
   status: Status;
   messages: string[];
   calls: CallRecord[];
+  /** False when the engine could not compute the formula (an error of its own or of a precedent, another workbook, another add-in). */
+  recalculated: boolean;
 }
 
 export interface RecalcOptions {
@@ -46,6 +52,8 @@ export interface RecalcOptions {
   onProgress?: (done: number, total: number) => void;
   /** Report every formula cell, not only those calling NAPPE. */
   all?: boolean;
+  /** Time and memory budget, checked as formulas are computed. */
+  budget?: Budget;
 }
 
 export interface Computed {
@@ -53,10 +61,17 @@ export interface Computed {
   error?: string;
   message?: string;
   calls: CallRecord[];
+  /** Where a failure started: this cell, or the precedent it came from. */
+  cause?: { cell: string; message: string };
+  /** The cell reads another workbook: its cached value is used, not recalculated. */
+  external?: string;
 }
 
-const NAPPE_CALL = /\bNAPPE\./i;
-/** Deepest chain of formulas computed inside one another. */
+/**
+ * Deepest chain of formulas computed inside one another. Formulas are put in dependency order
+ * before they are computed, so chains only nest through references the text does not show
+ * (INDIRECT, OFFSET).
+ */
 const MAX_DEPTH = 400;
 
 /** True when the whole formula is one NAPPE call, such as NAPPE.HEAD(B2, , "ft"). */
@@ -92,14 +107,29 @@ function toCellValue(v: unknown): CellValue {
   return String(v);
 }
 
+function keyText(key: string): string {
+  const bang = key.lastIndexOf("!");
+  const [r, c] = key.slice(bang + 1).split(":").map(Number);
+  return `${key.slice(0, bang)}!${addressOf(r, c)}`;
+}
+
 export class Recalculation {
   private readonly memo = new Map<string, Computed>();
   private readonly visiting: string[] = [];
   private readonly spillOwner = new Map<string, CellModel>();
   private readonly calls: CallRecord[][] = [];
+  /** Formula cells whose failed results the formula being computed has read. */
+  private readonly failedReads: string[][] = [];
   private readonly parsers: FormulaParser[] = [];
+  /** Formula cells of each sheet, for ordering ranges. */
+  private readonly formulaCells = new Map<string, CellModel[]>();
+  private computedCount = 0;
 
-  constructor(private readonly wb: WorkbookModel) {
+  constructor(
+    private readonly wb: WorkbookModel,
+    private readonly budget?: Budget,
+  ) {
+    for (const sheet of wb.sheets) this.formulaCells.set(sheet.name, [...sheet.cells.values()].filter((c) => c.formula));
     for (const sheet of wb.sheets) {
       for (const cell of sheet.cells.values()) {
         if (!cell.arrayRef) continue;
@@ -118,14 +148,23 @@ export class Recalculation {
   private parserAt(depth: number): FormulaParser {
     while (this.parsers.length <= depth) {
       const functions: Record<string, (...args: FunctionArg[]) => unknown> = {};
-      for (const spec of CATALOG) functions[`NAPPE.${spec.id}`] = (...args) => this.callNappe(spec.id, args);
+      // Both forms a NAPPE call takes: dotted as typed, and as Excel stores it (_xldudf_NAPPE_X_Y).
+      for (const spec of CATALOG) {
+        const call = (...args: FunctionArg[]) => this.callNappe(spec.id, args);
+        functions[`NAPPE.${spec.id}`] = call;
+        functions[`${UDF_PREFIX}NAPPE_${spec.id.replace(/\./g, "_")}`.toUpperCase()] = call;
+      }
+      Object.assign(functions, EXTRA_FUNCTIONS, {
+        ANCHORARRAY: (arg: FunctionArg) => this.spillOf(arg),
+        SINGLE: (arg: FunctionArg) => this.implicitIntersection(arg),
+      });
       const parser = new FormulaParser({
         functions,
         onCell: (ref) => this.scalarAt(ref.sheet, ref.row, ref.col),
         onRange: (ref) => this.rangeValues(ref),
       });
       // Keep references on our functions' arguments so the audit can say where each input came from.
-      parser.funsPreserveRef.push(...Object.keys(functions));
+      parser.funsPreserveRef.push(...Object.keys(functions).filter((n) => n.startsWith("NAPPE.") || n.startsWith("_XLDUDF_")), "ANCHORARRAY", "SINGLE");
       this.parsers.push(parser);
     }
     return this.parsers[depth];
@@ -159,6 +198,36 @@ export class Recalculation {
     }
   }
 
+  /** The whole spilled result of the cell a spill reference (B5#) names. */
+  private spillOf(arg: FunctionArg): CellValue[][] {
+    const ref = arg.ref;
+    if (!ref || ref.row === undefined || ref.col === undefined) throw new FormulaError("#REF!", "a spill reference (#) must name one cell");
+    const v = this.valueAt(ref.sheet ?? this.currentSheet(), ref.row, ref.col);
+    if (v instanceof FormulaError) throw v;
+    return Array.isArray(v) ? v : [[v]];
+  }
+
+  /** Excel's implicit intersection (@): one value from a range, in the formula's own row or column. */
+  private implicitIntersection(arg: FunctionArg): CellValue {
+    const ref = arg.ref;
+    if (!ref?.from || !ref.to) {
+      const v = arg.value as unknown;
+      return Array.isArray(v) ? ((v as CellValue[][])[0]?.[0] ?? null) : (v as CellValue);
+    }
+    const here = this.visiting[this.visiting.length - 1];
+    const [r, c] = here.slice(here.lastIndexOf("!") + 1).split(":").map(Number);
+    const sheet = ref.sheet ?? this.currentSheet();
+    if (ref.from.row === ref.to.row && ref.from.col === ref.to.col) return this.scalarAt(sheet, ref.from.row, ref.from.col);
+    if (ref.from.col === ref.to.col && r >= ref.from.row && r <= ref.to.row) return this.scalarAt(sheet, r, ref.from.col);
+    if (ref.from.row === ref.to.row && c >= ref.from.col && c <= ref.to.col) return this.scalarAt(sheet, ref.from.row, c);
+    throw new FormulaError("#VALUE!", "@ (implicit intersection): the range does not cross the formula's row or column");
+  }
+
+  private currentSheet(): string {
+    const here = this.visiting[this.visiting.length - 1] ?? "";
+    return here.slice(0, here.lastIndexOf("!"));
+  }
+
   private scalarAt(sheet: string, row: number, col: number): CellValue {
     const v = this.valueAt(sheet, row, col);
     return Array.isArray(v) ? (v[0]?.[0] ?? null) : v;
@@ -169,12 +238,7 @@ export class Recalculation {
     let lastRow = ref.to.row;
     let lastCol = ref.to.col;
     if (sheet && (lastRow >= FormulaParser.MAX_ROW || lastCol >= FormulaParser.MAX_COLUMN)) {
-      let maxR = 0;
-      let maxC = 0;
-      for (const c of sheet.cells.values()) {
-        maxR = Math.max(maxR, c.row);
-        maxC = Math.max(maxC, c.col);
-      }
+      const { maxR, maxC } = this.extent(sheet.name);
       lastRow = Math.min(lastRow, Math.max(maxR, ref.from.row));
       lastCol = Math.min(lastCol, Math.max(maxC, ref.from.col));
     }
@@ -187,72 +251,220 @@ export class Recalculation {
     return rows;
   }
 
+  private readonly extents = new Map<string, { maxR: number; maxC: number }>();
+  /** The last used row and column of a sheet, spills included (computed once). */
+  private extent(name: string): { maxR: number; maxC: number } {
+    let e = this.extents.get(name);
+    if (!e) {
+      e = { maxR: 0, maxC: 0 };
+      const sheet = findSheet(this.wb, name)!;
+      for (const c of sheet.cells.values()) {
+        e.maxR = Math.max(e.maxR, c.row);
+        e.maxC = Math.max(e.maxC, c.col);
+      }
+      for (const [key] of this.spillOwner) {
+        if (!key.startsWith(`${sheet.name}!`)) continue;
+        const [r, c] = key.slice(sheet.name.length + 1).split(":").map(Number);
+        e.maxR = Math.max(e.maxR, r);
+        e.maxC = Math.max(e.maxC, c);
+      }
+      this.extents.set(name, e);
+    }
+    return e;
+  }
+
+  /** Notes that the formula being computed read a failed formula cell. */
+  private readFailed(key: string): void {
+    const list = this.failedReads[this.failedReads.length - 1];
+    if (list && !list.includes(key)) list.push(key);
+  }
+
   /** Value of a cell, computing its formula (or the array formula it belongs to) when needed. */
   valueAt(sheetName: string, row: number, col: number): CellValue | CellValue[][] {
     const sheet = findSheet(this.wb, sheetName);
     if (!sheet) throw new FormulaError("#REF!", `there is no sheet named "${sheetName}"`);
     const cell = sheet.cells.get(cellKey(row, col));
     if (cell?.formula) {
-      const c = this.compute(cell);
-      if (c.error) return new FormulaError(c.error, c.message ?? c.error) as unknown as CellValue;
+      const c = this.computeNow(cell);
+      if (c.error) {
+        this.readFailed(`${cell.sheet}!${cellKey(cell.row, cell.col)}`);
+        return new FormulaError(c.error, c.message ?? c.error) as unknown as CellValue;
+      }
       return c.value;
     }
     const owner = this.spillOwner.get(`${sheet.name}!${cellKey(row, col)}`);
     if (owner) {
-      const c = this.compute(owner);
-      if (c.error) return new FormulaError(c.error, c.message ?? c.error) as unknown as CellValue;
+      const c = this.computeNow(owner);
+      if (c.error) {
+        this.readFailed(`${owner.sheet}!${cellKey(owner.row, owner.col)}`);
+        return new FormulaError(c.error, c.message ?? c.error) as unknown as CellValue;
+      }
       if (Array.isArray(c.value)) return toCellValue(c.value[row - owner.row]?.[col - owner.col]);
       return row === owner.row && col === owner.col ? c.value : null;
     }
     return cell ? cell.value : null;
   }
 
-  /** Computes a formula cell once. */
+  /** The formula cells a formula's text refers to (spill owners included). */
+  private precedents(cell: CellModel): CellModel[] {
+    let refs;
+    try {
+      refs = references(this.prepared(cell));
+    } catch {
+      return [];
+    }
+    const out: CellModel[] = [];
+    for (const ref of refs) {
+      const sheet = findSheet(this.wb, ref.sheet ?? cell.sheet);
+      if (!sheet) continue;
+      const single = ref.from.row === ref.to.row && ref.from.col === ref.to.col;
+      if (single) {
+        const c = sheet.cells.get(cellKey(ref.from.row, ref.from.col));
+        if (c?.formula) out.push(c);
+        const owner = this.spillOwner.get(`${sheet.name}!${cellKey(ref.from.row, ref.from.col)}`);
+        if (owner) out.push(owner);
+        continue;
+      }
+      for (const c of this.formulaCells.get(sheet.name) ?? []) {
+        if (c.row >= ref.from.row && c.row <= ref.to.row && c.col >= ref.from.col && c.col <= ref.to.col) out.push(c);
+        else if (c.arrayRef) {
+          const [a, b] = c.arrayRef.split(":");
+          const p = parseAddress(a);
+          const q = parseAddress(b ?? a);
+          if (q.row >= ref.from.row && p.row <= ref.to.row && q.col >= ref.from.col && p.col <= ref.to.col) out.push(c);
+        }
+      }
+    }
+    return out;
+  }
+
+  private readonly preparedText = new Map<CellModel, string>();
+  /** The formula as the parser takes it: defined names and LET written out. */
+  private prepared(cell: CellModel): string {
+    let text = this.preparedText.get(cell);
+    if (text === undefined) {
+      text = cell.formula!;
+      const names = this.wb.names;
+      if (names?.length) {
+        text = substituteNames(text, (name) => {
+          const lower = name.toLowerCase();
+          return (names.find((n) => n.name.toLowerCase() === lower && n.sheet === cell.sheet) ?? names.find((n) => n.name.toLowerCase() === lower && !n.sheet))?.refersTo;
+        });
+      }
+      if (/LET\s*\(/i.test(text)) text = expandLet(text);
+      this.preparedText.set(cell, text);
+    }
+    return text;
+  }
+
+  /**
+   * Computes a formula cell once, after the formula cells it refers to, in dependency order
+   * (an explicit stack, so a running total 20,000 rows long needs no deep recursion).
+   */
   compute(cell: CellModel): Computed {
+    const keyOf = (c: CellModel) => `${c.sheet}!${cellKey(c.row, c.col)}`;
+    if (this.memo.has(keyOf(cell))) return this.memo.get(keyOf(cell))!;
+    const state = new Map<string, 1 | 2>();
+    const stack: CellModel[] = [cell];
+    while (stack.length) {
+      const top = stack[stack.length - 1];
+      const key = keyOf(top);
+      if (this.memo.has(key) || state.get(key) === 2) {
+        stack.pop();
+        continue;
+      }
+      if (state.get(key) === 1) {
+        stack.pop();
+        state.set(key, 2);
+        this.computeNow(top);
+        continue;
+      }
+      state.set(key, 1);
+      for (const p of this.precedents(top)) {
+        const k = keyOf(p);
+        if (!this.memo.has(k) && !state.has(k)) stack.push(p);
+      }
+    }
+    return this.computeNow(cell);
+  }
+
+  private computeNow(cell: CellModel): Computed {
     const key = `${cell.sheet}!${cellKey(cell.row, cell.col)}`;
     const done = this.memo.get(key);
     if (done) return done;
     if (this.visiting.includes(key)) {
-      const cycle = [...this.visiting.slice(this.visiting.indexOf(key)), key].map((k) => {
-        const [s, rc] = k.split("!");
-        const [r, c] = rc.split(":").map(Number);
-        return `${s}!${addressOf(r, c)}`;
-      });
+      const cycle = [...this.visiting.slice(this.visiting.indexOf(key)), key].map(keyText);
       return { value: "#REF!", error: "#REF!", message: `circular reference: ${cycle.join(" → ")}`, calls: [] };
     }
     if (this.visiting.length >= MAX_DEPTH) {
-      return { value: "#REF!", error: "#REF!", message: `a chain of more than ${MAX_DEPTH} formulas each waiting on the next; break the chain or report it`, calls: [] };
+      return { value: "#REF!", error: "#REF!", message: `a chain of more than ${MAX_DEPTH} formulas reached through INDIRECT or OFFSET, each waiting on the next; Nappe cannot order it in advance`, calls: [] };
+    }
+    if (++this.computedCount % 256 === 0) this.budget?.check("recalculating formulas");
+    const result = this.evaluateCell(cell, key);
+    this.memo.set(key, result);
+    return result;
+  }
+
+  private evaluateCell(cell: CellModel, key: string): Computed {
+    const external = externalLinkIndexes(cell.formula!);
+    if (external.length) {
+      const files = external.map((i) => `[${i}] ${this.wb.externalLinks?.get(i) ?? "(link not found in the file)"}`);
+      return { value: cell.value, calls: [], external: `reads another workbook, ${files.join(", ")}: not recalculated; the value cached in the file is used` };
+    }
+    const unknown = unknownNappeFunctions(cell.formula!);
+    if (unknown.length) {
+      const message = `${displayFormula(unknown[0])} is not a Nappe function: check its name in the function guide`;
+      return { value: "#NAME?", error: "#NAME?", message, calls: [], cause: { cell: keyText(key), message } };
+    }
+    const others = otherAddinFunctions(cell.formula!);
+    if (others.length) {
+      const message = `calls ${others.join(", ")} of another add-in: Nappe cannot recalculate it; the value cached in the file is used`;
+      return { value: cell.value, calls: [], external: message };
     }
     this.visiting.push(key);
     this.calls.push([]);
+    this.failedReads.push([]);
     let result: Computed;
+    const calls = () => this.calls[this.calls.length - 1];
     try {
-      const out = this.parserAt(this.visiting.length - 1).parse(cell.formula!, { sheet: cell.sheet, row: cell.row, col: cell.col }, true);
-      const calls = this.calls[this.calls.length - 1];
+      const out = this.parserAt(this.visiting.length - 1).parse(this.prepared(cell), { sheet: cell.sheet, row: cell.row, col: cell.col }, true);
       if (out instanceof FormulaError) {
-        result = { value: out.error, error: out.error, message: out.message || undefined, calls };
+        result = { value: out.error, error: out.error, message: describeFormulaError(out), calls: calls() };
       } else if (Array.isArray(out)) {
-        result = { value: (out as unknown[][]).map((r) => (Array.isArray(r) ? r.map(toCellValue) : [toCellValue(r)])), calls };
+        result = { value: (out as unknown[][]).map((r) => (Array.isArray(r) ? r.map(toCellValue) : [toCellValue(r)])), calls: calls() };
       } else {
-        result = { value: toCellValue(out), calls };
+        result = { value: toCellValue(out), calls: calls() };
       }
     } catch (e) {
-      const calls = this.calls[this.calls.length - 1];
       if (e instanceof FormulaError) {
-        result = { value: e.error, error: e.error, message: describeFormulaError(e), calls };
+        result = { value: e.error, error: e.error, message: describeFormulaError(e), calls: calls() };
       } else {
-        result = { value: "#ERROR!", error: "#ERROR!", message: `the formula could not be evaluated: ${e instanceof Error ? e.message.split("\n")[0] : String(e)}`, calls };
+        result = { value: "#ERROR!", error: "#ERROR!", message: `the formula could not be evaluated: ${e instanceof Error ? e.message.split("\n")[0] : String(e)}`, calls: calls() };
       }
-    } finally {
-      this.visiting.pop();
-      this.calls.pop();
     }
-    this.memo.set(key, result!);
-    return result!;
+    const failed = this.failedReads[this.failedReads.length - 1];
+    this.visiting.pop();
+    this.calls.pop();
+    this.failedReads.pop();
+    if (result.error) {
+      // A failure that came from a precedent names it, and the cell where it started.
+      const first = failed.map((k) => [k, this.memo.get(k)] as const).find(([, c]) => c?.error);
+      if (first && first[1] && !result.calls.some((c) => c.error)) {
+        const cause = first[1].cause ?? { cell: keyText(first[0]), message: first[1].message ?? first[1].error! };
+        const from = cause.cell !== keyText(first[0]) ? ` (it starts at ${cause.cell})` : "";
+        result.message = `reads ${keyText(first[0])}, which failed${from}: ${cause.message}`;
+        result.cause = cause;
+      } else {
+        result.cause = { cell: keyText(key), message: result.message ?? result.error };
+      }
+    }
+    return result;
   }
 }
 
 function describeFormulaError(e: InstanceType<typeof FormulaError>): string {
+  const missing = /^Function (.+) is not implemented\.?$/.exec(e.message ?? "");
+  if (missing) return `unsupported function ${missing[1]}: Nappe's formula engine does not compute it`;
   const details = e.details as { errorLocation?: { line: number; column: number } } | undefined;
   if (e.error === "#ERROR!" || details?.errorLocation) {
     const first = (e.message ?? "").split("\n")[0].trim();
@@ -281,8 +493,12 @@ export function outcomeFor(cell: CellModel, computed: Computed, tolerance = 1e-6
     if (computed.message && !messages.some((m) => m.endsWith(computed.message!))) messages.unshift(computed.message);
     if (!messages.length) messages.push(`the formula returns ${computed.error}`);
   }
+  const formula = displayFormula(cell.formula!);
+  if (computed.external) {
+    return { sheet: cell.sheet, address: cell.address, formula: `=${formula}`, value: computed.value, unit: "", cached: cell.value, difference: null, status: "warning", messages: [computed.external], calls: [], recalculated: false };
+  }
   const top = computed.calls[computed.calls.length - 1];
-  const unit = isSingleNappeCall(cell.formula!) && top?.evaluation ? top.evaluation.unit : "";
+  const unit = isSingleNappeCall(formula) && top?.evaluation ? top.evaluation.unit : "";
   const shown = Array.isArray(computed.value) ? computed.value[0]?.[0] ?? null : computed.value;
   let difference: number | null = null;
   if (typeof shown === "number" && typeof cell.value === "number") {
@@ -295,12 +511,27 @@ export function outcomeFor(cell: CellModel, computed: Computed, tolerance = 1e-6
     status = "error";
     messages.push(`differs from the value cached in the file (${String(cell.value)})`);
   }
-  return { sheet: cell.sheet, address: cell.address, formula: `=${cell.formula}`, value: computed.value, unit, cached: cell.value, difference, status, messages, calls: computed.calls };
+  return { sheet: cell.sheet, address: cell.address, formula: `=${formula}`, value: computed.value, unit, cached: cell.value, difference, status, messages, calls: computed.calls, recalculated: !computed.error };
+}
+
+/** What a run found and did, for the summary line. */
+export interface RecalcCounts {
+  /** Formula cells in the workbook. */
+  formulas: number;
+  /** Formula cells that call a NAPPE function (either stored form). */
+  nappe: number;
+  /** NAPPE formula cells computed to a value (ok, warning, or differing from the cache). */
+  recalculated: number;
+  /** NAPPE formula cells that could not be computed. */
+  notRecalculated: number;
+  /** Custom functions of other add-ins the workbook calls, by name. */
+  otherAddins: string[];
 }
 
 export interface RecalcResult {
   /** The NAPPE formula cells (or every formula cell, with options.all), in sheet order. */
   cells: CellOutcome[];
+  counts: RecalcCounts;
   /** Recalculated value of any cell ("Summary", "B4"); errors as their code. */
   valueOf(sheet: string, address: string): CellValue | CellValue[][];
 }
@@ -308,17 +539,26 @@ export interface RecalcResult {
 /** Recalculates every formula and reports the NAPPE ones (or all, with options.all). */
 export function recalculate(wb: WorkbookModel, options: RecalcOptions = {}): RecalcResult {
   const tolerance = options.tolerance ?? 1e-6;
-  const engine = new Recalculation(wb);
+  const engine = new Recalculation(wb, options.budget);
   const formulaCells = wb.sheets.flatMap((s) => [...s.cells.values()].filter((c) => c.formula));
-  const reported = formulaCells.filter((c) => options.all || NAPPE_CALL.test(c.formula!));
-  // Compute in sheet order first, so most references are ready before they are needed.
+  const isNappe = new Set(formulaCells.filter((c) => hasNappeCall(c.formula!)));
+  const reported = formulaCells.filter((c) => options.all || isNappe.has(c));
   formulaCells.forEach((cell, i) => {
     engine.compute(cell);
     options.onProgress?.(i + 1, formulaCells.length);
   });
   const outcomes = reported.map((cell) => outcomeFor(cell, engine.compute(cell), tolerance));
+  const nappeOutcomes = outcomes.filter((_, i) => isNappe.has(reported[i]));
+  const counts: RecalcCounts = {
+    formulas: formulaCells.length,
+    nappe: isNappe.size,
+    recalculated: nappeOutcomes.filter((c) => c.recalculated).length,
+    notRecalculated: nappeOutcomes.filter((c) => !c.recalculated).length,
+    otherAddins: [...new Set(formulaCells.flatMap((c) => otherAddinFunctions(c.formula!)))].sort(),
+  };
   return {
     cells: outcomes,
+    counts,
     valueOf: (sheet, address) => {
       const { row, col } = parseAddress(address);
       const v = engine.valueAt(sheet, row, col);

@@ -1,7 +1,7 @@
 /** Renderers of recalculation results and of the audit model: text table, HTML, .xlsx. */
 import ExcelJS from "exceljs";
 import katex from "katex";
-import { type AuditReport, AUDIT_COLUMNS, auditRows, formatNumber, formatValue } from "./audit";
+import { type AuditReport, AUDIT_COLUMNS, AUDIT_WIDTHS, auditRows, formatNumber, formatValue, NOTHING_FOUND, wrappedLines } from "./audit";
 import type { CellOutcome } from "./recalc";
 
 function clip(text: string, width: number): string {
@@ -47,6 +47,7 @@ body{font:15px/1.5 system-ui,"Segoe UI",sans-serif;color:#17323a;max-width:960px
 h1{font-size:22px;margin-bottom:4px} h2{font-size:17px;margin:28px 0 6px;border-top:1px solid #cfe0e4;padding-top:14px}
 h3{font-size:14px;margin:14px 0 4px}
 .meta{color:#4a6670;font-size:13px}
+.empty{background:#fbdcdc;color:#8a1c1c;border:2px solid #8a1c1c;padding:10px 14px;font-weight:700;font-size:17px}
 .caution{background:#fff4de;border:1px solid #e6c98f;color:#5c3a00;padding:8px 12px;border-radius:4px}
 .counts span{display:inline-block;margin-right:14px}
 .status{font-weight:600;padding:1px 8px;border-radius:10px;font-size:12px}
@@ -101,6 +102,8 @@ ${calls}
 <h1>${escapeHtml(report.title)}</h1>
 <p class="meta">Workbook: ${escapeHtml(report.source)} · generated ${escapeHtml(report.generated)} by Nappe</p>
 <div class="caution">${report.cautions.map((c) => `<p>${escapeHtml(c)}</p>`).join("")}</div>
+${report.entries.length ? "" : `<p class="empty">${escapeHtml(NOTHING_FOUND)}</p>`}
+${report.found ? `<p class="meta">${escapeHtml(report.found)}</p>` : ""}
 <p class="counts"><span>${report.entries.length} NAPPE formulas</span><span class="status ok">${report.counts.ok} ok</span><span class="status warning">${report.counts.warning} warning</span><span class="status error">${report.counts.error} error</span></p>
 ${entries}
 </body></html>
@@ -112,26 +115,39 @@ export function addAuditSheet(book: ExcelJS.Workbook, report: AuditReport, name 
   const old = book.getWorksheet(name);
   if (old) book.removeWorksheet(old.id);
   const ws = book.addWorksheet(name, {
-    pageSetup: { orientation: "landscape", fitToPage: true, fitToWidth: 1, fitToHeight: 0, paperSize: 9 },
-    views: [{ state: "frozen", ySplit: 4 }],
+    pageSetup: { orientation: "landscape", fitToPage: true, fitToWidth: 1, fitToHeight: 0, paperSize: 9, margins: { left: 0.4, right: 0.4, top: 0.5, bottom: 0.5, header: 0.3, footer: 0.3 } },
+    views: [{ state: "frozen", ySplit: 5 }],
+    headerFooter: { oddFooter: "&L&A&RPage &P of &N" },
   });
-  ws.addRow([report.title]).font = { bold: true, size: 14 };
-  ws.addRow([`Workbook: ${report.source} · generated ${report.generated} · ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`]);
-  ws.addRow([report.cautions.join(" ")]).font = { italic: true, color: { argb: "FF7A4B00" } };
+  const total = AUDIT_WIDTHS.reduce((a, b) => a + b, 0);
+  const banner = (text: string, font: Partial<ExcelJS.Font>) => {
+    const row = ws.addRow([text]);
+    row.font = font;
+    ws.mergeCells(row.number, 1, row.number, AUDIT_COLUMNS.length);
+    row.getCell(1).alignment = { wrapText: true, vertical: "top" };
+    row.height = 15 * wrappedLines(text, total);
+  };
+  banner(report.title, { bold: true, size: 14 });
+  banner(`Workbook: ${report.source} · generated ${report.generated} · ${report.found ?? `${report.entries.length} NAPPE formulas`} · ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`, {});
+  banner(report.cautions.join(" "), { italic: true, color: { argb: "FF7A4B00" } });
+  banner(report.entries.length ? "" : NOTHING_FOUND, { bold: true, color: { argb: "FF8A1C1C" } });
   const header = ws.addRow(AUDIT_COLUMNS);
   header.font = { bold: true, color: { argb: "FFFFFFFF" } };
+  header.alignment = { wrapText: true, vertical: "top" };
   header.eachCell((c) => (c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FF0E5463" } }));
   for (const row of auditRows(report).slice(1)) {
     const r = ws.addRow(row);
     r.alignment = { vertical: "top", wrapText: true };
-    const status = row[3];
+    // Explicit heights: a spreadsheet program need not grow a row to fit wrapped text on its own.
+    r.height = Math.min(409, 15 * Math.max(...row.map((text, j) => wrappedLines(text, AUDIT_WIDTHS[j]))));
+    const status = row[2];
     if (status) {
       const colour = status === "error" ? "FFFBDCDC" : status === "warning" ? "FFFFF0C7" : "FFDFF3E4";
-      r.getCell(4).fill = { type: "pattern", pattern: "solid", fgColor: { argb: colour } };
+      r.getCell(3).fill = { type: "pattern", pattern: "solid", fgColor: { argb: colour } };
     }
   }
-  const widths = [12, 7, 40, 9, 18, 18, 32, 48, 40, 40, 36, 32];
-  widths.forEach((w, i) => (ws.getColumn(i + 1).width = w));
-  ws.pageSetup.printTitlesRow = "4:4";
+  AUDIT_WIDTHS.forEach((w, i) => (ws.getColumn(i + 1).width = w));
+  ws.pageSetup.printTitlesRow = "5:5";
+  ws.pageSetup.printArea = `A1:${String.fromCharCode(64 + AUDIT_COLUMNS.length)}${ws.rowCount}`;
   return ws;
 }

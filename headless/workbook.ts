@@ -6,11 +6,10 @@ import { readFile } from "node:fs/promises";
 import ExcelJS from "exceljs";
 import { addressOf, cellKey } from "./address";
 import type { CellModel, CellValue, SheetModel, WorkbookModel } from "./model";
+import { DEFAULT_LIMITS, type Limits, openPackage, WorkbookError } from "./package";
 
 export * from "./model";
-
-/** A problem with the file itself, reported without a stack trace. */
-export class WorkbookError extends Error {}
+export { BudgetError, WorkbookError } from "./package";
 
 function plainValue(v: unknown): CellValue {
   if (v === null || v === undefined) return null;
@@ -29,8 +28,11 @@ function plainValue(v: unknown): CellValue {
 const ENCRYPTED_MAGIC = Buffer.from([0xd0, 0xcf, 0x11, 0xe0]);
 const ZIP_MAGIC = Buffer.from([0x50, 0x4b]);
 
-/** Reads an .xlsx file. Throws WorkbookError with a plain message for anything unreadable. */
-export async function readWorkbook(path: string): Promise<WorkbookModel> {
+/**
+ * Reads an .xlsx file. Throws WorkbookError with a plain message for anything unreadable, and
+ * BudgetError when the file would need more memory than the limits allow.
+ */
+export async function readWorkbook(path: string, limits: Limits = DEFAULT_LIMITS): Promise<WorkbookModel> {
   let bytes: Buffer;
   try {
     bytes = await readFile(path);
@@ -42,13 +44,14 @@ export async function readWorkbook(path: string): Promise<WorkbookModel> {
     throw new WorkbookError(`${path} is password-protected (encrypted) or an old .xls file: save an unprotected .xlsx copy to check it`);
   }
   if (!bytes.subarray(0, 2).equals(ZIP_MAGIC)) throw new WorkbookError(`${path} is not an .xlsx workbook`);
+  const pkg = await openPackage(bytes, path, limits);
   const book = new ExcelJS.Workbook();
   try {
-    await book.xlsx.load(bytes as unknown as ArrayBuffer);
+    await book.xlsx.load(pkg.bytes as unknown as ArrayBuffer);
   } catch (e) {
     throw new WorkbookError(`${path} could not be read as an .xlsx workbook; it may be corrupt (${e instanceof Error ? e.message.split("\n")[0] : String(e)})`);
   }
-  return fromExcelJS(book);
+  return { ...fromExcelJS(book), names: pkg.definedNames, externalLinks: pkg.externalLinks };
 }
 
 /** Builds the model from an exceljs workbook (also used for workbooks made in memory). */

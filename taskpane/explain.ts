@@ -16,6 +16,7 @@ import { formatNumber, formatValue } from "../headless/audit";
 import { callSites, evaluationOrder, replaceArgument, type CallSite } from "../headless/formula";
 import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../headless/model";
 import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../headless/recalc";
+import { displayFormula, hasNappeCall } from "../headless/storedForm";
 import { checkCallUnits, type LabelSource } from "../headless/unitCheck";
 import { type ChartData, chartFor, withNpsha } from "./chartData";
 import { toBase } from "../functions/units/quantity";
@@ -196,13 +197,13 @@ function explainCall(rec: CallRecord, site: CallSite | undefined, formula: strin
       const i = spec.params.findIndex((p) => p.name === f.arg);
       const arg = site?.args[i];
       const joined = arg && f.unit ? `${/^[A-Za-z0-9_$!'. ]+$/.test(arg.text) ? arg.text : `(${arg.text})`}&" ${f.unit}"` : undefined;
-      unitWarnings.push({ message: f.message, fixedFormula: arg && joined ? replaceArgument(formula, arg, joined) : undefined, fixLabel: joined });
+      unitWarnings.push({ message: f.message, fixedFormula: arg && joined ? displayFormula(replaceArgument(formula, arg, joined)) : undefined, fixLabel: joined });
     }
   }
   const requested = ev && ev.unit && typeof ev.value === "number" ? `${formatNumber(ev.value)} ${ev.unit}` : ev ? formatValue(ev.value) : undefined;
   return {
     id: rec.id,
-    text: site ? formula.slice(site.start, site.end) : `NAPPE.${rec.id}(…)`,
+    text: site ? displayFormula(formula.slice(site.start, site.end)) : `NAPPE.${rec.id}(…)`,
     purpose: spec.purpose,
     equation: spec.equation,
     args,
@@ -235,7 +236,7 @@ function baseResult(rec: CallRecord): string {
  * (A workbook with several pumps should keep one NPSHA per pump; the first one is drawn.)
  */
 async function workbookNpsha(port: HostPort): Promise<{ value: number; cell: string } | undefined> {
-  const cells = (await port.nappeFormulaCells()).filter((c) => /\bNAPPE\.NPSHA\s*\(/i.test(c.formula));
+  const cells = (await port.nappeFormulaCells()).filter((c) => /\bNAPPE\.NPSHA\s*\(/i.test(displayFormula(c.formula)));
   for (const c of cells) {
     const snap = await snapshot(port, c.sheet, c.address, c.formula);
     const { row, col } = parseAddress(c.address);
@@ -276,7 +277,7 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
     return { labels: NO_LABELS, explanation: { ...base, message: "A constant, not a formula. If a NAPPE formula reads it as a bare number, that number is taken in the base unit of the argument: select that formula to check." } };
   }
   const formula = cell.formula;
-  if (!/\bNAPPE\./i.test(formula)) {
+  if (!hasNappeCall(formula)) {
     return { labels: NO_LABELS, explanation: { ...base, formula, message: "This formula calls no NAPPE function. Use the function guide to insert one." } };
   }
   let sites: CallSite[] = [];
@@ -307,5 +308,5 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
   } catch {
     chart = undefined;
   }
-  return { labels, outcome, explanation: { ...base, formula, value: formatValue(computed.value as CellValue), error, calls, chart } };
+  return { labels, outcome, explanation: { ...base, formula: displayFormula(formula), value: formatValue(computed.value as CellValue), error, calls, chart } };
 }

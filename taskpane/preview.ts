@@ -8,6 +8,7 @@ import { formatValue } from "../headless/audit";
 import { MemoryHost } from "./host/memory";
 import { el, mountPane } from "./ui";
 import { workbookTab } from "./workbookTab";
+import { hasNappeCall } from "../headless/storedForm";
 
 interface WorkbookJson {
   name: string;
@@ -49,7 +50,7 @@ function drawGrid(host: MemoryHost, target: HTMLElement, tabs: HTMLElement, form
       for (let c = 1; c <= maxCol; c++) {
         const cell = sheet.cells.get(cellKey(r, c));
         const address = addressOf(r, c);
-        const td = el("td", cell?.formula ? (/\bNAPPE\./i.test(cell.formula) ? "nappe" : "formula") : typeof cell?.value === "number" ? "number" : "", cell ? formatValue(cell.value) : "");
+        const td = el("td", cell?.formula ? (hasNappeCall(cell.formula) ? "nappe" : "formula") : typeof cell?.value === "number" ? "number" : "", cell ? formatValue(cell.value) : "");
         td.tabIndex = 0;
         td.dataset.address = address;
         if (sel.sheet === sheet.name && sel.address === address) td.classList.add("selected");

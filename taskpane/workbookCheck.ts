@@ -3,7 +3,7 @@
  * status and counts, yielding to the page between cells so long scans stay responsive; and the
  * audit sheet built from the same audit model as the headless report.
  */
-import { type AuditReport, auditRows, buildAudit, GENERAL_CAUTIONS } from "../headless/audit";
+import { type AuditReport, auditRows, AUDIT_WIDTHS, buildAudit, GENERAL_CAUTIONS, NOTHING_FOUND } from "../headless/audit";
 import type { CellOutcome, Status } from "../headless/recalc";
 import type { LabelSource } from "../headless/unitCheck";
 import { analyseCell } from "./explain";
@@ -70,14 +70,13 @@ export function auditSheetRows(report: AuditReport): { rows: string[][]; headerR
     [report.title],
     [`Workbook: ${report.source} · ${report.generated} · ${report.entries.length} NAPPE formulas: ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`],
     [GENERAL_CAUTIONS.join(" ")],
-    [""],
+    [report.entries.length ? "" : NOTHING_FOUND],
     ...table,
   ];
   return { rows, headerRow: 4 };
 }
 
-/** Column widths of the audit sheet, in characters. */
-export const AUDIT_WIDTHS = [12, 7, 40, 9, 18, 18, 32, 48, 40, 40, 36, 32];
+export { AUDIT_WIDTHS };
 
 /** Writes (or replaces) the audit sheet through the port. */
 export async function writeAuditSheet(port: HostPort, check: WorkbookCheck, source: string): Promise<AuditReport> {

@@ -160,7 +160,7 @@ describe("workbook check and audit sheet", () => {
     expect(names.filter((n) => n === AUDIT_SHEET)).toHaveLength(1);
     expect(host.workbook.sheets.filter((s) => s.name !== AUDIT_SHEET).map((s) => [s.name, s.cells.size])).toEqual(before);
     const { rows, headerRow } = auditSheetRows((await import("../taskpane/workbookCheck")).auditOf(check, "demo"));
-    expect(rows[headerRow]).toEqual(["Sheet", "Cell", "Formula", "Status", "Result", "Function", "Purpose", "Inputs (as written → as read)", "Assumptions", "Warnings", "Sources", "Cautions"]);
+    expect(rows[headerRow]).toEqual(["Cell", "Formula", "Status", "Result", "Function and purpose", "Inputs (as written → as read)", "Warnings, assumptions, sources, cautions"]);
     const audit = host.workbook.sheets.find((s) => s.name === AUDIT_SHEET)!;
     const text = [...audit.cells.values()].map((c) => String(c.value)).join("\n");
     expect(text).toMatch(/Unit check: Inputs!B14 is labelled/);

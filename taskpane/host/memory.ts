@@ -6,6 +6,7 @@
 import { addressOf, cellKey, type CellModel, type CellValue, findSheet, getCell, labelSource, parseAddress, type WorkbookModel } from "../../headless/model";
 import { recalculate } from "../../headless/recalc";
 import type { CellAddress, CellSnapshot, FormulaCell, HostPort } from "./port";
+import { hasNappeCall } from "../../headless/storedForm";
 
 export class MemoryHost implements HostPort {
   private current: CellAddress;
@@ -101,7 +102,7 @@ export class MemoryHost implements HostPort {
     const all = this.workbook.sheets.flatMap((s) => [...s.cells.values()]);
     const out: FormulaCell[] = [];
     all.forEach((c, i) => {
-      if (c.formula && /\bNAPPE\./i.test(c.formula)) out.push({ sheet: c.sheet, address: c.address, formula: c.formula, value: c.value });
+      if (c.formula && hasNappeCall(c.formula)) out.push({ sheet: c.sheet, address: c.address, formula: c.formula, value: c.value });
       if (onProgress && (i % 500 === 0 || i === all.length - 1)) onProgress(i + 1, all.length);
     });
     return out;

@@ -5,6 +5,7 @@
 import { addressOf, parseAddress } from "../../headless/address";
 import type { CellValue } from "../../headless/model";
 import type { CellAddress, CellSnapshot, FormulaCell, HostPort } from "./port";
+import { hasNappeCall } from "../../headless/storedForm";
 
 function plain(v: unknown): CellValue {
   if (v === null || v === undefined || v === "") return v === "" ? "" : null;
@@ -90,7 +91,7 @@ export class OfficeHost implements HostPort {
         if (!used.isNullObject) {
           used.formulas.forEach((row, i) =>
             row.forEach((f, j) => {
-              if (typeof f === "string" && /\bNAPPE\./i.test(f)) {
+              if (typeof f === "string" && hasNappeCall(f)) {
                 out.push({ sheet: sheets.items[s].name, address: addressOf(used.rowIndex + i + 1, used.columnIndex + j + 1), formula: f.replace(/^=/, ""), value: plain(used.values[i][j]) });
               }
             }),

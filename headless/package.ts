@@ -1,0 +1,230 @@
+/**
+ * The .xlsx package before exceljs sees it: checks that it is a workbook at all, keeps its size
+ * within the memory budget, reads what exceljs would expand cell by cell (defined names) or
+ * does not read (external links), and takes out the parts that exceljs expands cell by cell but
+ * a recalculation never needs (data validations, conditional formats, very large merges), so
+ * that a whole-sheet rule costs nothing. The original bytes are never changed on disk.
+ */
+import JSZip from "jszip";
+import type { DefinedName } from "./model";
+
+/** A problem with the file itself, reported without a stack trace. */
+export class WorkbookError extends Error {}
+
+/** Time and memory a run may use on one file. */
+export interface Limits {
+  /** Seconds for reading and recalculating (default 60). */
+  seconds: number;
+  /** Megabytes of memory (default 1024). */
+  megabytes: number;
+}
+
+export const DEFAULT_LIMITS: Limits = { seconds: 60, megabytes: 1024 };
+
+/** Thrown when a run goes over its time or memory budget. */
+export class BudgetError extends WorkbookError {}
+
+/** Checks elapsed time and heap use against the limits; call it often in long loops. */
+export class Budget {
+  private readonly started = Date.now();
+  constructor(
+    readonly limits: Limits = DEFAULT_LIMITS,
+    private readonly file = "the workbook",
+  ) {}
+
+  check(stage: string): void {
+    const seconds = (Date.now() - this.started) / 1000;
+    if (seconds > this.limits.seconds) {
+      throw new BudgetError(`${this.file}: stopped while ${stage} after ${seconds.toFixed(0)} s, over the time budget of ${this.limits.seconds} s (raise it with --max-seconds)`);
+    }
+    const mb = process.memoryUsage().rss / 2 ** 20;
+    if (mb > this.limits.megabytes) {
+      throw new BudgetError(`${this.file}: stopped while ${stage}: ${mb.toFixed(0)} MB in use, over the memory budget of ${this.limits.megabytes} MB (raise it with --max-memory)`);
+    }
+  }
+}
+
+/**
+ * Reading an .xlsx with exceljs takes about this many bytes of memory per byte of sheet XML
+ * (measured by bench on generated sheets; a safe upper figure).
+ */
+const MEMORY_PER_XML_BYTE = 12;
+
+export interface PackageContents {
+  /** The package with the parts a recalculation does not need taken out, for exceljs. */
+  bytes: Buffer;
+  definedNames: DefinedName[];
+  /** External workbooks by their index in formulas ([1] → "prices.xlsx"). */
+  externalLinks: Map<number, string>;
+  /** What was taken out that covered more than LARGE_RANGE cells ("Sheet2: data validation over A1:XFD1048576"). */
+  trimmed: string[];
+}
+
+function attr(tag: string, name: string): string | undefined {
+  const m = new RegExp(`\\s${name}="([^"]*)"`).exec(tag);
+  return m ? unescapeXml(m[1]) : undefined;
+}
+
+export function unescapeXml(text: string): string {
+  return text.replace(/&(lt|gt|amp|quot|apos|#x[0-9a-f]+|#\d+);/gi, (_, e: string) => {
+    const lower = e.toLowerCase();
+    if (lower === "lt") return "<";
+    if (lower === "gt") return ">";
+    if (lower === "amp") return "&";
+    if (lower === "quot") return '"';
+    if (lower === "apos") return "'";
+    return String.fromCodePoint(lower.startsWith("#x") ? parseInt(lower.slice(2), 16) : parseInt(lower.slice(1), 10));
+  });
+}
+
+/** Elements of the main namespace, with or without a prefix (`<dataValidations>`, `<x:dataValidations>`). */
+function element(name: string): RegExp {
+  return new RegExp(`<(?:\\w+:)?${name}\\b[^>]*?(?:/>|>[\\s\\S]*?</(?:\\w+:)?${name}>)`, "g");
+}
+
+/** A range above this many cells is not expanded cell by cell. */
+const LARGE_RANGE = 100_000;
+
+function cellsIn(ref: string): number {
+  const m = /^\$?([A-Z]{1,3})\$?(\d+)(?::\$?([A-Z]{1,3})\$?(\d+))?$/i.exec(ref);
+  if (!m) return 1;
+  const col = (s: string) => [...s.toUpperCase()].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
+  const rows = m[4] ? Math.abs(Number(m[4]) - Number(m[2])) + 1 : 1;
+  const cols = m[3] ? Math.abs(col(m[3]) - col(m[1])) + 1 : 1;
+  return rows * cols;
+}
+
+/** The largest area one of the space-separated ranges of a sqref covers. */
+function largestIn(sqref: string): { ref: string; cells: number } {
+  return sqref
+    .split(/\s+/)
+    .filter(Boolean)
+    .map((ref) => ({ ref, cells: cellsIn(ref) }))
+    .reduce((a, b) => (b.cells > a.cells ? b : a), { ref: "", cells: 0 });
+}
+
+/**
+ * Takes out what exceljs would expand cell by cell and the recalculation never reads. Adds to
+ * `large` a description of each thing taken out that covered a large range.
+ */
+export function trimSheetXml(xml: string, large: string[] = []): string {
+  const note = (what: string) => (tag: string) => {
+    for (const m of tag.matchAll(/\ssqref="([^"]*)"|<(?:\w+:)?sqref>([^<]*)</g)) {
+      const big = largestIn(m[1] ?? m[2] ?? "");
+      if (big.cells > LARGE_RANGE) large.push(`${what} over ${big.ref}`);
+    }
+    return "";
+  };
+  let out = xml.replace(element("dataValidations"), note("data validation")).replace(element("conditionalFormatting"), note("conditional format"));
+  out = out.replace(/<(?:\w+:)?mergeCell\b[^>]*\/>/g, (tag) => {
+    const ref = attr(tag, "ref") ?? "";
+    if (cellsIn(ref) <= LARGE_RANGE) return tag;
+    large.push(`merged cells ${ref}`);
+    return "";
+  });
+  // The sheet's extension list (x14 validations and formats) is always its last child.
+  const ext = out.search(/<(?:\w+:)?extLst\b/);
+  const endData = out.search(/<\/(?:\w+:)?sheetData>/);
+  const end = out.search(/<\/(?:\w+:)?worksheet>\s*$/);
+  if (ext > endData && endData >= 0 && end > ext) {
+    note("data validation or conditional format")(out.slice(ext, end));
+    out = out.slice(0, ext) + out.slice(end);
+  }
+  return out;
+}
+
+function uncompressedSize(file: JSZip.JSZipObject): number {
+  // JSZip keeps the size from the zip's directory in a private field (see its index.d.ts).
+  const data = (file as unknown as { _data?: { uncompressedSize?: number } })._data;
+  return data?.uncompressedSize ?? 0;
+}
+
+/** Relationship id → target, from a .rels part. */
+async function relationships(zip: JSZip, path: string): Promise<Map<string, string>> {
+  const xml = await zip.file(path)?.async("string");
+  const out = new Map<string, string>();
+  for (const tag of xml?.match(/<Relationship\b[^>]*>/g) ?? []) {
+    const id = attr(tag, "Id");
+    const target = attr(tag, "Target");
+    if (id && target) out.set(id, target);
+  }
+  return out;
+}
+
+function resolvePart(base: string, target: string): string {
+  if (target.startsWith("/")) return target.slice(1);
+  const parts = base.split("/").slice(0, -1);
+  for (const p of target.split("/")) {
+    if (p === "..") parts.pop();
+    else if (p !== ".") parts.push(p);
+  }
+  return parts.join("/");
+}
+
+/** Worksheet part path → sheet name. */
+async function sheetPartNames(zip: JSZip, rels: Map<string, string>, names: string[]): Promise<Map<string, string>> {
+  const xml = (await zip.file("xl/workbook.xml")?.async("string")) ?? "";
+  const out = new Map<string, string>();
+  (xml.match(/<(?:\w+:)?sheet\b[^>]*>/g) ?? []).forEach((tag, i) => {
+    const target = rels.get(attr(tag, "r:id") ?? "");
+    if (target) out.set(resolvePart("xl/workbook.xml", target), names[i]);
+  });
+  return out;
+}
+
+/** Opens an .xlsx package (a zip with xl/workbook.xml). Throws WorkbookError for anything else. */
+export async function openPackage(bytes: Buffer, file: string, limits: Limits = DEFAULT_LIMITS): Promise<PackageContents> {
+  let zip: JSZip;
+  try {
+    zip = await JSZip.loadAsync(bytes);
+  } catch (e) {
+    throw new WorkbookError(`${file} could not be read as an .xlsx workbook; it may be corrupt (${e instanceof Error ? e.message.split("\n")[0] : String(e)})`);
+  }
+  const workbookPart = zip.file("xl/workbook.xml");
+  if (!workbookPart) throw new WorkbookError(`${file} is a zip package but not an .xlsx workbook: it has no xl/workbook.xml`);
+  let xmlBytes = 0;
+  zip.forEach((path, f) => {
+    if (/\.xml$/i.test(path)) xmlBytes += uncompressedSize(f);
+  });
+  const needed = (xmlBytes * MEMORY_PER_XML_BYTE) / 2 ** 20;
+  if (needed > limits.megabytes) {
+    throw new BudgetError(`${file}: its ${(xmlBytes / 2 ** 20).toFixed(0)} MB of XML would need about ${needed.toFixed(0)} MB of memory to read, over the memory budget of ${limits.megabytes} MB (raise it with --max-memory)`);
+  }
+
+  let workbookXml = await workbookPart.async("string");
+  const sheetNames = (workbookXml.match(/<(?:\w+:)?sheet\b[^>]*>/g) ?? []).map((t) => attr(t, "name") ?? "");
+  const definedNames: DefinedName[] = [];
+  for (const m of workbookXml.matchAll(/<(?:\w+:)?definedName\b([^>]*)>([\s\S]*?)<\/(?:\w+:)?definedName>/g)) {
+    const name = attr(m[1], "name");
+    if (!name || name.startsWith("_xlnm.")) continue;
+    const local = attr(m[1], "localSheetId");
+    definedNames.push({ name, refersTo: unescapeXml(m[2]).trim(), sheet: local === undefined ? undefined : sheetNames[Number(local)] });
+  }
+  // exceljs expands every defined name into its cells: the names are read here instead.
+  workbookXml = workbookXml.replace(element("definedNames"), "");
+  zip.file("xl/workbook.xml", workbookXml);
+
+  const externalLinks = new Map<number, string>();
+  const rels = await relationships(zip, "xl/_rels/workbook.xml.rels");
+  const refs = workbookXml.match(/<(?:\w+:)?externalReference\b[^>]*>/g) ?? [];
+  for (const [i, tag] of refs.entries()) {
+    const part = rels.get(attr(tag, "r:id") ?? "");
+    if (!part) continue;
+    const path = resolvePart("xl/workbook.xml", part);
+    const linkRels = await relationships(zip, path.replace(/([^/]+)$/, "_rels/$1.rels"));
+    externalLinks.set(i + 1, [...linkRels.values()][0] ?? path);
+  }
+
+  const trimmed: string[] = [];
+  const sheetParts = await sheetPartNames(zip, rels, sheetNames);
+  for (const path of Object.keys(zip.files)) {
+    if (!/^xl\/worksheets\/[^/]+\.xml$/i.test(path)) continue;
+    const xml = await zip.file(path)!.async("string");
+    const large: string[] = [];
+    const out = trimSheetXml(xml, large);
+    if (out !== xml) zip.file(path, out);
+    trimmed.push(...large.map((l) => `${sheetParts.get(path) ?? path}: ${l}`));
+  }
+  const out = await zip.generateAsync({ type: "nodebuffer", compression: "STORE" });
+  return { bytes: out, definedNames, externalLinks, trimmed };
+}
