@@ -11,7 +11,7 @@ import { CATALOG } from "../functions/catalog";
 import { references } from "./formula";
 import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAddress, type WorkbookModel } from "./model";
 import type { Budget } from "./package";
-import { displayFormula, expandLet, externalLinkIndexes, hasNappeCall, otherAddinFunctions, substituteNames, UDF_PREFIX, unknownNappeFunctions } from "./storedForm";
+import { displayFormula, dottedName, expandLet, externalLinkIndexes, hasNappeCall, otherAddinFunctions, substituteNames, UDF_PREFIX, unknownNappeFunctions } from "./storedForm";
 import { EXTRA_FUNCTIONS } from "./extraFunctions";
 
 const { FormulaError } = FormulaParser;
@@ -413,7 +413,7 @@ export class Recalculation {
     }
     const unknown = unknownNappeFunctions(cell.formula!);
     if (unknown.length) {
-      const message = `${displayFormula(unknown[0])} is not a Nappe function: check its name in the function guide`;
+      const message = `${dottedName(unknown[0]) ?? unknown[0]} is not a Nappe function: check its name in the function guide`;
       return { value: "#NAME?", error: "#NAME?", message, calls: [], cause: { cell: keyText(key), message } };
     }
     const others = otherAddinFunctions(cell.formula!);

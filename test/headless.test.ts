@@ -4,34 +4,16 @@
  * bad input.
  */
 import { createHash } from "node:crypto";
-import { execFile } from "node:child_process";
-import { copyFileSync, existsSync, mkdtempSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { copyFileSync, existsSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
-import { promisify } from "node:util";
 import ExcelJS from "exceljs";
 import { describe, expect, it } from "vitest";
 import { DEMO_FILE, demoWorkbookBytes } from "../demo/build";
 import { recalculate } from "../headless/recalc";
 import { fromExcelJS, readWorkbook } from "../headless/workbook";
-import { relativeError } from "./helpers";
+import { nappe, relativeError, tempDir } from "./helpers";
 
 const root = join(__dirname, "..");
-const run = promisify(execFile);
-
-async function nappe(...args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  try {
-    const { stdout, stderr } = await run(process.execPath, [join(root, "bin/nappe.mjs"), ...args], { cwd: root, maxBuffer: 1 << 24 });
-    return { code: 0, stdout, stderr };
-  } catch (e) {
-    const err = e as { code: number; stdout: string; stderr: string };
-    return { code: err.code, stdout: err.stdout, stderr: err.stderr };
-  }
-}
-
-function tempDir(): string {
-  return mkdtempSync(join(tmpdir(), "nappe-test-"));
-}
 
 async function save(book: ExcelJS.Workbook, path: string): Promise<string> {
   writeFileSync(path, Buffer.from(await book.xlsx.writeBuffer()));

@@ -1,3 +1,8 @@
+import { execFile } from "node:child_process";
+import { mkdtempSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { promisify } from "node:util";
 import { expect } from "vitest";
 import { CalcError } from "../functions/calc/_lib/result";
 import { evaluate, type Evaluation, type RawArg } from "../functions/bind/evaluate";
@@ -46,4 +51,22 @@ export function expectMatchesExample(got: unknown, ex: Pick<Example, "expect" | 
       else expect(cell, `${label} [${i}][${j}]`).toBe(want);
     });
   });
+}
+
+const execFileAsync = promisify(execFile);
+
+/** Runs the nappe command as a shell would; never throws on a non-zero exit. */
+export async function nappe(...args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+  try {
+    const { stdout, stderr } = await execFileAsync(process.execPath, [join(__dirname, "..", "bin/nappe.mjs"), ...args], { cwd: join(__dirname, ".."), maxBuffer: 1 << 26 });
+    return { code: 0, stdout, stderr };
+  } catch (e) {
+    const err = e as { code: number; stdout: string; stderr: string };
+    return { code: err.code, stdout: err.stdout, stderr: err.stderr };
+  }
+}
+
+/** A new empty folder for one test's files. */
+export function tempDir(): string {
+  return mkdtempSync(join(tmpdir(), "nappe-test-"));
 }
