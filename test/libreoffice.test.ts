@@ -1,0 +1,174 @@
+/**
+ * A second, real spreadsheet engine: LibreOffice Calc, headless. It opens what Nappe writes
+ * (the demo, the hand-off copy, the audit workbook), its values of the hand-off copy equal
+ * Nappe's, it computes plain formulas Nappe's engine also computes (on a workbook written with
+ * no cached values, so LibreOffice must compute them itself), and a workbook LibreOffice saved
+ * itself (test/fixtures/libreoffice-saved.xlsx: the demo opened and saved by LibreOffice 7.4,
+ * which writes `_xldudf_nappe_...` in lower case) is read like the demo.
+ *
+ * Needs Debian's libreoffice-calc-nogui (`soffice`). Without it these tests are skipped with a
+ * notice; `.ci/run` installs it and sets NAPPE_REQUIRE_LIBREOFFICE=1, so there they fail instead.
+ */
+import { execFileSync } from "node:child_process";
+import { existsSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import ExcelJS from "exceljs";
+import JSZip from "jszip";
+import { describe, expect, it } from "vitest";
+import { DEMO_FILE } from "../demo/build";
+import { ABOUT_SHEET } from "../headless/handoff";
+import { recalculate } from "../headless/recalc";
+import { readWorkbook } from "../headless/workbook";
+import { nappe, relativeError, tempDir } from "./helpers";
+
+const root = join(__dirname, "..");
+
+function findSoffice(): string | undefined {
+  for (const p of ["/usr/bin/soffice", "/usr/lib/libreoffice/program/soffice", "/usr/local/bin/soffice"]) if (existsSync(p)) return p;
+  return undefined;
+}
+const soffice = findSoffice();
+if (!soffice) {
+  const notice = "\n*** LibreOffice (soffice) not found: the tests against a second spreadsheet engine are SKIPPED. Install Debian's libreoffice-calc-nogui to run them. ***\n";
+  if (process.env.NAPPE_REQUIRE_LIBREOFFICE === "1") throw new Error(`${notice}NAPPE_REQUIRE_LIBREOFFICE=1: failing instead of skipping.`);
+  console.warn(notice);
+}
+
+/** Converts files with LibreOffice headless (its own profile, so runs never share one). */
+function convert(files: string[], to: "pdf" | "csv", outDir: string): void {
+  // csv with the sheet number -1: every sheet to its own file, NAME-SHEET.csv (LibreOffice 7.2 and later).
+  const filter = to === "csv" ? "csv:Text - txt - csv (StarCalc):44,34,UTF8,1,,0,false,true,false,false,false,-1" : "pdf";
+  execFileSync(soffice!, [`-env:UserInstallation=file://${join(outDir, ".profile")}`, "--headless", "--norestore", "--convert-to", filter, "--outdir", outDir, ...files], { stdio: "pipe", timeout: 180_000 });
+}
+
+/** A CSV export as rows of cells (quotes as LibreOffice writes them). */
+function readCsv(path: string): string[][] {
+  const rows: string[][] = [];
+  let cell = "";
+  let row: string[] = [];
+  let quoted = false;
+  const text = readFileSync(path, "utf8");
+  for (let i = 0; i < text.length; i++) {
+    const ch = text[i];
+    if (quoted) {
+      if (ch === '"' && text[i + 1] === '"') (cell += '"'), i++;
+      else if (ch === '"') quoted = false;
+      else cell += ch;
+    } else if (ch === '"') quoted = true;
+    else if (ch === ",") row.push(cell), (cell = "");
+    else if (ch === "\n") row.push(cell), rows.push(row), (row = []), (cell = "");
+    else if (ch !== "\r") cell += ch;
+  }
+  if (cell || row.length) row.push(cell), rows.push(row);
+  return rows;
+}
+
+function csvCell(rows: string[][], address: string): string {
+  const m = /^([A-Z]+)(\d+)$/.exec(address)!;
+  const col = [...m[1]].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
+  return rows[Number(m[2]) - 1]?.[col - 1] ?? "";
+}
+
+function pdfPages(path: string): number {
+  return (readFileSync(path, "latin1").match(/\/Type\s*\/Page[^s]/g) ?? []).length;
+}
+
+describe.skipIf(!soffice)("LibreOffice, a second spreadsheet engine", () => {
+  it("opens the demo workbook and prints it on one page per sheet", () => {
+    const dir = tempDir();
+    convert([join(root, "demo", DEMO_FILE)], "pdf", dir);
+    const pdf = join(dir, DEMO_FILE.replace(/\.xlsx$/, ".pdf"));
+    expect(pdfPages(pdf)).toBe(4); // Summary, Inputs, Calc, Pump: each fits one page at its print scale
+  });
+
+  it("opens the hand-off copy with Nappe's values, recomputing the plain formulas that read them", async () => {
+    const dir = tempDir();
+    const copy = join(dir, "handoff.xlsx");
+    const r = await nappe("handoff", join(root, "demo", DEMO_FILE), "--out", copy);
+    expect(r.code).toBe(0);
+    // No NAPPE or _xldudf_ formula anywhere in the copy.
+    const zip = await JSZip.loadAsync(readFileSync(copy));
+    const sheets = await Promise.all(Object.keys(zip.files).filter((p) => /^xl\/worksheets\/sheet\d+\.xml$/.test(p)).map((p) => zip.file(p)!.async("string")));
+    for (const xml of sheets) expect(xml).not.toMatch(/<f[^>]*>[^<]*(NAPPE|_xldudf_)/i);
+    expect(Object.keys(zip.files).some((p) => p.includes("webextension"))).toBe(false);
+    convert([copy], "csv", dir);
+    expect(readdirSync(dir)).toContain(`handoff-${ABOUT_SHEET}.csv`);
+    const calc = readCsv(join(dir, "handoff-Calc.csv"));
+    const nappeValues = recalculate(await readWorkbook(join(root, "demo", DEMO_FILE)), { all: true });
+    let compared = 0;
+    for (const cell of nappeValues.cells.filter((x) => x.sheet === "Calc")) {
+      const want = Array.isArray(cell.value) ? cell.value[0][0] : cell.value;
+      if (typeof want !== "number") continue;
+      const got = Number(csvCell(calc, cell.address));
+      expect(relativeError(got, want), `Calc!${cell.address}: LibreOffice ${csvCell(calc, cell.address)}, Nappe ${want}`).toBeLessThan(1e-9);
+      compared++;
+    }
+    expect(compared).toBeGreaterThan(30);
+    // The note keeps the formula and the result with its unit.
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.readFile(copy);
+    expect(String(book.getWorksheet("Calc")!.getCell("B21").note)).toMatch(/=NAPPE\.HEADLOSS\(B11&" m\^3\/h", B16, Inputs!B14, B18, B6\)\nResult: [\d.]+ m/);
+    expect(book.worksheets[0].name).toBe(ABOUT_SHEET);
+    expect(book.worksheets.at(-1)!.name).toBe("Nappe audit");
+  });
+
+  it("opens the audit workbook, one page wide", async () => {
+    const dir = tempDir();
+    const r = await nappe("audit", join(root, "demo", DEMO_FILE), "--html", join(dir, "a.html"), "--xlsx", join(dir, "audit.xlsx"));
+    expect(r.code).toBe(0);
+    convert([join(dir, "audit.xlsx")], "pdf", dir);
+    const pdf = readFileSync(join(dir, "audit.pdf"), "latin1");
+    // Landscape pages only (MediaBox wider than tall), as many as the rows need.
+    const boxes = [...pdf.matchAll(/\/MediaBox\s*\[\s*0 0 ([\d.]+) ([\d.]+)\s*\]/g)].map((m) => [Number(m[1]), Number(m[2])]);
+    expect(boxes.length).toBeGreaterThan(0);
+    for (const [w, h] of boxes) expect(w).toBeGreaterThan(h);
+    expect(pdfPages(join(dir, "audit.pdf"))).toBeLessThan(20);
+  });
+
+  it("computes the plain formulas Nappe's engine supports to the same values", async () => {
+    // Written with no cached values: LibreOffice must compute each one itself. (LET is checked
+    // against worked values in storedForm.test.ts: LibreOffice 7.4, Debian 12's, lacks it.)
+    const book = new ExcelJS.Workbook();
+    const ws = book.addWorksheet("Plain");
+    const data = [3, -1.5, 8, 0.25, 12, "text", null, 5];
+    data.forEach((v, i) => (ws.getCell(`A${i + 1}`).value = v));
+    const formulas = [
+      "SUM(A1:A8)", "MIN(A1:A8)", "MAX(A1:A8)", "AVERAGE(A1:A8)", "ABS(A2)", "SQRT(A3)", "PI()", "ROUND(A4*7.3,2)", 'IF(A1>2,"big","small")',
+      "MATCH(8,A1:A5,0)", "INDEX(A1:A8,3)", "COUNT(A1:A8)", "COUNTA(A1:A8)", "MEDIAN(A1:A5)", "_xlfn.STDEV.S(A1:A5)", "STDEV(A1:A5)",
+      "A1&\" m\"", "A3^2/4", "(A1+A3)*A2", "A5>=12", "MIN(A1,A2,-7)", "MAX(A3:A5)*2", "MATCH(4,A1:A1,1)", "ROUNDUP(A4*7.3,1)", "INT(-2.5)", "MOD(17,5)",
+      "LN(A3)", "LOG10(1000)", "EXP(1)", "POWER(2,10)", "SUMPRODUCT(A1:A3,A3:A5)", "AND(A1>0,A3>0)", "OR(A2>0,A3<0)", "_xlfn.IFS(A1>5,1,A1>2,2,TRUE,3)",
+      '_xlfn.CONCAT("a",A1)', "IFERROR(1/0,-1)", "ATAN2(1,1)", "DEGREES(PI())", "TRUNC(-2.7)",
+    ];
+    formulas.forEach((f, i) => (ws.getCell(`C${i + 1}`).value = { formula: f }));
+    const dir = tempDir();
+    const path = join(dir, "plain.xlsx");
+    writeFileSync(path, Buffer.from(await book.xlsx.writeBuffer()));
+    const ours = recalculate(await readWorkbook(path), { all: true });
+    convert([path], "csv", dir);
+    const theirs = readCsv(join(dir, "plain-Plain.csv"));
+    formulas.forEach((f, i) => {
+      const mine = ours.valueOf("Plain", `C${i + 1}`);
+      const lo = csvCell(theirs, `C${i + 1}`);
+      if (typeof mine === "number") expect(relativeError(mine, Number(lo)), `${f}: Nappe ${mine}, LibreOffice ${lo}`).toBeLessThan(1e-12);
+      else expect(String(mine).toUpperCase(), f).toBe(lo.toUpperCase());
+    });
+  });
+
+  it("reads a workbook LibreOffice saved (lower-case _xldudf_nappe_ calls) like the demo", async () => {
+    const saved = recalculate(await readWorkbook(join(root, "test/fixtures/libreoffice-saved.xlsx")));
+    const demo = recalculate(await readWorkbook(join(root, "demo", DEMO_FILE)));
+    expect(saved.counts.nappe).toBe(30);
+    expect(saved.cells.map((x) => [x.sheet, x.address, x.formula.replace(/\s+/g, ""), x.value])).toEqual(demo.cells.map((x) => [x.sheet, x.address, x.formula.replace(/\s+/g, ""), x.value]));
+    // LibreOffice had no add-in, so it cached #NAME?: the audit says the file's values are stale.
+    expect(saved.cells.find((x) => x.address === "B21")!.messages.join(" ")).toMatch(/differs from the value cached in the file \(#NAME\?\)/);
+  });
+});
+
+// The fixture needs no LibreOffice to be read: keep one check that runs everywhere.
+describe("the LibreOffice-saved fixture", () => {
+  it("is in LibreOffice's stored form", async () => {
+    const zip = await JSZip.loadAsync(readFileSync(join(root, "test/fixtures/libreoffice-saved.xlsx")));
+    const xml = await zip.file("xl/worksheets/sheet3.xml")!.async("string");
+    expect(xml).toMatch(/_xldudf_nappe_headloss\(/);
+  });
+});
