@@ -224,8 +224,9 @@ async function demo(out: string): Promise<number> {
   console.log(`\nWarnings and checks (${flagged.length + unitFindings.length}):`);
   for (const c of flagged) for (const m of c.messages) console.log(`  ${c.sheet}!${c.address}: ${m}`);
   for (const m of unitFindings) console.log(`  ${m}`);
+  await writeHandoff(path, join(out, "orchard-handoff.xlsx"), result, report, DEFAULT_LIMITS);
   console.log(`\n${summaryLine(result)}`);
-  console.log(`Workbook: ${path}\nAudit report: ${join(out, "orchard-audit.html")}\nAudit sheet:  ${join(out, "orchard-audit.xlsx")}`);
+  console.log(`Workbook: ${path}\nAudit report: ${join(out, "orchard-audit.html")}\nAudit sheet:  ${join(out, "orchard-audit.xlsx")}\nHand-off copy (values, no add-in needed): ${join(out, "orchard-handoff.xlsx")}`);
   console.log("\nA design aid for preliminary sizing: confirm with the pump maker's certified data, local codes and a licensed engineer.");
   return report.counts.error ? 1 : 0;
 }
