@@ -11,7 +11,7 @@ import { CATALOG } from "../functions/catalog";
 import { references } from "./formula";
 import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAddress, type WorkbookModel } from "./model";
 import type { Budget } from "./package";
-import { displayFormula, dottedName, expandLet, externalLinkIndexes, hasNappeCall, otherAddinFunctions, substituteNames, UDF_PREFIX, unknownNappeFunctions } from "./storedForm";
+import { displayFormula, dottedName, expandLet, externalLinkIndexes, hasNappeCall, otherAddinFunctions, resolveNames, UDF_PREFIX, unknownNappeFunctions } from "./storedForm";
 import { EXTRA_FUNCTIONS } from "./extraFunctions";
 
 const { FormulaError } = FormulaParser;
@@ -344,13 +344,7 @@ export class Recalculation {
     let text = this.preparedText.get(cell);
     if (text === undefined) {
       text = cell.formula!;
-      const names = this.wb.names;
-      if (names?.length) {
-        text = substituteNames(text, (name) => {
-          const lower = name.toLowerCase();
-          return (names.find((n) => n.name.toLowerCase() === lower && n.sheet === cell.sheet) ?? names.find((n) => n.name.toLowerCase() === lower && !n.sheet))?.refersTo;
-        });
-      }
+      if (this.wb.names?.length) text = resolveNames(text, cell.sheet, this.wb.names);
       if (/LET\s*\(/i.test(text)) text = expandLet(text);
       this.preparedText.set(cell, text);
     }

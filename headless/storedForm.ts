@@ -11,6 +11,7 @@
  * pane and the writers alike. Text inside "strings" and 'quoted sheet names' is never touched.
  */
 import { CATALOG } from "../functions/catalog";
+import type { DefinedName } from "./model";
 
 /** The stored prefix of a custom function of an add-in. */
 export const UDF_PREFIX = "_xldudf_";
@@ -308,4 +309,13 @@ export function externalLinkIndexes(formula: string): number[] {
     i++;
   }
   return [...found];
+}
+
+/** The formula with the defined names it uses written out, a sheet's own name before the workbook's. */
+export function resolveNames(formula: string, sheet: string, names: readonly DefinedName[]): string {
+  if (!names.length) return formula;
+  return substituteNames(formula, (name) => {
+    const lower = name.toLowerCase();
+    return (names.find((n) => n.name.toLowerCase() === lower && n.sheet === sheet) ?? names.find((n) => n.name.toLowerCase() === lower && !n.sheet))?.refersTo;
+  });
 }

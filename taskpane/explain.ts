@@ -16,7 +16,7 @@ import { formatNumber, formatValue } from "../headless/audit";
 import { callSites, evaluationOrder, replaceArgument, type CallSite } from "../headless/formula";
 import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../headless/model";
 import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../headless/recalc";
-import { displayFormula, hasNappeCall } from "../headless/storedForm";
+import { displayFormula, hasNappeCall, resolveNames } from "../headless/storedForm";
 import { checkCallUnits, type LabelSource } from "../headless/unitCheck";
 import { type ChartData, chartFor, withNpsha } from "./chartData";
 import { toBase } from "../functions/units/quantity";
@@ -131,9 +131,12 @@ async function snapshot(port: HostPort, sheet: string, address: string, formula:
   };
   const put = (c: CellModel) => sheetModel(c.sheet).cells.set(cellKey(c.row, c.col), c);
   put({ sheet, address, row: target.row, col: target.col, value: null, formula });
+  // Defined names go with the snapshot, and their cells are read like any other precedent.
+  const names = await port.definedNames();
+  if (names.length) wb.names = names;
   let refs: RefLike[] = [];
   try {
-    refs = new DepParser().parse(formula, { sheet, row: target.row, col: target.col });
+    refs = new DepParser().parse(resolveNames(formula, sheet, names), { sheet, row: target.row, col: target.col });
   } catch {
     refs = [];
   }

@@ -13,6 +13,7 @@ class FakeSheet {
   deleted = false;
   frozenRows = 0;
   pageLayout: Record<string, unknown> = {};
+  names = { items: [] as { name: string; formula: string }[], load() {} };
   constructor(public name: string) {}
   get freezePanes() {
     return { freezeRows: (n: number) => (this.frozenRows = n) };
@@ -81,6 +82,7 @@ function install() {
     workbook: {
       getActiveCell: () => sheetByName(fake.active.sheet).getRange(fake.active.address),
       onSelectionChanged: { add: (h: () => void) => fake.handlers.push(h) },
+      names: { items: [{ name: "Flow", formula: "=Calc!$B$1" }], load() {} },
       worksheets: {
         getItem: sheetByName,
         getItemOrNullObject: (n: string) => sheetByName(n) ?? { isNullObject: true },
@@ -103,6 +105,7 @@ function install() {
   calc.cells.set("B1", { value: 400, format: '0 "gpm"' });
   calc.cells.set("B2", { formula: 'NAPPE.VELOCITY(B1&" gpm", "4 in")', value: 3.11 });
   calc.cells.set("B3", { formula: "B2*2", value: 6.22 });
+  calc.names.items.push({ name: "Pipe", formula: '="4 in"' });
   fake.sheets = [calc];
 }
 
@@ -126,6 +129,12 @@ describe("Office.js adapter (against a stand-in for Excel's API)", () => {
   it("lists only the NAPPE formulas", async () => {
     const cells = await new OfficeHost().nappeFormulaCells();
     expect(cells).toEqual([{ sheet: "Calc", address: "B2", formula: 'NAPPE.VELOCITY(B1&" gpm", "4 in")', value: 3.11 }]);
+  });
+  it("reads the defined names of the workbook and of each sheet, without '='", async () => {
+    expect(await new OfficeHost().definedNames()).toEqual([
+      { name: "Flow", refersTo: "Calc!$B$1" },
+      { name: "Pipe", refersTo: '"4 in"', sheet: "Calc" },
+    ]);
   });
   it("selects a cell", async () => {
     await new OfficeHost().select("Calc", "B3");

@@ -129,6 +129,11 @@ describe("a workbook saved in Excel's stored form", () => {
     expect(e.formula).toBe("NAPPE.VELOCITY(Inputs!B1,Inputs!B2)");
     expect(e.calls.map((x) => x.id)).toEqual(["VELOCITY"]);
     expect(e.calls[0].args.map((a) => a.written)).toEqual(["Inputs!B1", "Inputs!B2"]);
+    // A defined name as an argument: written as the name, read from the cell it names.
+    const named = await explainCell(host, "Calc", "A7");
+    expect(named.error).toBeUndefined();
+    expect(named.calls[0].args[0]).toMatchObject({ written: "Flow", value: "0.02" });
+    expect(named.value).toBe("20");
   });
   it("the nappe command names another add-in and exits 1 for the failing cells", async () => {
     const r = await nappe("recalc", await storedWorkbook());

@@ -3,7 +3,7 @@
  * server, or built in tests) with a selection. Formula values are recalculated with the
  * headless engine after every write, as Excel would.
  */
-import { addressOf, cellKey, type CellModel, type CellValue, findSheet, getCell, labelSource, parseAddress, type WorkbookModel } from "../../headless/model";
+import { addressOf, cellKey, type CellModel, type CellValue, type DefinedName, findSheet, getCell, labelSource, parseAddress, type WorkbookModel } from "../../headless/model";
 import { recalculate } from "../../headless/recalc";
 import type { CellAddress, CellSnapshot, FormulaCell, HostPort } from "./port";
 import { hasNappeCall } from "../../headless/storedForm";
@@ -106,6 +106,10 @@ export class MemoryHost implements HostPort {
       if (onProgress && (i % 500 === 0 || i === all.length - 1)) onProgress(i + 1, all.length);
     });
     return out;
+  }
+
+  async definedNames(): Promise<DefinedName[]> {
+    return this.workbook.names ?? [];
   }
 
   async select(sheet: string, address: string): Promise<void> {

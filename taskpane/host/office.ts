@@ -3,7 +3,7 @@
  * JavaScript API. Kept thin; everything it returns is plain data for the pure pane logic.
  */
 import { addressOf, parseAddress } from "../../headless/address";
-import type { CellValue } from "../../headless/model";
+import type { CellValue, DefinedName } from "../../headless/model";
 import type { CellAddress, CellSnapshot, FormulaCell, HostPort } from "./port";
 import { hasNappeCall } from "../../headless/storedForm";
 
@@ -100,6 +100,27 @@ export class OfficeHost implements HostPort {
         onProgress?.(s + 1, sheets.items.length);
       }
       return out;
+    });
+  }
+
+  async definedNames(): Promise<DefinedName[]> {
+    return Excel.run(async (context) => {
+      const book = context.workbook.names;
+      book.load("items/name,items/formula");
+      const sheets = context.workbook.worksheets;
+      sheets.load("items/name");
+      await context.sync();
+      const scoped = sheets.items.map((ws) => {
+        const names = ws.names;
+        names.load("items/name,items/formula");
+        return { sheet: ws.name, names };
+      });
+      await context.sync();
+      const refersTo = (formula: unknown) => String(formula).replace(/^=/, "");
+      return [
+        ...book.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula) })),
+        ...scoped.flatMap(({ sheet, names }) => names.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula), sheet }))),
+      ];
     });
   }
 

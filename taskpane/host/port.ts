@@ -3,7 +3,7 @@
  * Office.js in Excel (office.ts) and an in-memory workbook read from .xlsx (memory.ts) for the
  * preview page and tests. All pane logic talks to this interface only.
  */
-import type { CellValue } from "../../headless/model";
+import type { CellValue, DefinedName } from "../../headless/model";
 
 export interface CellSnapshot {
   /** Formula without the leading "=", when the cell has one. */
@@ -36,6 +36,8 @@ export interface HostPort {
   labelsNear(sheet: string, address: string): Promise<string[]>;
   /** Writes a formula (without "=") into one cell. */
   setFormula(sheet: string, address: string, formula: string): Promise<void>;
+  /** The workbook's defined names, workbook-scoped and sheet-scoped. */
+  definedNames(): Promise<DefinedName[]>;
   /** Every formula cell in the workbook that calls a NAPPE function. */
   nappeFormulaCells(onProgress?: (done: number, total: number) => void): Promise<FormulaCell[]>;
   /** Selects a cell (and shows its sheet). */
