@@ -76,15 +76,38 @@ export default async (env, argv) => {
       }),
     ],
   };
-  if (dev) {
-    config.devServer = {
-      host: "localhost",
-      port: 3000,
-      devMiddleware: { writeToDisk: true },
-      headers: { "Access-Control-Allow-Origin": "*" },
-      server: { type: "https", options: await httpsOptions() },
-      static: { directory: path.join(root, "dist") },
-    };
-  }
+  if (!dev) return [config, commandConfig()];
+  config.devServer = {
+    host: "localhost",
+    port: 3000,
+    devMiddleware: { writeToDisk: true },
+    headers: { "Access-Control-Allow-Origin": "*" },
+    server: { type: "https", options: await httpsOptions() },
+    static: { directory: path.join(root, "dist") },
+  };
   return config;
 };
+
+/**
+ * The nappe command, bundled for Node into dist-cli/nappe.cjs (bin/nappe.mjs runs it): no
+ * TypeScript compiled at start-up, and mathjs tree-shaken to its units as in the worksheet
+ * bundle. Other packages stay in node_modules and load as Node loads them.
+ */
+function commandConfig() {
+  const bundled = /^(mathjs|typed-function|decimal\.js|complex\.js|fraction\.js|javascript-natural-sort|seedrandom|tiny-emitter|escape-latex|@babel\/runtime)(\/|$)/;
+  return {
+    name: "command",
+    target: "node20",
+    devtool: false,
+    entry: { nappe: "./headless/cli.ts" },
+    output: { path: path.join(root, "dist-cli"), filename: "[name].cjs", clean: true, library: { type: "commonjs2" } },
+    resolve: { extensions: [".ts", ".js"] },
+    externalsPresets: { node: true },
+    externals: [({ request }, callback) => (request && !request.startsWith(".") && !path.isAbsolute(request) && !bundled.test(request) ? callback(null, `commonjs ${request}`) : callback())],
+    module: {
+      rules: [{ test: /\.ts$/, exclude: /node_modules/, use: { loader: "ts-loader", options: { transpileOnly: true } } }],
+    },
+    optimization: { minimize: false },
+    performance: { hints: false },
+  };
+}

@@ -1,6 +1,13 @@
 #!/usr/bin/env node
-// The nappe command: runs headless/cli.ts through tsx's loader (no build step needed).
-import { register } from "tsx/esm/api";
+// The nappe command: runs the bundled build of headless/cli.ts (dist-cli/nappe.cjs, written by
+// `npm run build` and by `npm install` through the prepare script).
+import { existsSync } from "node:fs";
+import { createRequire } from "node:module";
+import { fileURLToPath } from "node:url";
 
-register();
-await import("../headless/cli.ts");
+const bundle = new URL("../dist-cli/nappe.cjs", import.meta.url);
+if (!existsSync(bundle)) {
+  console.error("nappe: the command is not built yet: run `npm run build` (npm install does it too)");
+  process.exit(2);
+}
+createRequire(import.meta.url)(fileURLToPath(bundle));

@@ -3,11 +3,8 @@
  * is invented demo data, not a real site, pump or product. The workbook's cached values come
  * from Nappe's own recalculation, so Excel shows them before it recalculates.
  *
- *   npx tsx demo/build.ts   writes demo/orchard-pumping-station.xlsx
+ *   npm run demo:build   writes demo/orchard-pumping-station.xlsx (demo/write.ts)
  */
-import { fileURLToPath } from "node:url";
-import { writeFile } from "node:fs/promises";
-import { join } from "node:path";
 import ExcelJS from "exceljs";
 import { excelStoredForm } from "../headless/excelForm";
 import { recalculate } from "../headless/recalc";
@@ -244,8 +241,3 @@ export async function demoWorkbookBytes(): Promise<Buffer> {
   return (await excelStoredForm(Buffer.from(await book.xlsx.writeBuffer()))).bytes;
 }
 
-if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
-  const out = join(fileURLToPath(new URL(".", import.meta.url)), DEMO_FILE);
-  await writeFile(out, await demoWorkbookBytes());
-  console.log(`Wrote ${out}`);
-}

@@ -13,7 +13,6 @@
  */
 import { basename, extname, join, resolve } from "node:path";
 import { parseArgs as parseCommandLine } from "node:util";
-import cliProgress from "cli-progress";
 import ExcelJS from "exceljs";
 import { buildAudit, formatValue } from "./audit";
 import { demoWorkbookBytes, DEMO_FILE } from "../demo/build";
@@ -98,11 +97,19 @@ function limitsOf(flags: Options["flags"]): Limits {
 }
 
 
+/** A progress line on stderr, only when stderr is a terminal (never in pipes, files or CI logs). */
 function progressFor(total: number): { update(done: number): void; stop(): void } {
   if (total < PROGRESS_FROM || !process.stderr.isTTY) return { update() {}, stop() {} };
-  const bar = new cliProgress.SingleBar({ stream: process.stderr, format: "recalculating [{bar}] {value}/{total} formulas" }, cliProgress.Presets.shades_classic);
-  bar.start(total, 0);
-  return { update: (d) => bar.update(d), stop: () => bar.stop() };
+  let shown = -1;
+  return {
+    update(done) {
+      const percent = Math.floor((100 * done) / total);
+      if (percent === shown) return;
+      shown = percent;
+      process.stderr.write(`\rrecalculating ${done}/${total} formulas (${percent} %)`);
+    },
+    stop: () => process.stderr.write("\r\x1b[K"),
+  };
 }
 
 async function load(file: string, flags: Options["flags"]): Promise<{ wb: WorkbookModel; result: RecalcResult }> {
