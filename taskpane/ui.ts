@@ -10,6 +10,7 @@ import { type CallExplanation, type CellExplanation, explainCell } from "./expla
 import { drawChart } from "./chart";
 import { describeArguments, exampleFormula, searchCatalog, signature } from "./guide";
 import type { HostPort } from "./host/port";
+import { writeAction } from "./actions";
 
 export const CAUTION_TEXT =
   "A design aid for preliminary sizing. Confirm with the pump maker's certified curves, local codes and a licensed engineer. Pressurised systems, surge, cavitation and public water features can hurt people.";
@@ -79,11 +80,13 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
     const box = el("div", "status warning unit-warning", el("p", "", `Unit check: ${w.message}`));
     if (w.fixedFormula) {
       const button = el("button", "fix", `Use ${w.fixLabel}`);
-      button.addEventListener("click", async () => {
-        await ctx.port.setFormula(cell.sheet, cell.address, w.fixedFormula!);
-        ctx.say(`Joined the unit in ${cell.sheet}!${cell.address}.`);
-        refresh();
-      });
+      button.addEventListener("click", () =>
+        writeAction(ctx, `join the unit in ${cell.sheet}!${cell.address}`, async () => {
+          await ctx.port.setFormula(cell.sheet, cell.address, w.fixedFormula!);
+          ctx.say(`Joined the unit in ${cell.sheet}!${cell.address}.`);
+          refresh();
+        }),
+      );
       box.append(button);
     }
     card.append(box);
@@ -117,11 +120,13 @@ function guideDetail(spec: FunctionSpec, target: HTMLElement, ctx: PaneContext):
   const example = exampleFormula(spec);
   if (example) {
     const button = el("button", "insert", "Insert into the selected cell");
-    button.addEventListener("click", async () => {
-      const sel = await ctx.port.selection();
-      await ctx.port.setFormula(sel.sheet, sel.address, example.replace(/^=/, ""));
-      ctx.say(`Inserted ${example} into ${sel.sheet}!${sel.address}.`);
-    });
+    button.addEventListener("click", () =>
+      writeAction(ctx, "insert the example", async () => {
+        const sel = await ctx.port.selection();
+        await ctx.port.setFormula(sel.sheet, sel.address, example.replace(/^=/, ""));
+        ctx.say(`Inserted ${example} into ${sel.sheet}!${sel.address}.`);
+      }),
+    );
     target.append(el("h4", "", "Example"), el("code", "formula", example), button);
   }
   target.append(list("Assumptions", spec.assumptions), list("Cautions", spec.cautions, "cautions"), collapsible("Sources", spec.sources));

@@ -1,7 +1,20 @@
 import { describe, expect, it } from "vitest";
 import { failure, run } from "./helpers";
 
-
+describe("defects found on the way stay fixed", () => {
+  it.each(["constructor", "__proto__", "toString", "hasOwnProperty", "valueOf"])("a name such as %s picks no table entry: #VALUE! naming the argument", (name) => {
+    expect(failure("PIPE.ROUGHNESS", name)).toMatchObject({ kind: "value", arg: "material" });
+    expect(failure("FITTING.K", name, 0.1)).toMatchObject({ kind: "value", arg: "fitting" });
+    expect(failure("PIPE.ID", name, 40)).toMatchObject({ kind: "value", arg: "nps" });
+    expect(failure("PIPE.ID", 6, name)).toMatchObject({ kind: "value", arg: "schedule" });
+  });
+  it("SYSTEM.HEAD with a viscosity of zero or below names its own kinematic_viscosity argument", () => {
+    for (const nu of [0, -1e-6]) expect(failure("SYSTEM.HEAD", 0.01, 10, [[100, 0.1, 0.0001]], nu)).toMatchObject({ kind: "num", arg: "kinematic_viscosity" });
+  });
+  it("a unit of no known dimension reads plainly", () => {
+    expect(failure("HEAD", "1 kg").message).toBe('pressure: "kg" is not a pressure unit: expected something like "35 psi"');
+  });
+});
 
 describe("bad input gives a worksheet error naming the argument", () => {
   it("wrong dimension is #VALUE!", () => {

@@ -7,6 +7,7 @@ import { chartFor } from "../taskpane/chartData";
 import { analyseCell, explainCell } from "../taskpane/explain";
 import { MemoryHost } from "../taskpane/host/memory";
 import { AUDIT_SHEET, auditSheetRows, checkWorkbook, writeAuditSheet } from "../taskpane/workbookCheck";
+import { writeAction } from "../taskpane/actions";
 
 const root = join(__dirname, "..");
 const demo = () => readWorkbook(join(root, "demo/orchard-pumping-station.xlsx"));
@@ -166,6 +167,16 @@ describe("workbook check and audit sheet", () => {
     expect(text).toMatch(/Unit check: Inputs!B14 is labelled/);
     expect(text).toMatch(/design aid for preliminary sizing/);
     expect(text).toMatch(/NAPPE\.NPSHA/);
+  });
+});
+
+describe("actions that write to the workbook", () => {
+  it("say why they failed instead of swallowing the failure", async () => {
+    const said: string[] = [];
+    await writeAction({ say: (t) => said.push(t) }, "join the unit in Calc!B21", async () => {
+      throw new Error("The cell is locked: the sheet is protected.");
+    });
+    expect(said).toEqual(["Could not join the unit in Calc!B21: The cell is locked: the sheet is protected."]);
   });
 });
 

@@ -39,7 +39,8 @@ export function fullyTurbulentFriction(diameter: number, roughness = STEEL_ROUGH
 
 export function fittingK(fitting: string, diameter: number): CalcResult {
   const key = fitting.trim().toLowerCase().replace(/[-_°]+/g, " ").replace(/\s+/g, " ").trim();
-  const entry = FITTINGS[key];
+  // Own entries only: text such as "constructor" must not find Object's properties.
+  const entry = Object.hasOwn(FITTINGS, key) ? FITTINGS[key] : undefined;
   if (!entry) {
     throw new CalcError("fitting", `unknown fitting "${fitting}": expected one of ${Object.keys(FITTINGS).map((k) => `"${k}"`).join(", ")}`, "value");
   }

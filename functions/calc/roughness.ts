@@ -40,7 +40,8 @@ const ALIASES: Record<string, string> = {
 
 export function roughnessOf(material: string): CalcResult {
   const key = material.trim().toLowerCase().replace(/[-_]+/g, " ").replace(/\s+/g, " ");
-  const name = ROUGHNESS[key] ? key : ALIASES[key];
+  // Own entries only: text such as "constructor" must not find Object's properties.
+  const name = Object.hasOwn(ROUGHNESS, key) ? key : Object.hasOwn(ALIASES, key) ? ALIASES[key] : undefined;
   if (!name) {
     throw new CalcError("material", `unknown material "${material}": expected one of ${Object.keys(ROUGHNESS).map((k) => `"${k}"`).join(", ")}`, "value");
   }

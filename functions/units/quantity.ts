@@ -84,8 +84,8 @@ function conversionFor(arg: string, unitText: string, dim: Dimension): UnitConve
   }
   if (!unit.equalBase(unitOf(info.base))) {
     const actual = dimensionOfUnit(unitText, ALL_DIMENSIONS);
-    const is = actual ? `is ${DIMENSIONS[actual].noun} unit` : "is not";
-    throw new CalcError(arg, `"${unitText}" ${is}, not ${info.noun}: expected something like ${info.example}`, "value");
+    const what = actual ? `is ${DIMENSIONS[actual].noun} unit, not ${info.noun}` : `is not ${info.noun} unit`;
+    throw new CalcError(arg, `"${unitText}" ${what}: expected something like ${info.example}`, "value");
   }
   const name = normaliseUnitText(unitText);
   let conversion: UnitConversion;
