@@ -4,7 +4,7 @@ export function cellKey(row: number, col: number): string {
   return `${row}:${col}`;
 }
 
-export function columnLetters(col: number): string {
+function columnLetters(col: number): string {
   let s = "";
   for (let n = col; n > 0; n = Math.floor((n - 1) / 26)) s = String.fromCharCode(65 + ((n - 1) % 26)) + s;
   return s;

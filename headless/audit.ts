@@ -18,7 +18,7 @@ export const GENERAL_CAUTIONS = [
   "Pressurised systems, surge, cavitation, motors and public water features can hurt people.",
 ];
 
-export interface AuditInput {
+interface AuditInput {
   name: string;
   /** What the formula passed: a reference ("B4"), or the literal value. */
   written: string;
@@ -28,7 +28,7 @@ export interface AuditInput {
   how: string;
 }
 
-export interface AuditCall {
+interface AuditCall {
   id: string;
   purpose: string;
   equation: string;
@@ -41,7 +41,7 @@ export interface AuditCall {
   error?: string;
 }
 
-export interface AuditEntry {
+interface AuditEntry {
   sheet: string;
   address: string;
   formula: string;

@@ -6,7 +6,7 @@
 import { lex, type Token } from "fast-formula-parser/grammar/lexing";
 import { dottedName } from "./storedForm";
 
-export interface ArgSite {
+interface ArgSite {
   /** Source text of the argument, trimmed ("" when left out). */
   text: string;
   /** Offsets in the formula of the trimmed text: [start, end). */
@@ -80,7 +80,7 @@ export function replaceArgument(formula: string, arg: ArgSite, text: string): st
 }
 
 /** A reference found in a formula's text: one cell, or a rectangle (whole columns end at the last row). */
-export interface FormulaRef {
+interface FormulaRef {
   /** Sheet named in the reference, or undefined for the formula's own sheet. */
   sheet?: string;
   from: { row: number; col: number };

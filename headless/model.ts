@@ -6,7 +6,7 @@
 import { cellKey } from "./address";
 import type { LabelSource } from "./unitCheck";
 
-export { addressOf, cellKey, columnLetters, parseAddress } from "./address";
+export { addressOf, cellKey, parseAddress } from "./address";
 
 export type CellValue = number | string | boolean | null;
 

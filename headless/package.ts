@@ -50,7 +50,7 @@ export class Budget {
  */
 const MEMORY_PER_XML_BYTE = 12;
 
-export interface PackageContents {
+interface PackageContents {
   /** The package with the parts a recalculation does not need taken out, for exceljs. */
   bytes: Buffer;
   definedNames: DefinedName[];
@@ -107,7 +107,7 @@ function largestIn(sqref: string): { ref: string; cells: number } {
  * Takes out what exceljs would expand cell by cell and the recalculation never reads. Adds to
  * `large` a description of each thing taken out that covered a large range.
  */
-export function trimSheetXml(xml: string, large: string[] = []): string {
+function trimSheetXml(xml: string, large: string[] = []): string {
   const note = (what: string) => (tag: string) => {
     for (const m of tag.matchAll(/\ssqref="([^"]*)"|<(?:\w+:)?sqref>([^<]*)</g)) {
       const big = largestIn(m[1] ?? m[2] ?? "");

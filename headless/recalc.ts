@@ -45,7 +45,7 @@ export interface CellOutcome {
   recalculated: boolean;
 }
 
-export interface RecalcOptions {
+interface RecalcOptions {
   /** Relative tolerance against cached values (default 1e-6). */
   tolerance?: number;
   /** Called as formulas are computed. */
@@ -56,7 +56,7 @@ export interface RecalcOptions {
   budget?: Budget;
 }
 
-export interface Computed {
+interface Computed {
   value: CellValue | CellValue[][];
   error?: string;
   message?: string;
@@ -92,7 +92,7 @@ function isSingleNappeCall(formula: string): boolean {
   return false;
 }
 
-function rangeText(sheet: string, ref: FunctionArg["ref"], here: string): string | undefined {
+function rangeText(ref: FunctionArg["ref"], here: string): string | undefined {
   if (!ref) return undefined;
   const prefix = ref.sheet && ref.sheet !== here ? `${ref.sheet}!` : "";
   if (ref.from && ref.to) return `${prefix}${addressOf(ref.from.row, ref.from.col)}:${addressOf(ref.to.row, ref.to.col)}`;
@@ -172,7 +172,7 @@ export class Recalculation {
 
   private callNappe(id: string, args: FunctionArg[]): unknown {
     const here = this.visiting[this.visiting.length - 1]?.split("!")[0] ?? "";
-    const record: CallRecord = { id, refs: args.map((a) => rangeText(here, a.ref, here)) };
+    const record: CallRecord = { id, refs: args.map((a) => rangeText(a.ref, here)) };
     this.calls[this.calls.length - 1]?.push(record);
     const raws: RawArg[] = [];
     for (const a of args) {
@@ -509,7 +509,7 @@ export function outcomeFor(cell: CellModel, computed: Computed, tolerance = 1e-6
 }
 
 /** What a run found and did, for the summary line. */
-export interface RecalcCounts {
+interface RecalcCounts {
   /** Formula cells in the workbook. */
   formulas: number;
   /** Formula cells that call a NAPPE function (either stored form). */

@@ -34,7 +34,7 @@ export function renderTable(cells: readonly CellOutcome[]): string {
 
 const ESCAPES: Record<string, string> = { "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" };
 /** Escapes workbook text for HTML: nothing from a workbook is ever markup. */
-export function escapeHtml(text: string): string {
+function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => ESCAPES[c]);
 }
 

@@ -60,10 +60,10 @@ function functionNames(formula: string): NameToken[] {
 }
 
 /** What a function name as written means for Nappe. */
-export type NameKind = { kind: "nappe"; id: string } | { kind: "unknown-nappe"; written: string } | { kind: "other-addin"; written: string } | { kind: "other" };
+type NameKind = { kind: "nappe"; id: string } | { kind: "unknown-nappe"; written: string } | { kind: "other-addin"; written: string } | { kind: "other" };
 
 /** Classifies a function name: a NAPPE call in either form, another add-in's function, or anything else. */
-export function classifyName(name: string): NameKind {
+function classifyName(name: string): NameKind {
   const upper = name.toUpperCase();
   if (upper.startsWith("_XLDUDF_")) {
     const rest = upper.slice(UDF_PREFIX.length);
@@ -274,7 +274,7 @@ function mapOutsideQuotes(formula: string, visit: (text: string) => string): str
  * Defined names written out: each name (not a function, sheet or cell) that `lookup` knows is
  * replaced by what it refers to, bracketed unless it is a plain reference.
  */
-export function substituteNames(formula: string, lookup: (name: string) => string | undefined): string {
+function substituteNames(formula: string, lookup: (name: string) => string | undefined): string {
   let text = formula;
   // Names may refer to other names: a few rounds, never a loop.
   for (let round = 0; round < 8; round++) {

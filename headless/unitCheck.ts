@@ -17,7 +17,7 @@ export interface LabelSource {
   numberFormat(sheet: string, row: number, col: number): string | undefined;
 }
 
-export interface UnitFinding {
+interface UnitFinding {
   /** The argument's name. */
   arg: string;
   /** "Sheet!B7" or "B7". */
@@ -32,7 +32,7 @@ export interface UnitFinding {
 const ALL_DIMS = Object.keys(DIMENSIONS) as Dimension[];
 
 /** Unit names a label or number format declares: "(ft)", "[gpm]", a quoted "gpm" in a format, or a bare unit word. */
-export function unitsDeclared(text: string): string[] {
+function unitsDeclared(text: string): string[] {
   const found: string[] = [];
   for (const m of text.matchAll(/[([]\s*([^()[\]]+?)\s*[)\]]/g)) found.push(m[1]);
   for (const m of text.matchAll(/"([^"]+)"/g)) found.push(m[1].trim());
@@ -91,7 +91,7 @@ export function checkCallUnits(spec: FunctionSpec, evaluation: Evaluation, refs:
  * Bare numbers whose size is implausible for their dimension in pump and pipe work (a bare
  * flow of 4000 is 4000 m³/s): usually a number meant in another unit.
  */
-export function implausibleMagnitudes(spec: FunctionSpec, evaluation: Evaluation, refs: readonly (string | undefined)[]): UnitFinding[] {
+function implausibleMagnitudes(spec: FunctionSpec, evaluation: Evaluation, refs: readonly (string | undefined)[]): UnitFinding[] {
   const findings: UnitFinding[] = [];
   spec.params.forEach((p, i) => {
     if (p.kind !== "quantity") return;

@@ -12,12 +12,12 @@ import { DIMENSIONS } from "../functions/units/dimensions";
 import { fromBase, toBase } from "../functions/units/quantity";
 import type { CallRecord } from "../headless/recalc";
 
-export interface Point {
+interface Point {
   x: number;
   y: number;
 }
 
-export interface ChartSeries {
+interface ChartSeries {
   name: string;
   /** "points": markers only; "line": a smooth line; "marker": one highlighted point. */
   style: "points" | "line" | "dashed" | "marker";
@@ -38,7 +38,7 @@ export interface ChartData {
 const CHARTED = /^(PUMP\.|SYSTEM\.|TRIM$|SPEED$|AFFINITY\.RATIO$)/;
 
 /** True when a call's result can be drawn. */
-export function isCharted(id: string): boolean {
+function isCharted(id: string): boolean {
   return CHARTED.test(id);
 }
 

@@ -22,7 +22,7 @@ import { type ChartData, chartFor, withNpsha } from "./chartData";
 import { toBase } from "../functions/units/quantity";
 import type { HostPort } from "./host/port";
 
-export interface ArgExplanation {
+interface ArgExplanation {
   name: string;
   /** The argument as written in the formula ("Inputs!B14", "\"6 in\"", or "" when left out). */
   written: string;
@@ -36,7 +36,7 @@ export interface ArgExplanation {
   base: string;
 }
 
-export interface UnitWarning {
+interface UnitWarning {
   message: string;
   /** The whole formula with the fix applied, ready to write back. */
   fixedFormula?: string;
@@ -257,7 +257,7 @@ function baseValue(rec: CallRecord): number {
 }
 
 /** A cell's explanation, and its outcome in the audit model (status, messages, calls). */
-export interface CellAnalysis {
+interface CellAnalysis {
   explanation: CellExplanation;
   outcome?: CellOutcome;
   /** Labels and formats of the referenced cells, for the audit's unit check. */

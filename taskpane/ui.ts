@@ -12,7 +12,7 @@ import { describeArguments, exampleFormula, searchCatalog, signature } from "./g
 import type { HostPort } from "./host/port";
 import { writeAction } from "./actions";
 
-export const CAUTION_TEXT =
+const CAUTION_TEXT =
   "A design aid for preliminary sizing. Confirm with the pump maker's certified curves, local codes and a licensed engineer. Pressurised systems, surge, cavitation and public water features can hurt people.";
 
 type Child = Node | string;

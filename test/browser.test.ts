@@ -56,7 +56,6 @@ async function eventually<T>(read: () => Promise<T>, check: (v: T) => boolean, w
 }
 const containsText = (loc: Locator, text: string) => eventually(() => loc.innerText(), (t) => t.includes(text), `text "${text}"`);
 const hasExactText = (loc: Locator, text: string) => eventually(() => loc.innerText(), (t) => t.trim() === text, `exact text "${text}"`);
-const notContainsText = (loc: Locator, text: string) => eventually(() => loc.innerText(), (t) => !t.includes(text), `no text "${text}"`);
 const countIs = (loc: Locator, n: number) => eventually(() => loc.count(), (c) => c === n, `${n} elements`);
 
 async function selectCell(page: Page, sheet: string, address: string): Promise<void> {

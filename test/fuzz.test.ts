@@ -2,8 +2,9 @@
  * Fuzzing the worksheet layer: thousands of random Excel-style calls per function through the
  * built bundle (numbers of every magnitude, text, empty, booleans, wrong-shaped and very large
  * ranges, 10 000-character strings, unit strings built to look like code). Every call must give
- * a number, a spilled array, or a worksheet error with a message: never another exception, NaN,
- * Infinity or a hang.
+ * a number, a spilled array, or a worksheet error whose message names an argument (or the
+ * result, when absurd inputs overflow it): never another exception, an internal failure
+ * ("failed unexpectedly"), NaN, Infinity or a hang (the test's own time limit).
  */
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
@@ -57,10 +58,9 @@ function finiteEverywhere(v: unknown): boolean {
 describe("fuzzing every worksheet function through the built bundle", () => {
   it.each(CATALOG.map((s) => [s.id, s.params.length]))("NAPPE.%s: 1000 random calls, each a value or a worksheet error", (id, arity) => {
     const fn = registry.get(id as string)!;
-    let slowest = 0;
+    const names = [...CATALOG.find((s) => s.id === id)!.params.map((p) => p.name), "result"];
     fc.assert(
       fc.property(fc.array(argument, { minLength: arity as number, maxLength: arity as number }), (args) => {
-        const t0 = performance.now();
         try {
           const v = fn(...args);
           expect(finiteEverywhere(v), `NAPPE.${id}(${JSON.stringify(args).slice(0, 200)}) = ${String(v)}`).toBe(true);
@@ -68,12 +68,13 @@ describe("fuzzing every worksheet function through the built bundle", () => {
           expect(e, `NAPPE.${id}(${JSON.stringify(args).slice(0, 200)}) threw ${String(e)}`).toBeInstanceOf(StubError);
           const err = e as StubError;
           expect(["#VALUE!", "#NUM!"]).toContain(err.code);
-          expect(err.message.length).toBeGreaterThan(3);
+          const call = `NAPPE.${id}(${JSON.stringify(args).slice(0, 200)})`;
+          // An internal failure is a defect, not an answer: the message must name an argument of the call.
+          expect(err.message, call).not.toMatch(/failed unexpectedly/);
+          expect(names.some((n) => err.message.startsWith(`${n}:`)), `${call}: ${err.message}`).toBe(true);
         }
-        slowest = Math.max(slowest, performance.now() - t0);
       }),
       { numRuns: 1000 },
     );
-    expect(slowest, `slowest call of NAPPE.${id}`).toBeLessThan(2000);
-  });
+  }, 180_000);
 });

@@ -105,7 +105,7 @@ function readWord(p: ParamSpec, raw: number | string | boolean): string {
 }
 
 /** Reads every argument of `spec` from raw worksheet values. */
-export function readArgs(spec: FunctionSpec, rawArgs: readonly RawArg[]): { args: Args; readings: ArgReading[] } {
+function readArgs(spec: FunctionSpec, rawArgs: readonly RawArg[]): { args: Args; readings: ArgReading[] } {
   if (rawArgs.length > spec.params.length) {
     throw new CalcError(spec.id, `takes at most ${spec.params.length} arguments; got ${rawArgs.length}`, "value");
   }

@@ -9,7 +9,7 @@ import { type Dimension, DIMENSIONS } from "../units/dimensions";
 import { parseNumberText, parseQuantity, toBase, fromBase } from "../units/quantity";
 import type { RawArg } from "./evaluate";
 
-export const TABLE_KINDS = ["curve", "segments", "family"] as const;
+const TABLE_KINDS = ["curve", "segments", "family"] as const;
 export type TableKind = (typeof TABLE_KINDS)[number];
 
 interface RoleSpec {
@@ -31,7 +31,7 @@ const NPSHR: RoleSpec = { role: "npshr", dim: "length", required: false, names: 
 const POWER: RoleSpec = { role: "power", dim: "power", required: false, names: /^(power|p|bhp|shaft power)$/i, label: "Power" };
 
 /** Columns of each kind of table, in positional order. */
-export const TABLE_ROLES: Record<TableKind, RoleSpec[]> = {
+const TABLE_ROLES: Record<TableKind, RoleSpec[]> = {
   curve: [FLOW, HEAD, EFF, NPSHR, POWER],
   segments: [
     { role: "length", dim: "length", required: true, names: /^(length|l|len)$/i, label: "Length" },
@@ -43,7 +43,7 @@ export const TABLE_ROLES: Record<TableKind, RoleSpec[]> = {
 };
 
 /** One column read into base units. `values` has null where a cell was blank. */
-export interface TableColumn {
+interface TableColumn {
   role: string;
   dim: Dimension;
   /** Header text as written, or undefined for a positional column. */

@@ -7,9 +7,15 @@ export type AffinityKind = (typeof AFFINITY_KINDS)[number];
 
 const EXPONENT: Record<AffinityKind, number> = { flow: 1, head: 2, npshr: 2, power: 3 };
 
-/** Exponent of the ratio for each kind of quantity. */
-export function affinityExponent(kind: AffinityKind): number {
-  return EXPONENT[kind];
+/**
+ * The factor each column of a pump curve is multiplied by when the curve moves by a speed or
+ * diameter ratio r: flow r, head and NPSHr r², power r³; efficiency (and anything else) unchanged.
+ */
+export function curveScaleFactors(ratio: number): CalcResult<(column: string) => number> {
+  if (!(Number.isFinite(ratio) && ratio > 0)) throw new CalcError("ratio", `expected a ratio greater than zero; got ${ratio}`);
+  const warnings = ratio < 0.5 || ratio > 1.5 ? [`Ratio ${ratio} is far from 1: the affinity laws lose accuracy; confirm with the pump maker.`] : [];
+  const factor = (column: string) => ((AFFINITY_KINDS as readonly string[]).includes(column) ? Math.pow(ratio, EXPONENT[column as AffinityKind]) : 1);
+  return ok(factor, warnings);
 }
 
 /** Scales a value by r^n for its kind, where r is the speed (or impeller diameter) ratio. */

@@ -22,11 +22,11 @@ const LAYERS: ReadonlyArray<readonly [number, number]> = [
   [71000, -0.002],
 ];
 const TOP_GEOPOTENTIAL = 84852;
-export const ELEVATION_MIN = -5000;
-export const ELEVATION_MAX = 86000;
+const ELEVATION_MIN = -5000;
+const ELEVATION_MAX = 86000;
 
 /** Geopotential height, m', from geometric elevation, m. */
-export function geopotentialHeight(elevation: number): number {
+function geopotentialHeight(elevation: number): number {
   return (EARTH_RADIUS * elevation) / (EARTH_RADIUS + elevation);
 }
 

@@ -12,8 +12,8 @@ export const FRICTION_METHODS = ["colebrook", "swamee-jain", "haaland", "churchi
 export type FrictionMethod = (typeof FRICTION_METHODS)[number];
 
 /** Upper end of laminar flow and lower end of fully turbulent flow used here (common practice). */
-export const LAMINAR_LIMIT = 2000;
-export const TURBULENT_LIMIT = 4000;
+const LAMINAR_LIMIT = 2000;
+const TURBULENT_LIMIT = 4000;
 const MAX_RELATIVE_ROUGHNESS = 0.5;
 const MOODY_RELATIVE_ROUGHNESS = 0.05;
 

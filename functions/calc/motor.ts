@@ -13,7 +13,7 @@ export const IEC_KW = [0.06, 0.09, 0.12, 0.18, 0.25, 0.37, 0.55, 0.75, 1.1, 1.5,
 export const HORSEPOWER = 745.69987158227022;
 
 /** Ratings of a series in W. */
-export function motorRatings(series: MotorSeries): number[] {
+function motorRatings(series: MotorSeries): number[] {
   return series === "nema" ? NEMA_HP.map((hp) => hp * HORSEPOWER) : IEC_KW.map((kw) => kw * 1000);
 }
 

@@ -22,7 +22,7 @@ export function npshAvailable(surfacePressure: number, liquidHeight: number, suc
 }
 
 /** Margin ratios of ANSI/HI 9.6.1 (values from memory: 1.1 at the least, up to 2.5 for high suction energy). */
-export const NPSH_MARGIN_MINIMUM = 1.1;
+const NPSH_MARGIN_MINIMUM = 1.1;
 
 /** NPSH margin ratio NPSHa/NPSHr with warnings below the guideline. */
 export function npshMargin(npsha: number, npshr: number): CalcResult {

@@ -3,7 +3,7 @@ import { CalcError, type CalcResult, ok } from "./_lib/result";
 import { allRoots } from "./_lib/solve";
 import type { Interpolant } from "./pumpCurve";
 
-export interface OperatingPoint {
+interface OperatingPoint {
   flow: number;
   head: number;
 }

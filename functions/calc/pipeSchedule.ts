@@ -34,10 +34,9 @@ const WALL: Record<string, number[]> = {
 };
 
 export const PIPE_SCHEDULES = Object.keys(WALL);
-export const PIPE_SIZES: readonly string[] = NPS;
 
 /** Normalises a nominal size: 6, "6", "1-1/2", "1 1/2", "1.5", 1.25 → the table's spelling. */
-export function normaliseNps(nps: number | string): string | undefined {
+function normaliseNps(nps: number | string): string | undefined {
   const text = String(nps).trim().replace(/"|in$|inch$/i, "").trim();
   if (NPS.includes(text as (typeof NPS)[number])) return text;
   const mixed = /^(\d+)[\s-]+(\d)\/(\d)$/.exec(text);
@@ -51,12 +50,12 @@ export function normaliseNps(nps: number | string): string | undefined {
 }
 
 /** Normalises a schedule: 40, "40", "Sch 40", "std", "xs", "40s", "XXS". */
-export function normaliseSchedule(schedule: number | string): string | undefined {
+function normaliseSchedule(schedule: number | string): string | undefined {
   const text = String(schedule).trim().toUpperCase().replace(/^(SCH(EDULE)?\.?\s*)/, "");
   return PIPE_SCHEDULES.includes(text) ? text : undefined;
 }
 
-export interface PipeDimensions {
+interface PipeDimensions {
   outside: number;
   wall: number;
   inside: number;

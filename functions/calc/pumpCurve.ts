@@ -26,10 +26,9 @@ export interface PumpCurve {
   power?: Series;
 }
 
-export type CurveQuantity = keyof PumpCurve;
 
 /** Derivatives at the points, as SciPy's PchipInterpolator._find_derivatives computes them. */
-export function pchipSlopes(x: readonly number[], y: readonly number[]): number[] {
+function pchipSlopes(x: readonly number[], y: readonly number[]): number[] {
   const n = x.length;
   const h: number[] = [];
   const m: number[] = [];
@@ -62,7 +61,7 @@ function pchipEnd(h0: number, h1: number, m0: number, m1: number): number {
 }
 
 /** Evaluates the cubic Hermite interpolant with slopes d at xq (inside [x0, xn]). */
-export function hermite(x: readonly number[], y: readonly number[], d: readonly number[], xq: number): number {
+function hermite(x: readonly number[], y: readonly number[], d: readonly number[], xq: number): number {
   let k = 0;
   let hi = x.length - 1;
   while (hi - k > 1) {
@@ -147,7 +146,3 @@ export function checkHeadShape(arg: string, head: Series): void {
   }
 }
 
-/** The range of flows a curve covers (its head points). */
-export function flowRange(curve: PumpCurve): [number, number] {
-  return [curve.head.x[0], curve.head.x[curve.head.x.length - 1]];
-}

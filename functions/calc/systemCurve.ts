@@ -31,7 +31,7 @@ export function checkSegments(arg: string, segments: readonly PipeSegment[]): vo
 }
 
 /** Sum of friction and minor losses of the segments at a flow, m. */
-export function segmentLosses(flow: number, segments: readonly PipeSegment[], kinematicViscosity: number): CalcResult {
+function segmentLosses(flow: number, segments: readonly PipeSegment[], kinematicViscosity: number): CalcResult {
   if (!(kinematicViscosity > 0 && Number.isFinite(kinematicViscosity))) {
     throw new CalcError("kinematic_viscosity", `expected a kinematic viscosity greater than zero; got ${kinematicViscosity}`);
   }

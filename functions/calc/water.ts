@@ -33,14 +33,13 @@ const N4 = [
 ];
 
 /** Range in which the region 1 equation is used here: 0 °C to 350 °C, up to 100 MPa. */
-export const LIQUID_T_MIN_C = 0;
-export const LIQUID_T_MAX_C = 350;
-export const LIQUID_P_MAX_PA = 100e6;
+const LIQUID_T_MIN_C = 0;
+const LIQUID_T_MAX_C = 350;
+const LIQUID_P_MAX_PA = 100e6;
 /** Region 4 range: triple point (273.16 K is the definition; IF97 uses 273.15 K) to critical point. */
 const SAT_T_MIN_K = 273.15;
 const SAT_T_MAX_K = 647.096;
 const SAT_P_MIN_PA = 611.213;
-const SAT_P_MAX_PA = 22.064e6;
 
 /** IF97 region 1 specific volume, m³/kg, at T in K and p in Pa (no range checks). */
 export function if97Region1SpecificVolume(temperatureK: number, pressurePa: number): number {
@@ -108,14 +107,6 @@ export function saturationPressure(temperatureC: number): CalcResult {
     throw new CalcError("temperature", `expected 0 °C to 373.946 °C (the IF97 saturation line); got ${temperatureC} °C`);
   }
   return ok(if97SaturationPressure(T));
-}
-
-/** Boiling (saturation) temperature of water, °C, at an absolute pressure in Pa. */
-export function saturationTemperature(pressurePa: number): CalcResult {
-  if (!(pressurePa >= SAT_P_MIN_PA && pressurePa <= SAT_P_MAX_PA)) {
-    throw new CalcError("pressure", `expected 611.213 Pa to 22.064 MPa absolute (the IF97 saturation line); got ${pressurePa} Pa`);
-  }
-  return ok(if97SaturationTemperature(pressurePa) - ZERO_CELSIUS);
 }
 
 /** Checks that (T, p) is compressed or saturated liquid inside IF97 region 1; throws otherwise. */

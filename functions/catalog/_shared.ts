@@ -14,7 +14,7 @@ export function unitParam(example: string): UnitParam {
   return { name: "unit", kind: "unit", optional: true, description: `Unit of the result, such as ${example}; base unit when left out.` };
 }
 
-export const DEFAULT_WATER_NOTE = "water at 20 °C and 101.325 kPa (IAPWS-IF97 and IAPWS 2008)";
+const DEFAULT_WATER_NOTE = "water at 20 °C and 101.325 kPa (IAPWS-IF97 and IAPWS 2008)";
 
 export const densityParam: QuantityParam = {
   name: "density",

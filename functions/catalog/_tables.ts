@@ -34,7 +34,7 @@ function seriesOf(arg: string, t: Table, rows: number[], role: string): Series |
 }
 
 /** A pump curve from the rows `rows` of a curve or family table. */
-export function curveFromRows(arg: string, t: Table, rows: number[]): PumpCurve {
+function curveFromRows(arg: string, t: Table, rows: number[]): PumpCurve {
   const head = seriesOf(arg, t, rows, "head")!;
   checkHeadShape(arg, head);
   return { head, efficiency: seriesOf(arg, t, rows, "efficiency"), npshr: seriesOf(arg, t, rows, "npshr"), power: seriesOf(arg, t, rows, "power") };
@@ -73,7 +73,7 @@ export function systemLosses(a: Args): SystemLosses {
 }
 
 /** One impeller of a family: its size (base units) or label, and its curve. */
-export interface Impeller {
+interface Impeller {
   size: number | null;
   label: string;
   curve: PumpCurve;

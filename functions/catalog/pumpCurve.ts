@@ -2,11 +2,12 @@ import { CURVE_FITS, type CurveFit, valueAt } from "../calc/pumpCurve";
 import { operatingPoint } from "../calc/operatingPoint";
 import { systemHead } from "../calc/systemCurve";
 import { hydraulicPower } from "../calc/power";
+import { curveScaleFactors } from "../calc/affinity";
 import { CalcError, ok } from "../calc/_lib/result";
 import { fromBase } from "../units/quantity";
 import type { Table } from "../bind/table";
 import { CAVITATION_CAUTION, curveParam, DESIGN_AID, densityParam, PARABOLA_CURVE, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
-import { curveColumn, curveFromTable, impellersFromTable, spillHeader, spillTable, systemLosses } from "./_tables";
+import { curveColumn, curveFromTable, impellersFromTable, spillTable, systemLosses } from "./_tables";
 import type { Args, ChoiceParam, FunctionSpec, ParamSpec } from "./types";
 
 const fitParam: ChoiceParam = {
@@ -170,13 +171,10 @@ export const specs: FunctionSpec[] = [
       },
     ],
     compute: (a) => {
-      const r = a.ratio as number;
-      if (!(r > 0 && Number.isFinite(r))) throw new CalcError("ratio", `expected a ratio greater than zero; got ${r}`);
       const t = a.curve as Table;
       curveFromTable("curve", t);
-      const power: Record<string, number> = { flow: 1, head: 2, npshr: 2, power: 3, efficiency: 0 };
-      const warnings = r < 0.5 || r > 1.5 ? [`Ratio ${r} is far from 1: the affinity laws lose accuracy; confirm with the pump maker.`] : [];
-      return ok(spillTable(t, (role, v) => v * Math.pow(r, power[role])), warnings);
+      const scale = curveScaleFactors(a.ratio as number);
+      return ok(spillTable(t, (role, v) => v * scale.value(role)), scale.warnings);
     },
   },
   {

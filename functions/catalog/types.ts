@@ -46,12 +46,12 @@ export interface UnitParam extends ParamBase {
 }
 
 /** A name looked up in a table (pipe size, schedule, material, fitting): text, or a number read as text. */
-export interface TextParam extends ParamBase {
+interface TextParam extends ParamBase {
   kind: "text";
 }
 
 /** A quantity whose dimension is set by another argument (AFFINITY's value). */
-export interface AnyQuantityParam extends ParamBase {
+interface AnyQuantityParam extends ParamBase {
   kind: "anyQuantity";
   /** Picks the dimension from the other (already coerced) arguments. */
   dimFrom: (args: Args) => Dimension;

@@ -6,7 +6,7 @@
  */
 import { CalcError } from "../calc/_lib/result";
 import { type Dimension, DIMENSIONS, hasUnit } from "./dimensions";
-import { type MathUnit, parseUnitText, quantity, unitOf } from "./mathjs";
+import { type MathUnit, quantity, unitOf } from "./mathjs";
 
 const CACHE_LIMIT = 5000;
 const ALL_DIMENSIONS = Object.keys(DIMENSIONS) as Dimension[];
@@ -21,7 +21,7 @@ function cacheFor<T>(caches: Map<Dimension, Map<string, T>>, dim: Dimension): Ma
 }
 
 /** A text quantity read into base units. */
-export interface ParsedQuantity {
+interface ParsedQuantity {
   /** Value in the dimension's base unit. */
   base: number;
   /** The number as written. */

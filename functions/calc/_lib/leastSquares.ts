@@ -4,7 +4,7 @@
  * Coefficients c0..c_degree of the polynomial minimising Σ(y − p(x))². The abscissae are
  * centred and scaled to [−1, 1] for conditioning; evaluate with `evaluatePolynomial`.
  */
-export interface PolynomialFit {
+interface PolynomialFit {
   coefficients: number[];
   centre: number;
   scale: number;

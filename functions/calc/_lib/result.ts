@@ -40,8 +40,3 @@ export function requireFinite(arg: string, x: number): void {
   if (!Number.isFinite(x)) throw new CalcError(arg, `expected a finite number; got ${x}`);
 }
 
-/** Throws when a computed result is not finite (the worksheet must never see NaN or Infinity). */
-export function finiteResult(value: number, what: string): number {
-  if (!Number.isFinite(value)) throw new CalcError("result", `${what} is not a finite number for these inputs`);
-  return value;
-}

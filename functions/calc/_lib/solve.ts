@@ -1,7 +1,7 @@
 /** Root finding on a bracket: Brent's method (Brent 1973, "Algorithms for Minimization without Derivatives", ch. 4). */
 
 /** A root of f in [a, b] where f(a) and f(b) differ in sign, to about machine precision. */
-export function brentRoot(f: (x: number) => number, a: number, b: number, maxIterations = 200): number {
+function brentRoot(f: (x: number) => number, a: number, b: number, maxIterations = 200): number {
   let fa = f(a);
   let fb = f(b);
   if (fa === 0) return a;
