@@ -6,9 +6,10 @@
  *   npm run demo:build   writes demo/orchard-pumping-station.xlsx (demo/write.ts)
  */
 import ExcelJS from "exceljs";
-import { excelStoredForm } from "../headless/excelForm";
-import { recalculate } from "../headless/recalc";
-import { fromExcelJS, parseAddress, addressOf } from "../headless/workbook";
+import { excelStoredForm } from "../workbook/excelForm";
+import { recalculate } from "../workbook/recalc";
+import { addressOf, parseAddress } from "../workbook/address";
+import { fromExcelJS } from "../workbook/fromExcelJS";
 
 export const DEMO_FILE = "orchard-pumping-station.xlsx";
 const INVENTED = "INVENTED DEMO DATA: not a real site, pump or product.";

@@ -14,14 +14,14 @@
 import { basename, extname, join, resolve } from "node:path";
 import { parseArgs as parseCommandLine } from "node:util";
 import ExcelJS from "exceljs";
-import { buildAudit, formatValue } from "./audit";
+import { buildAudit, formatValue } from "../workbook/audit";
 import { demoWorkbookBytes, DEMO_FILE } from "../demo/build";
 import { writeAtomically } from "./atomic";
 import { writeHandoff } from "./handoff";
 import { Budget, DEFAULT_LIMITS, type Limits } from "./package";
-import { recalculate, type RecalcResult } from "./recalc";
+import { recalculate, type RecalcResult } from "../workbook/recalc";
 import { addAuditSheet, renderHtml, renderTable } from "./render";
-import { BudgetError, labelSource, readWorkbook, type WorkbookModel, WorkbookError } from "./workbook";
+import { BudgetError, labelSource, readWorkbook, type WorkbookModel, WorkbookError } from "./readXlsx";
 
 class UsageError extends Error {}
 

@@ -9,13 +9,13 @@
 import { readFile } from "node:fs/promises";
 import { basename } from "node:path";
 import ExcelJS from "exceljs";
-import { type AuditReport, formatValue, GENERAL_CAUTIONS } from "./audit";
+import { type AuditReport, formatValue, GENERAL_CAUTIONS } from "../workbook/audit";
 import { writeAtomically } from "./atomic";
-import { addressOf, type CellValue, parseAddress } from "./model";
+import { addressOf, type CellValue, parseAddress } from "../workbook/model";
 import { type Limits, openPackage } from "./package";
-import type { CellOutcome, RecalcResult } from "./recalc";
+import type { CellOutcome, RecalcResult } from "../workbook/recalc";
 import { addAuditSheet } from "./render";
-import { hasNappeCall, otherAddinFunctions } from "./storedForm";
+import { hasNappeCall, otherAddinFunctions } from "../workbook/storedForm";
 
 export const ABOUT_SHEET = "About this copy";
 

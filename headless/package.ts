@@ -6,7 +6,8 @@
  * that a whole-sheet rule costs nothing. The original bytes are never changed on disk.
  */
 import JSZip from "jszip";
-import type { DefinedName } from "./model";
+import type { DefinedName } from "../workbook/model";
+import { unescapeXml } from "../workbook/xml";
 
 /** A problem with the file itself, reported without a stack trace. */
 export class WorkbookError extends Error {}
@@ -65,17 +66,6 @@ function attr(tag: string, name: string): string | undefined {
   return m ? unescapeXml(m[1]) : undefined;
 }
 
-export function unescapeXml(text: string): string {
-  return text.replace(/&(lt|gt|amp|quot|apos|#x[0-9a-f]+|#\d+);/gi, (_, e: string) => {
-    const lower = e.toLowerCase();
-    if (lower === "lt") return "<";
-    if (lower === "gt") return ">";
-    if (lower === "amp") return "&";
-    if (lower === "quot") return '"';
-    if (lower === "apos") return "'";
-    return String.fromCodePoint(lower.startsWith("#x") ? parseInt(lower.slice(2), 16) : parseInt(lower.slice(1), 10));
-  });
-}
 
 /** Elements of the main namespace, with or without a prefix (`<dataValidations>`, `<x:dataValidations>`). */
 function element(name: string): RegExp {

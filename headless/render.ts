@@ -1,8 +1,8 @@
 /** Renderers of recalculation results and of the audit model: text table, HTML, .xlsx. */
 import ExcelJS from "exceljs";
 import katex from "katex";
-import { type AuditReport, AUDIT_COLUMNS, AUDIT_WIDTHS, auditRows, formatNumber, formatValue, NOTHING_FOUND, wrappedLines } from "./audit";
-import type { CellOutcome } from "./recalc";
+import { type AuditReport, AUDIT_COLUMNS, AUDIT_WIDTHS, auditRows, formatNumber, formatValue, NOTHING_FOUND, wrappedLines } from "../workbook/audit";
+import type { CellOutcome } from "../workbook/recalc";
 
 function clip(text: string, width: number): string {
   return text.length <= width ? text : `${text.slice(0, width - 1)}…`;

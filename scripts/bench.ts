@@ -15,8 +15,8 @@ import ExcelJS from "exceljs";
 import { colebrookFriction, swameeJainFriction } from "../functions/calc/friction";
 import { evaluate, type RawArg } from "../functions/bind/evaluate";
 import { CATALOG_BY_ID } from "../functions/catalog";
-import { recalculate } from "../headless/recalc";
-import { fromExcelJS } from "../headless/workbook";
+import { recalculate } from "../workbook/recalc";
+import { fromExcelJS } from "../headless/readXlsx";
 
 const root = join(import.meta.dirname, "..");
 

@@ -6,7 +6,7 @@
 import { createServer } from "node:http";
 import { readFile } from "node:fs/promises";
 import { basename, extname, join, normalize } from "node:path";
-import { readWorkbook, WorkbookError } from "../headless/workbook";
+import { readWorkbook, WorkbookError } from "../headless/readXlsx";
 
 const root = join(import.meta.dirname, "..");
 const dist = join(root, "dist");

@@ -5,12 +5,12 @@
  */
 import { interpolant, type PumpCurve } from "../functions/calc/pumpCurve";
 import { systemHead } from "../functions/calc/systemCurve";
-import { column, type Table } from "../functions/bind/table";
+import { column, type Table } from "../functions/tables/table";
 import { curveFromTable, impellersFromTable, systemLosses } from "../functions/catalog/_tables";
 import type { Args } from "../functions/catalog/types";
 import { DIMENSIONS } from "../functions/units/dimensions";
 import { fromBase, toBase } from "../functions/units/quantity";
-import type { CallRecord } from "../headless/recalc";
+import type { CallRecord } from "../workbook/recalc";
 
 interface Point {
   x: number;
@@ -136,7 +136,7 @@ export function chartFor(records: readonly CallRecord[]): ChartData | undefined 
     operatingPoint = { x: conv.q(a.flow as number), y: conv.h(interpolant(curve.head).at(a.flow as number)) };
   }
   if (rec.id === "PUMP.DUTY" || rec.id === "SYSTEM.HEAD" || rec.id === "SYSTEM.CURVE") {
-    const losses = systemLosses(rec.id === "PUMP.DUTY" ? a : ({ system: a.segments, kinematic_viscosity: a.kinematic_viscosity } as Args));
+    const losses = systemLosses((rec.id === "PUMP.DUTY" ? a.system : a.segments) as Table | number, a.kinematic_viscosity as number);
     const staticHead = a.static_head as number;
     const systemAt = (q: number) => systemHead(q, staticHead, losses).value;
     const top = rec.id === "SYSTEM.CURVE" ? (a.max_flow as number) : rec.id === "SYSTEM.HEAD" ? 1.5 * Math.max(a.flow as number, 1e-9) : maxFlow;

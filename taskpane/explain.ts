@@ -6,18 +6,17 @@
  * workbook through the HostPort only, and evaluates with the same recalculation engine as the
  * headless command (over a snapshot of the formula's direct precedents).
  */
-import FormulaParser from "fast-formula-parser";
 import { CATALOG_BY_ID } from "../functions/catalog";
 import { resultDimension } from "../functions/catalog/types";
 import type { ArgReading } from "../functions/bind/evaluate";
-import type { Table } from "../functions/bind/table";
+import type { Table } from "../functions/tables/table";
 import { DIMENSIONS } from "../functions/units/dimensions";
-import { formatNumber, formatValue } from "../headless/audit";
-import { callSites, evaluationOrder, replaceArgument, type CallSite } from "../headless/formula";
-import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../headless/model";
-import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../headless/recalc";
-import { displayFormula, hasNappeCall, resolveNames } from "../headless/storedForm";
-import { checkCallUnits, type LabelSource } from "../headless/unitCheck";
+import { formatNumber, formatValue } from "../workbook/audit";
+import { callSites, directPrecedents, evaluationOrder, type PrecedentRef, replaceArgument, type CallSite } from "../workbook/formula";
+import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../workbook/model";
+import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../workbook/recalc";
+import { displayFormula, hasNappeCall, resolveNames } from "../workbook/storedForm";
+import { checkCallUnits, type LabelSource } from "../workbook/unitCheck";
 import { type ChartData, chartFor, withNpsha } from "./chartData";
 import { toBase } from "../functions/units/quantity";
 import type { HostPort } from "./host/port";
@@ -76,14 +75,6 @@ export interface CellExplanation {
   chart?: ChartData;
 }
 
-const { DepParser } = FormulaParser as unknown as { DepParser: new () => { parse(f: string, pos: { sheet: string; row: number; col: number }): RefLike[] } };
-interface RefLike {
-  sheet: string;
-  row?: number;
-  col?: number;
-  from?: { row: number; col: number };
-  to?: { row: number; col: number };
-}
 
 function howWhy(r: ArgReading): { unit: string; why: string } {
   switch (r.how) {
@@ -134,9 +125,9 @@ async function snapshot(port: HostPort, sheet: string, address: string, formula:
   // Defined names go with the snapshot, and their cells are read like any other precedent.
   const names = await port.definedNames();
   if (names.length) wb.names = names;
-  let refs: RefLike[] = [];
+  let refs: PrecedentRef[] = [];
   try {
-    refs = new DepParser().parse(resolveNames(formula, sheet, names), { sheet, row: target.row, col: target.col });
+    refs = directPrecedents(resolveNames(formula, sheet, names), { sheet, row: target.row, col: target.col });
   } catch {
     refs = [];
   }

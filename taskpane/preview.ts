@@ -3,12 +3,12 @@
  * over the in-memory adapter, so anyone can try the pane without Excel. Clicking a cell selects
  * it. Loads nothing but this page's own files and /workbook.json.
  */
-import { addressOf, type CellModel, cellKey, parseAddress, type WorkbookModel } from "../headless/model";
-import { formatValue } from "../headless/audit";
+import { addressOf, type CellModel, cellKey, parseAddress, type WorkbookModel } from "../workbook/model";
+import { formatValue } from "../workbook/audit";
 import { MemoryHost } from "./host/memory";
 import { el, mountPane } from "./ui";
 import { workbookTab } from "./workbookTab";
-import { hasNappeCall } from "../headless/storedForm";
+import { hasNappeCall } from "../workbook/storedForm";
 
 interface WorkbookJson {
   name: string;

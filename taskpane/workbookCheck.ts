@@ -3,9 +3,9 @@
  * status and counts, yielding to the page between cells so long scans stay responsive; and the
  * audit sheet built from the same audit model as the headless report.
  */
-import { type AuditReport, auditRows, AUDIT_WIDTHS, buildAudit, GENERAL_CAUTIONS, NOTHING_FOUND } from "../headless/audit";
-import type { CellOutcome, Status } from "../headless/recalc";
-import type { LabelSource } from "../headless/unitCheck";
+import { type AuditReport, auditRows, AUDIT_WIDTHS, buildAudit, GENERAL_CAUTIONS, NOTHING_FOUND } from "../workbook/audit";
+import type { CellOutcome, Status } from "../workbook/recalc";
+import type { LabelSource } from "../workbook/unitCheck";
 import { analyseCell } from "./explain";
 import type { HostPort } from "./host/port";
 

@@ -207,8 +207,8 @@ describe.runIf(hasChromium)("the Excel pane page", () => {
         outside.push(url);
         return route.abort();
       });
-      await page.goto(preview.url.replace("preview.html", "taskpane.html"));
-      await page.waitForTimeout(1500);
+      // Wait for the network to fall quiet (a condition, not a fixed time).
+      await page.goto(preview.url.replace("preview.html", "taskpane.html"), { waitUntil: "networkidle" });
       expect(outside).toEqual(["https://appsforoffice.microsoft.com/lib/1/hosted/office.js"]);
     } finally {
       await browser.close();

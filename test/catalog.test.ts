@@ -6,8 +6,8 @@ import { bindingName } from "../scripts/generate";
 import ExcelJS from "exceljs";
 import katex from "katex";
 import { exampleFormula } from "../functions/catalog/_formula";
-import { recalculate } from "../headless/recalc";
-import { fromExcelJS } from "../headless/workbook";
+import { recalculate } from "../workbook/recalc";
+import { fromExcelJS } from "../headless/readXlsx";
 import { expectMatchesExample } from "./helpers";
 
 describe("catalogue", () => {

@@ -64,10 +64,10 @@ describe("surge", () => {
 
 describe("annual energy", () => {
   it("is shaft power over motor efficiency times hours", () => {
-    const e = annualEnergy(0.02, 50, 0.8, 4000 * 3600, 0.9, 1000).value;
+    const e = annualEnergy(0.02, 50, 0.8, 4000, 0.9, 1000).value;
     expect(relativeError(e, ((1000 * 9.80665 * 0.02 * 50) / (0.8 * 0.9)) * 4000 * 3600)).toBeLessThan(1e-15);
   });
   it("rejects more hours than a year has", () => {
-    expect(() => annualEnergy(0.02, 50, 0.8, 9000 * 3600, 0.9, 1000)).toThrow(/^hours: /);
+    expect(() => annualEnergy(0.02, 50, 0.8, 9000, 0.9, 1000)).toThrow(/^hours: /);
   });
 });

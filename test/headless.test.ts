@@ -9,8 +9,8 @@ import { join } from "node:path";
 import ExcelJS from "exceljs";
 import { describe, expect, it } from "vitest";
 import { DEMO_FILE, demoWorkbookBytes } from "../demo/build";
-import { recalculate } from "../headless/recalc";
-import { fromExcelJS, readWorkbook } from "../headless/workbook";
+import { recalculate } from "../workbook/recalc";
+import { fromExcelJS, readWorkbook } from "../headless/readXlsx";
 import { nappe, relativeError, tempDir } from "./helpers";
 
 const root = join(__dirname, "..");

@@ -17,8 +17,8 @@ import JSZip from "jszip";
 import { describe, expect, it } from "vitest";
 import { DEMO_FILE } from "../demo/build";
 import { ABOUT_SHEET } from "../headless/handoff";
-import { recalculate } from "../headless/recalc";
-import { readWorkbook } from "../headless/workbook";
+import { recalculate } from "../workbook/recalc";
+import { readWorkbook } from "../headless/readXlsx";
 import { nappe, relativeError, tempDir } from "./helpers";
 
 const root = join(__dirname, "..");

@@ -4,7 +4,7 @@
  * labels, writes, the formula scan and the audit sheet. It cannot check Excel itself.
  */
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
-import { addressOf, parseAddress } from "../headless/address";
+import { addressOf, parseAddress } from "../workbook/address";
 import { OfficeHost } from "../taskpane/host/office";
 
 type Cell = { formula?: string; value: unknown; format?: string };
@@ -61,7 +61,10 @@ class FakeRange {
     return this.grid((c) => (c ? c.value : ""));
   }
   set values(v: unknown[][]) {
-    v.forEach((row, i) => row.forEach((x, j) => this.sheet.cells.set(addressOf(this.row + i, this.col + j), { value: x })));
+    v.forEach((row, i) => row.forEach((x, j) => {
+      const address = addressOf(this.row + i, this.col + j);
+      this.sheet.cells.set(address, { value: x, format: this.sheet.cells.get(address)?.format });
+    }));
   }
   get formulas() {
     return this.grid((c) => (c?.formula ? `=${c.formula}` : c ? c.value : ""));
@@ -72,7 +75,12 @@ class FakeRange {
   get numberFormat() {
     return this.grid((c) => c?.format ?? "General");
   }
-  set numberFormat(_v: unknown[][]) {}
+  set numberFormat(v: unknown[][]) {
+    v.forEach((row, i) => row.forEach((f, j) => {
+      const address = addressOf(this.row + i, this.col + j);
+      this.sheet.cells.set(address, { ...(this.sheet.cells.get(address) ?? { value: "" }), format: String(f) });
+    }));
+  }
 }
 const fake = { sheets: [] as FakeSheet[], active: { sheet: "Calc", address: "B2" }, selected: undefined as undefined | { sheet: string; address: string }, handlers: [] as (() => void)[] };
 
@@ -147,6 +155,8 @@ describe("Office.js adapter (against a stand-in for Excel's API)", () => {
     const live = fake.sheets.filter((s) => s.name === "Nappe audit" && !s.deleted);
     expect(live).toHaveLength(1);
     expect(live[0].cells.get("B3")!.value).toBe("B3");
+    // Text format ("@"): audit text such as "=NAPPE.HEAD(1)" stays text, never a live formula.
+    expect(live[0].cells.get("A3")!.format).toBe("@");
     expect(live[0].frozenRows).toBe(2);
     expect(fake.sheets.find((s) => s.name === "Calc")!.cells.size).toBe(4);
   });

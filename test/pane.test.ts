@@ -2,7 +2,7 @@
 import { join } from "node:path";
 import ExcelJS from "exceljs";
 import { describe, expect, it } from "vitest";
-import { fromExcelJS, readWorkbook } from "../headless/workbook";
+import { fromExcelJS, readWorkbook } from "../headless/readXlsx";
 import { chartFor } from "../taskpane/chartData";
 import { analyseCell, explainCell } from "../taskpane/explain";
 import { MemoryHost } from "../taskpane/host/memory";

@@ -171,6 +171,16 @@ describe("PUMP.POWER, COMBINE and SELECT", () => {
     expect(failure("PUMP.SELECT", family, "200 gpm", "130 ft")).toMatchObject({ arg: "head" });
     expect(failure("PUMP.SELECT", family, "500 gpm", "50 ft")).toMatchObject({ arg: "flow" });
   });
+  it("chooses the smallest of several sized impellers that meet the duty, whatever the order listed", () => {
+    // Invented family, hand-checkable: at 200 gpm the 9, 10 and 11 in impellers give 95, 105 and 115 ft (table points).
+    const rows = (d: number, h0: number) => [[d, 0, h0 + 10], [d, 200, h0], [d, 400, h0 - 30]];
+    const family = [["Impeller (in)", "Flow (gpm)", "Head (ft)", "Eff (%)"], ...[...rows(11, 115), ...rows(9, 95), ...rows(10, 105)].map((r) => [...r, 60 + r[0]])];
+    const out = run("PUMP.SELECT", family, "200 gpm", "100 ft", "ft").value as unknown[][];
+    expect(out[0][0]).toBe(10); // 10 and 11 in both reach 100 ft; the smaller wins
+    expect(out[0][1]).toBeCloseTo(105, 10);
+    expect(out[0][2]).toBeCloseTo(0.7, 12); // 70 % at that point, as a fraction
+    expect((run("PUMP.SELECT", family, "200 gpm", "90 ft", "ft").value as unknown[][])[0][0]).toBe(9);
+  });
 });
 
 describe("table validation reaches the calc core", () => {

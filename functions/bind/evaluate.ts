@@ -8,10 +8,10 @@ import type { Args, Cell, FunctionSpec, ParamSpec } from "../catalog/types";
 import { resultDimension } from "../catalog/types";
 import { type Dimension, DIMENSIONS, hasUnit } from "../units/dimensions";
 import { fromBase, parseNumberText, parseQuantity } from "../units/quantity";
-import { readTable, type Table } from "./table";
+import { type RawArg, readTable, type Table } from "../tables/table";
 
 /** A value as Excel hands it to a custom function. */
-export type RawArg = number | string | boolean | null | undefined | RawArg[][];
+export type { RawArg };
 
 /** How one argument was read, for the pane and the audit. */
 export interface ArgReading {
@@ -109,7 +109,7 @@ function readArgs(spec: FunctionSpec, rawArgs: readonly RawArg[]): { args: Args;
   if (rawArgs.length > spec.params.length) {
     throw new CalcError(spec.id, `takes at most ${spec.params.length} arguments; got ${rawArgs.length}`, "value");
   }
-  const args: Args = {};
+  const args: Record<string, Args[string]> = {};
   const readings: ArgReading[] = [];
   const deferred: ParamSpec[] = [];
   // Arguments whose dimension depends on others are read last.

@@ -2,10 +2,13 @@
 import { type CalcResult, CalcError, ok } from "./_lib/result";
 import { requireEfficiency, shaftPower } from "./power";
 
-/** Energy, J, over `seconds` of running at the duty. */
-export function annualEnergy(flow: number, head: number, efficiency: number, seconds: number, motorEfficiency: number, density: number): CalcResult {
+const SECONDS_PER_HOUR = 3600;
+
+/** Energy, J, over `hours` of running at the duty (hours: the running-time dimension's base unit). */
+export function annualEnergy(flow: number, head: number, efficiency: number, hours: number, motorEfficiency: number, density: number): CalcResult {
   requireEfficiency("motor_efficiency", motorEfficiency);
-  if (!(seconds >= 0 && seconds <= 366 * 86400)) throw new CalcError("hours", `expected running time from 0 to 8784 h in a year; got ${(seconds / 3600).toPrecision(6)} h`);
+  if (!(hours >= 0 && hours <= 366 * 24)) throw new CalcError("hours", `expected running time from 0 to 8784 h in a year; got ${hours.toPrecision(6)} h`);
+  const seconds = hours * SECONDS_PER_HOUR;
   const shaft = shaftPower(flow, head, efficiency, density);
   return ok((shaft.value / motorEfficiency) * seconds, shaft.warnings);
 }

@@ -9,7 +9,7 @@
 import { CalcError, type CalcResult, ok, requireNonNegative, requirePositive } from "./_lib/result";
 
 export const FRICTION_METHODS = ["colebrook", "swamee-jain", "haaland", "churchill"] as const;
-export type FrictionMethod = (typeof FRICTION_METHODS)[number];
+type FrictionMethod = (typeof FRICTION_METHODS)[number];
 
 /** Upper end of laminar flow and lower end of fully turbulent flow used here (common practice). */
 const LAMINAR_LIMIT = 2000;

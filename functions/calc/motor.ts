@@ -2,7 +2,7 @@
 import { CalcError, type CalcResult, ok, requireNonNegative } from "./_lib/result";
 
 export const MOTOR_SERIES = ["nema", "iec"] as const;
-export type MotorSeries = (typeof MOTOR_SERIES)[number];
+type MotorSeries = (typeof MOTOR_SERIES)[number];
 
 /** NEMA MG 1 horsepower ratings (fractional 1/2 and 3/4, integral to 1000 hp; from memory). */
 export const NEMA_HP = [0.5, 0.75, 1, 1.5, 2, 3, 5, 7.5, 10, 15, 20, 25, 30, 40, 50, 60, 75, 100, 125, 150, 200, 250, 300, 350, 400, 450, 500, 600, 700, 800, 900, 1000];

@@ -10,7 +10,7 @@ import { CalcError } from "./_lib/result";
 import { evaluatePolynomial, fitPolynomial } from "./_lib/leastSquares";
 
 export const CURVE_FITS = ["pchip", "quadratic", "cubic"] as const;
-export type CurveFit = (typeof CURVE_FITS)[number];
+type CurveFit = (typeof CURVE_FITS)[number];
 
 /** Points of one quantity against flow. */
 export interface Series {
@@ -146,3 +146,25 @@ export function checkHeadShape(arg: string, head: Series): void {
   }
 }
 
+
+/** What each optional column of a curve is called, and the header that adds it. */
+const COLUMN_NAMES: Record<keyof PumpCurve, [string, string]> = {
+  head: ["head", "Head (m)"],
+  efficiency: ["efficiency", "Eff (%)"],
+  npshr: ["NPSHr", "NPSHr (ft)"],
+  power: ["power", "Power (kW)"],
+};
+
+/** The interpolant of one column of a curve, or an error naming what is missing. */
+export function curveInterpolant(arg: string, curve: PumpCurve, column: keyof PumpCurve, fit: CurveFit = "pchip"): Interpolant {
+  const series = curve[column];
+  if (!series) throw new CalcError(arg, `has no ${COLUMN_NAMES[column][0]} column: add one headed "${COLUMN_NAMES[column][1]}"`, "value");
+  return interpolant(series, fit);
+}
+
+/** One impeller of a family: its size (in base units) or its label, and its curve. */
+export interface Impeller {
+  size: number | null;
+  label: string;
+  curve: PumpCurve;
+}

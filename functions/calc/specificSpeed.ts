@@ -6,7 +6,7 @@ import { CalcError, type CalcResult, ok } from "./_lib/result";
 import { STANDARD_GRAVITY } from "./_lib/constants";
 
 export const SPEED_CONVENTIONS = ["si", "us", "dimensionless"] as const;
-export type SpeedConvention = (typeof SPEED_CONVENTIONS)[number];
+type SpeedConvention = (typeof SPEED_CONVENTIONS)[number];
 
 const GPM = 3.785411784e-3 / 60;
 const FOOT = 0.3048;

@@ -1,7 +1,6 @@
 /** Worksheet formula text for the catalogue's examples (the guide's insert button, the README). */
-import type { FunctionSpec } from "./types";
+import type { ExampleArg as Literal, FunctionSpec } from "./types";
 
-type Literal = number | string | null | readonly (readonly (number | string | null)[])[];
 
 /** One argument as Excel writes it: numbers, quoted text, array constants {1,2;3,4}, or nothing. */
 export function excelLiteral(a: Literal): string {
@@ -15,7 +14,7 @@ export function excelLiteral(a: Literal): string {
 export function exampleFormula(spec: FunctionSpec): string | undefined {
   const ex = spec.examples[0];
   if (!ex) return undefined;
-  const args = ex.args.map((a) => excelLiteral(a as Literal));
+  const args = ex.args.map((a) => excelLiteral(a));
   while (args.length && args[args.length - 1] === "") args.pop();
   return `=NAPPE.${spec.id}(${args.join(", ")})`;
 }

@@ -10,13 +10,13 @@ function once(compute: () => number): () => number {
 }
 
 /** The optional result unit, always named `unit`. */
-export function unitParam(example: string): UnitParam {
-  return { name: "unit", kind: "unit", optional: true, description: `Unit of the result, such as ${example}; base unit when left out.` };
+export function unitParam(example: string) {
+  return { name: "unit", kind: "unit", optional: true, description: `Unit of the result, such as ${example}; base unit when left out.` } as const satisfies UnitParam;
 }
 
 const DEFAULT_WATER_NOTE = "water at 20 °C and 101.325 kPa (IAPWS-IF97 and IAPWS 2008)";
 
-export const densityParam: QuantityParam = {
+export const densityParam = {
   name: "density",
   kind: "quantity",
   dim: "density",
@@ -24,9 +24,9 @@ export const densityParam: QuantityParam = {
   description: "Liquid density; water at 20 °C when left out.",
   default: once(() => waterDensity(DEFAULT_TEMPERATURE_C, DEFAULT_PRESSURE_PA).value),
   defaultNote: DEFAULT_WATER_NOTE,
-};
+} as const satisfies QuantityParam;
 
-export const kinematicViscosityParam: QuantityParam = {
+export const kinematicViscosityParam = {
   name: "kinematic_viscosity",
   kind: "quantity",
   dim: "kinematicViscosity",
@@ -34,10 +34,10 @@ export const kinematicViscosityParam: QuantityParam = {
   description: "Liquid kinematic viscosity; water at 20 °C when left out.",
   default: once(() => waterKinematicViscosity(DEFAULT_TEMPERATURE_C, DEFAULT_PRESSURE_PA).value),
   defaultNote: DEFAULT_WATER_NOTE,
-};
+} as const satisfies QuantityParam;
 
-export const flowParam: QuantityParam = { name: "flow", kind: "quantity", dim: "flow", description: "Volume flow rate." };
-export const diameterParam: QuantityParam = { name: "diameter", kind: "quantity", dim: "length", description: "Pipe inside diameter.", plausible: [1e-4, 10] };
+export const flowParam = { name: "flow", kind: "quantity", dim: "flow", description: "Volume flow rate." } as const satisfies QuantityParam;
+export const diameterParam = { name: "diameter", kind: "quantity", dim: "length", description: "Pipe inside diameter.", plausible: [1e-4, 10] } as const satisfies QuantityParam;
 
 /** Shown with every result that sizes a pump or a pipe. */
 export const DESIGN_AID =
@@ -50,12 +50,12 @@ export const JET_CAUTION =
   "Jets and water features in public places can injure people and spread waterborne disease; follow local codes for public water features.";
 
 /** A pump curve table argument, shared by the pump and affinity functions. */
-export const curveParam: TableParam = {
+export const curveParam = {
   name: "curve",
   kind: "table",
   table: "curve",
   description: 'Pump curve range at the curve\'s impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column\'s unit.',
-};
+} as const satisfies TableParam;
 
 /** Invented example curve on the parabola H = 52 − 12000·Q² (m, m³/s), for hand-checkable examples. */
 export const PARABOLA_CURVE = [0, 0.01, 0.02, 0.03, 0.04, 0.05].map((q) => [q, 52 - 12000 * q * q]);

@@ -1,10 +1,11 @@
 /** Turns tables read from the worksheet into the calc core's plain structures, and back. */
 import { CalcError } from "../calc/_lib/result";
-import { type CurveFit, checkHeadShape, checkSeries, interpolant, type Interpolant, type PumpCurve, type Series } from "../calc/pumpCurve";
+import { checkHeadShape, checkSeries, type Impeller, type PumpCurve, type Series } from "../calc/pumpCurve";
 import { checkSegments, type PipeSegment, type SystemLosses } from "../calc/systemCurve";
-import { column, inColumnUnit, type Table } from "../bind/table";
+import { column, inColumnUnit, type Table } from "../tables/table";
 import { DIMENSIONS } from "../units/dimensions";
-import type { Args, Cell } from "./types";
+import { fromBase } from "../units/quantity";
+import type { Cell } from "./types";
 
 /** Value limits of each curve column, for checks. */
 const LIMITS: Record<string, [number, number, string]> = {
@@ -44,12 +45,6 @@ export function curveFromTable(arg: string, t: Table): PumpCurve {
   return curveFromRows(arg, t, [...Array(t.rows).keys()]);
 }
 
-/** The interpolant of one column of a curve, or an error naming what is missing. */
-export function curveColumn(arg: string, curve: PumpCurve, role: keyof PumpCurve, fit: CurveFit = "pchip"): Interpolant {
-  const series = curve[role];
-  if (!series) throw new CalcError(arg, `has no ${LIMITS[role][2]} column: add one headed "${role === "efficiency" ? "Eff (%)" : role === "npshr" ? "NPSHr (ft)" : "Power (kW)"}"`, "value");
-  return interpolant(series, fit);
-}
 
 export function segmentsFromTable(arg: string, t: Table): PipeSegment[] {
   const get = (role: string) => column(t, role);
@@ -65,19 +60,11 @@ export function segmentsFromTable(arg: string, t: Table): PipeSegment[] {
 }
 
 /** The `system` argument: a resistance k (number) or a segments table. */
-export function systemLosses(a: Args): SystemLosses {
-  const s = a.system;
-  if (typeof s === "number") return { k: s };
-  if (typeof s === "string") throw new CalcError("system", "expected a resistance k or a segments table", "value");
-  return { segments: segmentsFromTable("system", s), kinematicViscosity: a.kinematic_viscosity as number };
+export function systemLosses(system: Table | number, kinematicViscosity: number): SystemLosses {
+  if (typeof system === "number") return { k: system };
+  return { segments: segmentsFromTable("system", system), kinematicViscosity };
 }
 
-/** One impeller of a family: its size (base units) or label, and its curve. */
-interface Impeller {
-  size: number | null;
-  label: string;
-  curve: PumpCurve;
-}
 
 /** Groups a family table's rows by impeller; sized impellers smallest first, labels in the order listed. */
 export function impellersFromTable(arg: string, t: Table): Impeller[] {
@@ -121,4 +108,9 @@ export function spillTable(t: Table, transform: (role: string, value: number) =>
 /** Header for a spilled column: "Flow (gpm)", or "Flow (m³/s)" in base units. */
 export function spillHeader(name: string, unit: string | undefined, base: keyof typeof DIMENSIONS): string {
   return `${name} (${unit ?? DIMENSIONS[base].base})`;
+}
+
+/** One value of a spilled result in the unit its argument asks for (the base unit when left out). */
+export function spillValue(arg: string, value: number, dim: keyof typeof DIMENSIONS, unit: string | undefined): number {
+  return unit ? fromBase(arg, value, dim, unit) : value;
 }

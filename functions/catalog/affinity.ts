@@ -1,23 +1,29 @@
 import { AFFINITY_KINDS, type AffinityKind, affinityRatioThrough, affinityScale, speedForDuty, trimDiameter } from "../calc/affinity";
-import type { Table } from "../bind/table";
-import { curveColumn, curveFromTable } from "./_tables";
+import type { Table } from "../tables/table";
+import { curveInterpolant } from "../calc/pumpCurve";
+import { curveFromTable } from "./_tables";
 import type { Dimension } from "../units/dimensions";
 import { curveParam, DESIGN_AID, PARABOLA_CURVE, unitParam } from "./_shared";
-import type { Args, FunctionSpec, QuantityParam } from "./types";
+import { defineSpec, type Args, type FunctionSpec, type QuantityParam } from "./types";
 
-const dutyFlow: QuantityParam = { name: "flow", kind: "quantity", dim: "flow", description: "Duty flow." };
-const dutyHead: QuantityParam = { name: "head", kind: "quantity", dim: "length", description: "Duty head." };
-const headOf = (a: Args) => curveColumn("curve", curveFromTable("curve", a.curve as Table), "head");
+const dutyFlow = { name: "flow", kind: "quantity", dim: "flow", description: "Duty flow." } as const satisfies QuantityParam;
+const dutyHead = { name: "head", kind: "quantity", dim: "length", description: "Duty head." } as const satisfies QuantityParam;
+const headOf = (curve: Table) => curveInterpolant("curve", curveFromTable("curve", curve), "head");
 const RATIO_EQUATION = String.raw`r^2\,H_c\!\left(\frac{Q}{r}\right) = H \quad \Rightarrow \quad r`;
 /** On that parabola the ratio through (Q, H) is √((H + 12000·Q²)/52). */
 const PARABOLA_RATIO = Math.sqrt((35 + 12000 * 0.03 ** 2) / 52);
 const PARABOLA_SOURCE = "Hand calculation on the parabola H = 52 − 12000Q²: r = √((H + 12000Q²)/52) = 0.93849 for 0.03 m³/s at 35 m (PCHIP through its points)";
 
 const DIM_OF_KIND: Record<AffinityKind, Dimension> = { flow: "flow", head: "length", npshr: "length", power: "power" };
-const dimOfKind = (a: Args): Dimension => DIM_OF_KIND[a.kind as AffinityKind];
+const isKind = (k: unknown): k is AffinityKind => (AFFINITY_KINDS as readonly unknown[]).includes(k);
+const dimOfKind = (a: Args): Dimension => {
+  const kind = a.kind;
+  if (!isKind(kind)) throw new Error("kind is read before the value whose dimension it sets");
+  return DIM_OF_KIND[kind];
+};
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "AFFINITY",
     topic: "affinity",
     purpose: "Scales a flow, head, NPSHr or power by the affinity laws for a speed or diameter ratio.",
@@ -38,9 +44,9 @@ export const specs: FunctionSpec[] = [
       { args: ["100 gpm", "flow", 1.1, "gpm"], expect: 110, source: "Affinity law Q ∝ r (definition)" },
       { args: ["10 hp", "power", 0.5, "hp"], expect: 1.25, source: "Affinity law P ∝ r³ (definition)" },
     ],
-    compute: (a) => affinityScale(a.value as number, a.kind as AffinityKind, a.ratio as number),
-  },
-  {
+    compute: (a) => affinityScale(a.value, a.kind, a.ratio),
+  }),
+  defineSpec({
     id: "AFFINITY.RATIO",
     topic: "affinity",
     purpose: "Speed or diameter ratio r that moves a pump curve through a duty point by the affinity laws.",
@@ -51,10 +57,10 @@ export const specs: FunctionSpec[] = [
     validity: ["An error when no ratio moves the curve through the duty while staying on its flow range."],
     cautions: [DESIGN_AID],
     sources: ["Affinity laws; ANSI/HI 1.3", "Brent (1973) root finding"],
-    examples: [{ args: [PARABOLA_CURVE as never, 0.03, 35], expect: PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
-    compute: (a) => affinityRatioThrough(headOf(a), a.flow as number, a.head as number),
-  },
-  {
+    examples: [{ args: [PARABOLA_CURVE, 0.03, 35], expect: PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
+    compute: (a) => affinityRatioThrough(headOf(a.curve), a.flow, a.head),
+  }),
+  defineSpec({
     id: "TRIM",
     topic: "affinity",
     purpose: "Trimmed impeller diameter that meets a duty point, by the affinity laws.",
@@ -65,10 +71,10 @@ export const specs: FunctionSpec[] = [
     validity: ["A duty above the full-diameter curve is an error (a trim cannot add diameter).", "Trims deeper than about 10 % warn; below about 75 % of the diameter warn more strongly (common practice)."],
     cautions: [DESIGN_AID, "Trim in steps and test: an over-trimmed impeller cannot be restored."],
     sources: ["Affinity laws for impeller trimming; ANSI/HI 1.3 (common practice limits)"],
-    examples: [{ args: [PARABOLA_CURVE as never, "250 mm", 0.03, 35, "mm"], expect: 250 * PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
-    compute: (a) => trimDiameter(headOf(a), a.diameter as number, a.flow as number, a.head as number),
-  },
-  {
+    examples: [{ args: [PARABOLA_CURVE, "250 mm", 0.03, 35, "mm"], expect: 250 * PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
+    compute: (a) => trimDiameter(headOf(a.curve), a.diameter, a.flow, a.head),
+  }),
+  defineSpec({
     id: "SPEED",
     topic: "affinity",
     purpose: "Pump speed that meets a duty point, by the affinity laws.",
@@ -79,7 +85,7 @@ export const specs: FunctionSpec[] = [
     validity: ["Speeds above the curve's warn (maker's limit, motor power)."],
     cautions: [DESIGN_AID],
     sources: ["Affinity laws; ANSI/HI 1.3"],
-    examples: [{ args: [PARABOLA_CURVE as never, 1750, 0.03, 35], expect: 1750 * PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
-    compute: (a) => speedForDuty(headOf(a), a.speed as number, a.flow as number, a.head as number),
-  },
+    examples: [{ args: [PARABOLA_CURVE, 1750, 0.03, 35], expect: 1750 * PARABOLA_RATIO, tolerance: 1e-3, source: PARABOLA_SOURCE }],
+    compute: (a) => speedForDuty(headOf(a.curve), a.speed, a.flow, a.head),
+  }),
 ];

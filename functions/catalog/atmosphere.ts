@@ -1,9 +1,9 @@
 import { standardAtmospherePressure } from "../calc/atmosphere";
 import { unitParam } from "./_shared";
-import type { FunctionSpec } from "./types";
+import { defineSpec, type FunctionSpec } from "./types";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "ATMPRESSURE",
     topic: "atmosphere",
     purpose: "Standard atmospheric pressure at a site elevation, absolute.",
@@ -25,6 +25,6 @@ export const specs: FunctionSpec[] = [
       { args: [5000, "kPa"], expect: 54.048, tolerance: 1e-4, source: "US Standard Atmosphere 1976, table I: 5.4048E+04 Pa at 5000 m (from memory)" },
       { args: [0, "kPa"], expect: 101.325, source: "US Standard Atmosphere 1976: sea-level pressure 101 325 Pa (definition)" },
     ],
-    compute: (a) => standardAtmospherePressure(a.elevation as number),
-  },
+    compute: (a) => standardAtmospherePressure(a.elevation),
+  }),
 ];

@@ -1,9 +1,9 @@
 import { annualEnergy } from "../calc/energy";
 import { densityParam, unitParam } from "./_shared";
-import type { FunctionSpec } from "./types";
+import { defineSpec, type FunctionSpec } from "./types";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "ENERGY.ANNUAL",
     topic: "energy",
     purpose: "Energy a pump set uses in a year at a duty point.",
@@ -25,6 +25,6 @@ export const specs: FunctionSpec[] = [
     examples: [
       { args: [0.05, 40, 0.75, 6000, 0.93, 1000, "kWh"], expect: (1000 * 9.80665 * 0.05 * 40 * 6000) / (0.75 * 0.93 * 1000), source: "Definition: W × h / 1000 = kWh (hand calculation)" },
     ],
-    compute: (a) => annualEnergy(a.flow as number, a.head as number, a.efficiency as number, (a.hours as number) * 3600, a.motor_efficiency as number, a.density as number),
-  },
+    compute: (a) => annualEnergy(a.flow, a.head, a.efficiency, a.hours, a.motor_efficiency, a.density),
+  }),
 ];

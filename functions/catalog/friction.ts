@@ -1,8 +1,8 @@
-import { FRICTION_METHODS, type FrictionMethod, frictionFactor } from "../calc/friction";
-import type { FunctionSpec } from "./types";
+import { FRICTION_METHODS, frictionFactor } from "../calc/friction";
+import { defineSpec, type FunctionSpec } from "./types";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "FRICTION",
     topic: "friction",
     purpose: "Darcy friction factor from the Reynolds number and relative roughness.",
@@ -43,6 +43,6 @@ export const specs: FunctionSpec[] = [
       { args: [1000, 0.001], expect: 0.064, source: "Hagen–Poiseuille: f = 64/Re (definition)" },
       { args: [1e5, 0.0001, "swamee-jain"], expect: 0.01845244530756638, tolerance: 1e-12, source: "Swamee–Jain formula evaluated independently in Python 3.11 (math.log10)" },
     ],
-    compute: (a) => frictionFactor(a.reynolds as number, a.relative_roughness as number, a.method as FrictionMethod),
-  },
+    compute: (a) => frictionFactor(a.reynolds, a.relative_roughness, a.method),
+  }),
 ];

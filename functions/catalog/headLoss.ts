@@ -1,11 +1,11 @@
 import { darcyHeadLoss, hazenWilliamsHeadLoss, minorHeadLoss } from "../calc/headLoss";
 import { diameterParam, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
-import type { FunctionSpec, QuantityParam } from "./types";
+import { defineSpec, type FunctionSpec, type QuantityParam } from "./types";
 
-const length: QuantityParam = { name: "length", kind: "quantity", dim: "length", description: "Pipe length." };
+const length = { name: "length", kind: "quantity", dim: "length", description: "Pipe length." } as const satisfies QuantityParam;
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "HEADLOSS",
     topic: "headLoss",
     purpose: "Friction (major) head loss in a straight pipe by Darcy–Weisbach.",
@@ -31,9 +31,9 @@ export const specs: FunctionSpec[] = [
         source: "Çengel & Cimbala, worked example: 200 ft of 2-in stainless pipe at 0.2 ft³/s, V = 9.17 ft/s, f = 0.0174, hL = 27.3 ft (from memory)",
       },
     ],
-    compute: (a) => darcyHeadLoss(a.flow as number, a.diameter as number, a.length as number, a.roughness as number, a.kinematic_viscosity as number),
-  },
-  {
+    compute: (a) => darcyHeadLoss(a.flow, a.diameter, a.length, a.roughness, a.kinematic_viscosity),
+  }),
+  defineSpec({
     id: "HEADLOSS.HW",
     topic: "headLoss",
     purpose: "Friction head loss of water in a pipe by Hazen–Williams.",
@@ -52,9 +52,9 @@ export const specs: FunctionSpec[] = [
         source: "US-unit form hf = 10.44·L·Q^1.85/(C^1.85·d^4.8655) (ft, gpm, in), as printed in hydraulic data handbooks (from memory)",
       },
     ],
-    compute: (a) => hazenWilliamsHeadLoss(a.flow as number, a.diameter as number, a.length as number, a.c_factor as number),
-  },
-  {
+    compute: (a) => hazenWilliamsHeadLoss(a.flow, a.diameter, a.length, a.c_factor),
+  }),
+  defineSpec({
     id: "HEADLOSS.MINOR",
     topic: "headLoss",
     purpose: "Minor (fittings and valves) head loss from a total loss coefficient.",
@@ -68,6 +68,6 @@ export const specs: FunctionSpec[] = [
     examples: [
       { args: ["0.01 m^3/s", 0.1, 1], expect: (4 * 0.01) ** 2 / (Math.PI * 0.01) ** 2 / (2 * 9.80665), source: "Definition: one velocity head V²/2g" },
     ],
-    compute: (a) => minorHeadLoss(a.flow as number, a.diameter as number, a.k_total as number),
-  },
+    compute: (a) => minorHeadLoss(a.flow, a.diameter, a.k_total),
+  }),
 ];

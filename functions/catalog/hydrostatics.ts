@@ -1,11 +1,11 @@
 import { headFromPressure, pressureFromHead } from "../calc/hydrostatics";
 import { densityParam, unitParam } from "./_shared";
-import type { FunctionSpec } from "./types";
+import { defineSpec, type FunctionSpec } from "./types";
 
 const SOURCES = ["Hydrostatics: p = ρgh; g = 9.80665 m/s² (standard gravity, NIST SP 811)"];
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "HEAD",
     topic: "hydrostatics",
     purpose: "Head of liquid equivalent to a pressure or pressure difference.",
@@ -24,9 +24,9 @@ export const specs: FunctionSpec[] = [
       { args: ["1 psi", null, "ft"], expect: 2.3108, tolerance: 5e-4, source: "Common practice: 1 psi ≈ 2.31 ft of water near room temperature" },
       { args: ["98.0665 kPa", 1000], expect: 10, source: "Definition: 10 m of water at 1000 kg/m³ and standard gravity" },
     ],
-    compute: (a) => headFromPressure(a.pressure as number, a.density as number),
-  },
-  {
+    compute: (a) => headFromPressure(a.pressure, a.density),
+  }),
+  defineSpec({
     id: "PRESSURE",
     topic: "hydrostatics",
     purpose: "Pressure of a column of liquid of a given head.",
@@ -45,6 +45,6 @@ export const specs: FunctionSpec[] = [
       { args: [10, 1000, "kPa"], expect: 98.0665, source: "Definition: 10 mH2O (conventional) = 98.0665 kPa (NIST SP 811)" },
       { args: ["2.31 ft", null, "psi"], expect: 0.99966, tolerance: 5e-4, source: "Common practice: 2.31 ft of water ≈ 1 psi" },
     ],
-    compute: (a) => pressureFromHead(a.head as number, a.density as number),
-  },
+    compute: (a) => pressureFromHead(a.head, a.density),
+  }),
 ];

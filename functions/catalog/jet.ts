@@ -1,13 +1,13 @@
 import { jetHeight, jetReach, jetVelocity, nozzleFlow } from "../calc/jet";
 import { JET_CAUTION, unitParam } from "./_shared";
-import type { FunctionSpec, QuantityParam } from "./types";
+import { defineSpec, type FunctionSpec, type QuantityParam } from "./types";
 
-const velocity: QuantityParam = { name: "velocity", kind: "quantity", dim: "velocity", description: "Jet velocity at the nozzle." };
+const velocity = { name: "velocity", kind: "quantity", dim: "velocity", description: "Jet velocity at the nozzle." } as const satisfies QuantityParam;
 const NO_DRAG = "Air drag, wind and jet break-up neglected (ideal projectile).";
 const PROJECTILE = "Projectile motion under standard gravity (any mechanics text)";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "JET.VELOCITY",
     topic: "jet",
     purpose: "Velocity of a jet issuing under a head (Torricelli).",
@@ -31,9 +31,9 @@ export const specs: FunctionSpec[] = [
     cautions: [JET_CAUTION],
     sources: ["Torricelli's theorem; Bernoulli equation along a streamline"],
     examples: [{ args: [1], expect: Math.sqrt(2 * 9.80665), source: "Torricelli: v = √(2gh) at h = 1 m (definition)" }],
-    compute: (a) => jetVelocity(a.height as number, a.velocity_coefficient as number),
-  },
-  {
+    compute: (a) => jetVelocity(a.height, a.velocity_coefficient),
+  }),
+  defineSpec({
     id: "JET.HEIGHT",
     topic: "jet",
     purpose: "Height a jet rises above its nozzle, air drag neglected.",
@@ -52,9 +52,9 @@ export const specs: FunctionSpec[] = [
       { args: [10], expect: 100 / (2 * 9.80665), source: "Projectile motion: v²/2g for a vertical jet (definition)" },
       { args: [10, 30], expect: 25 / (2 * 9.80665), source: "Projectile motion: (v sin 30°)²/2g (definition)" },
     ],
-    compute: (a) => jetHeight(a.velocity as number, a.angle as number),
-  },
-  {
+    compute: (a) => jetHeight(a.velocity, a.angle),
+  }),
+  defineSpec({
     id: "JET.REACH",
     topic: "jet",
     purpose: "Horizontal throw of a jet, air drag neglected.",
@@ -74,9 +74,9 @@ export const specs: FunctionSpec[] = [
       { args: [10, 45], expect: 100 / 9.80665, source: "Projectile motion: range v²/g at 45° on level ground (definition)" },
       { args: [10, 0, 4.903325], expect: 10, source: "Projectile motion: horizontal jet falls 4.903 m in 1 s" },
     ],
-    compute: (a) => jetReach(a.velocity as number, a.angle as number, a.drop as number),
-  },
-  {
+    compute: (a) => jetReach(a.velocity, a.angle, a.drop),
+  }),
+  defineSpec({
     id: "NOZZLE.FLOW",
     topic: "jet",
     purpose: "Flow through a nozzle or orifice under a head.",
@@ -103,6 +103,6 @@ export const specs: FunctionSpec[] = [
     examples: [
       { args: ["25 mm", 10, 1], expect: (Math.PI * 0.025 ** 2) / 4 * Math.sqrt(2 * 9.80665 * 10), source: "Orifice equation (definition)" },
     ],
-    compute: (a) => nozzleFlow(a.diameter as number, a.head as number, a.discharge_coefficient as number),
-  },
+    compute: (a) => nozzleFlow(a.diameter, a.head, a.discharge_coefficient),
+  }),
 ];

@@ -1,9 +1,9 @@
-import { MOTOR_SERIES, type MotorSeries, motorSize } from "../calc/motor";
+import { MOTOR_SERIES, motorSize } from "../calc/motor";
 import { DESIGN_AID, unitParam } from "./_shared";
-import type { FunctionSpec } from "./types";
+import { defineSpec, type FunctionSpec } from "./types";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "MOTOR.SIZE",
     topic: "motor",
     purpose: "Next standard motor rating at or above a power plus a margin.",
@@ -23,6 +23,6 @@ export const specs: FunctionSpec[] = [
       { args: ["41 hp", "nema", null, "hp"], expect: 50, source: "NEMA MG 1 ratings: 40 then 50 hp" },
       { args: ["41 kW", "iec", 0.1, "kW"], expect: 55, source: "IEC 60072-1 ratings: 45.1 kW needed, 45 then 55 kW" },
     ],
-    compute: (a) => motorSize(a.power as number, a.series as MotorSeries, a.margin as number),
-  },
+    compute: (a) => motorSize(a.power, a.series, a.margin),
+  }),
 ];

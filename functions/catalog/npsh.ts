@@ -1,10 +1,10 @@
 import { npshAvailable, npshMargin } from "../calc/npsh";
 import { saturationPressure, waterDensity } from "../calc/water";
 import { CAVITATION_CAUTION, DESIGN_AID, unitParam } from "./_shared";
-import type { FunctionSpec } from "./types";
+import { defineSpec, type FunctionSpec, numberArg } from "./types";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "NPSHA",
     topic: "npsh",
     purpose: "Net positive suction head available at the pump suction.",
@@ -19,7 +19,10 @@ export const specs: FunctionSpec[] = [
         dim: "density",
         optional: true,
         description: "Liquid density; water at the given temperature when left out.",
-        default: (a) => waterDensity(a.temperature as number, Math.max(a.surface_pressure as number, saturationPressure(a.temperature as number).value)).value,
+        default: (a) => {
+          const t = numberArg(a, "temperature");
+          return waterDensity(t, Math.max(numberArg(a, "surface_pressure"), saturationPressure(t).value)).value;
+        },
         defaultNote: "water at the given temperature (IAPWS-IF97)",
       },
       unitParam('"ft" or "m"'),
@@ -39,9 +42,9 @@ export const specs: FunctionSpec[] = [
       },
     ],
     compute: (a) =>
-      npshAvailable(a.surface_pressure as number, a.liquid_height as number, a.suction_loss as number, saturationPressure(a.temperature as number).value, a.density as number),
-  },
-  {
+      npshAvailable(a.surface_pressure, a.liquid_height, a.suction_loss, saturationPressure(a.temperature).value, a.density),
+  }),
+  defineSpec({
     id: "NPSH.MARGIN",
     topic: "npsh",
     purpose: "NPSH margin ratio NPSHa/NPSHr, with a warning below the guideline.",
@@ -56,6 +59,6 @@ export const specs: FunctionSpec[] = [
     cautions: [CAVITATION_CAUTION],
     sources: ["ANSI/HI 9.6.1, Rotodynamic Pumps – Guideline for NPSH Margin (margin ratios 1.1 to 2.5; from memory)"],
     examples: [{ args: ["6 m", "4 m"], expect: 1.5, source: "Definition" }],
-    compute: (a) => npshMargin(a.npsha as number, a.npshr as number),
-  },
+    compute: (a) => npshMargin(a.npsha, a.npshr),
+  }),
 ];

@@ -2,10 +2,10 @@ import { FITTINGS, fittingK } from "../calc/fittings";
 import { PIPE_SCHEDULES, pipeInsideDiameter } from "../calc/pipeSchedule";
 import { ROUGHNESS, roughnessOf } from "../calc/roughness";
 import { unitParam } from "./_shared";
-import type { FunctionSpec } from "./types";
+import { defineSpec, type FunctionSpec } from "./types";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "PIPE.ID",
     topic: "pipe",
     purpose: "Inside diameter of steel pipe from its nominal size and schedule.",
@@ -25,9 +25,9 @@ export const specs: FunctionSpec[] = [
       { args: ["1-1/2", "80", "in"], expect: 1.5, source: "ASME B36.10M: NPS 1-1/2 Sch 80, OD 1.900 in, wall 0.200 in (from memory)" },
       { args: [12, "STD", "in"], expect: 12, source: "ASME B36.10M: NPS 12 STD, OD 12.750 in, wall 0.375 in (from memory)" },
     ],
-    compute: (a) => pipeInsideDiameter(a.nps as string, a.schedule as string),
-  },
-  {
+    compute: (a) => pipeInsideDiameter(a.nps, a.schedule),
+  }),
+  defineSpec({
     id: "PIPE.ROUGHNESS",
     topic: "pipe",
     purpose: "Typical absolute roughness of new pipe of a material.",
@@ -39,9 +39,9 @@ export const specs: FunctionSpec[] = [
     cautions: [],
     sources: ["Moody, L. F. (1944), Trans. ASME 66, 671–684, and common hydraulics texts (values from memory)"],
     examples: [{ args: ["commercial steel", "mm"], expect: 0.045, source: "Moody (1944): commercial steel 0.00015 ft = 0.045 mm (from memory)" }],
-    compute: (a) => roughnessOf(a.material as string),
-  },
-  {
+    compute: (a) => roughnessOf(a.material),
+  }),
+  defineSpec({
     id: "FITTING.K",
     topic: "pipe",
     purpose: "Loss coefficient K of a fitting or valve in pipe of a given inside diameter.",
@@ -59,6 +59,6 @@ export const specs: FunctionSpec[] = [
       { args: ["elbow 90", "6.065 in"], expect: 0.45, tolerance: 0.02, source: "Crane TP-410: standard elbow K = 30 f_T with f_T = 0.015 for NPS 6 (from memory)" },
       { args: ["exit", 0.1], expect: 1, source: "Crane TP-410: pipe exit K = 1.0" },
     ],
-    compute: (a) => fittingK(a.fitting as string, a.diameter as number),
-  },
+    compute: (a) => fittingK(a.fitting, a.diameter),
+  }),
 ];

@@ -1,9 +1,9 @@
 import { meanVelocity, reynoldsNumber } from "../calc/pipeFlow";
 import { diameterParam, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
-import type { FunctionSpec } from "./types";
+import { defineSpec, type FunctionSpec } from "./types";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "VELOCITY",
     topic: "pipeFlow",
     purpose: "Mean velocity of a flow in a full round pipe.",
@@ -17,9 +17,9 @@ export const specs: FunctionSpec[] = [
     examples: [
       { args: ["1 ft^3/s", "1 ft", "ft/s"], expect: 4 / Math.PI, source: "Continuity: V = 4Q/(πD²) (definition)" },
     ],
-    compute: (a) => meanVelocity(a.flow as number, a.diameter as number),
-  },
-  {
+    compute: (a) => meanVelocity(a.flow, a.diameter),
+  }),
+  defineSpec({
     id: "REYNOLDS",
     topic: "pipeFlow",
     purpose: "Reynolds number of full-pipe flow.",
@@ -33,6 +33,6 @@ export const specs: FunctionSpec[] = [
     examples: [
       { args: ["0.2 ft^3/s", "2 in", "1.2085e-5 ft^2/s"], expect: 126400, tolerance: 2e-3, source: "Çengel & Cimbala, Fluid Mechanics, worked example on head loss in a 2-in water pipe: Re = 126 400 (from memory)" },
     ],
-    compute: (a) => reynoldsNumber(a.flow as number, a.diameter as number, a.kinematic_viscosity as number),
-  },
+    compute: (a) => reynoldsNumber(a.flow, a.diameter, a.kinematic_viscosity),
+  }),
 ];

@@ -1,12 +1,12 @@
 import { hydraulicPower, shaftPower } from "../calc/power";
 import { DESIGN_AID, densityParam, flowParam, unitParam } from "./_shared";
-import type { FunctionSpec, QuantityParam } from "./types";
+import { defineSpec, type FunctionSpec, type QuantityParam } from "./types";
 
-const head: QuantityParam = { name: "head", kind: "quantity", dim: "length", description: "Total head the pump adds." };
+const head = { name: "head", kind: "quantity", dim: "length", description: "Total head the pump adds." } as const satisfies QuantityParam;
 const SOURCES = ["Definition of hydraulic power; ANSI/HI 1.6 and 14.6 terminology (pump input power = hydraulic power / efficiency)"];
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "POWER.HYDRAULIC",
     topic: "power",
     purpose: "Hydraulic (water) power delivered to the liquid.",
@@ -20,9 +20,9 @@ export const specs: FunctionSpec[] = [
     examples: [
       { args: ["3960 gpm", "1 ft", null, "hp"], expect: 1, tolerance: 1e-3, source: "Common practice (US): water horsepower = gpm × ft × SG / 3960" },
     ],
-    compute: (a) => hydraulicPower(a.flow as number, a.head as number, a.density as number),
-  },
-  {
+    compute: (a) => hydraulicPower(a.flow, a.head, a.density),
+  }),
+  defineSpec({
     id: "POWER.SHAFT",
     topic: "power",
     purpose: "Shaft (brake) power a pump needs at an efficiency.",
@@ -36,6 +36,6 @@ export const specs: FunctionSpec[] = [
     examples: [
       { args: ["3960 gpm", "1 ft", "50%", null, "hp"], expect: 2, tolerance: 1e-3, source: "Common practice (US): brake horsepower = gpm × ft × SG / (3960 η)" },
     ],
-    compute: (a) => shaftPower(a.flow as number, a.head as number, a.efficiency as number, a.density as number),
-  },
+    compute: (a) => shaftPower(a.flow, a.head, a.efficiency, a.density),
+  }),
 ];

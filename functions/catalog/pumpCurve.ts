@@ -1,16 +1,15 @@
-import { CURVE_FITS, type CurveFit, valueAt } from "../calc/pumpCurve";
+import { CURVE_FITS, curveInterpolant, valueAt } from "../calc/pumpCurve";
 import { operatingPoint } from "../calc/operatingPoint";
 import { systemHead } from "../calc/systemCurve";
-import { hydraulicPower } from "../calc/power";
+import { combineFactors, pumpPowerAt, selectImpeller } from "../calc/pumpSelection";
 import { curveScaleFactors } from "../calc/affinity";
-import { CalcError, ok } from "../calc/_lib/result";
-import { fromBase } from "../units/quantity";
-import type { Table } from "../bind/table";
+import { ok } from "../calc/_lib/result";
+import type { Table } from "../tables/table";
 import { CAVITATION_CAUTION, curveParam, DESIGN_AID, densityParam, PARABOLA_CURVE, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
-import { curveColumn, curveFromTable, impellersFromTable, spillTable, systemLosses } from "./_tables";
-import type { Args, ChoiceParam, FunctionSpec, ParamSpec } from "./types";
+import { curveFromTable, impellersFromTable, spillTable, spillValue, systemLosses } from "./_tables";
+import { defineSpec, type ChoiceParam, type FunctionSpec, type UnitParam } from "./types";
 
-const fitParam: ChoiceParam = {
+const fitParam = {
   name: "fit",
   kind: "choice",
   options: CURVE_FITS,
@@ -18,9 +17,9 @@ const fitParam: ChoiceParam = {
   default: "pchip",
   defaultNote: "pchip, the monotone cubic through the points",
   description: '"pchip" (default: monotone cubic through the points), "quadratic" or "cubic" (least squares).',
-};
-const flowUnit: ParamSpec = { name: "flow_unit", kind: "unit", optional: true, description: 'Unit of the spilled flow, such as "gpm"; m³/s when left out.' };
-const headUnit: ParamSpec = { name: "head_unit", kind: "unit", optional: true, description: 'Unit of the spilled head, such as "ft"; m when left out.' };
+} as const satisfies ChoiceParam;
+const flowUnit = { name: "flow_unit", kind: "unit", optional: true, description: 'Unit of the spilled flow, such as "gpm"; m³/s when left out.' } as const satisfies UnitParam;
+const headUnit = { name: "head_unit", kind: "unit", optional: true, description: 'Unit of the spilled head, such as "ft"; m when left out.' } as const satisfies UnitParam;
 
 const PCHIP_SOURCE =
   "Fritsch, F. N. and Carlson, R. E. (1980), SIAM J. Numer. Anal. 17(2), 238–246; Fritsch and Butland (1984); as SLATEC PCHIM, MATLAB pchip and SciPy PchipInterpolator";
@@ -41,11 +40,10 @@ const CURVE_US = [
   [400, 60, 70, 16],
 ];
 
-const curveOf = (a: Args) => curveFromTable("curve", a.curve as Table);
-const fitOf = (a: Args) => (a.fit as CurveFit | undefined) ?? "pchip";
+const curveOf = (curve: Table) => curveFromTable("curve", curve);
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "PUMP.HEAD",
     topic: "pumpCurve",
     purpose: "Head of a pump at a flow, read from its curve.",
@@ -56,10 +54,10 @@ export const specs: FunctionSpec[] = [
     validity: ["At least 3 points, no repeated flow; head may rise to one peak and then must fall; flows outside the curve are an error."],
     cautions: [DESIGN_AID],
     sources: [PCHIP_SOURCE],
-    examples: [{ args: ["250 gpm", CURVE_US as never, "ft"], expect: 86.875, tolerance: 1e-12, source: `${SCIPY}: 86.875 ft` }],
-    compute: (a) => ok(valueAt("flow", "head", curveColumn("curve", curveOf(a), "head", fitOf(a)), a.flow as number)),
-  },
-  {
+    examples: [{ args: ["250 gpm", CURVE_US, "ft"], expect: 86.875, tolerance: 1e-12, source: `${SCIPY}: 86.875 ft` }],
+    compute: (a) => ok(valueAt("flow", "head", curveInterpolant("curve", curveOf(a.curve), "head", a.fit), a.flow)),
+  }),
+  defineSpec({
     id: "PUMP.EFFICIENCY",
     topic: "pumpCurve",
     purpose: "Efficiency of a pump at a flow, read from its curve's efficiency column.",
@@ -70,10 +68,10 @@ export const specs: FunctionSpec[] = [
     validity: ["Efficiencies from 0 to 1 (or 0 to 100 %)."],
     cautions: [DESIGN_AID],
     sources: [PCHIP_SOURCE],
-    examples: [{ args: ["250 gpm", CURVE_US as never], expect: 0.748095238095238, tolerance: 1e-12, source: `${SCIPY}` }],
-    compute: (a) => ok(valueAt("flow", "efficiency", curveColumn("curve", curveOf(a), "efficiency", fitOf(a)), a.flow as number)),
-  },
-  {
+    examples: [{ args: ["250 gpm", CURVE_US], expect: 0.748095238095238, tolerance: 1e-12, source: `${SCIPY}` }],
+    compute: (a) => ok(valueAt("flow", "efficiency", curveInterpolant("curve", curveOf(a.curve), "efficiency", a.fit), a.flow)),
+  }),
+  defineSpec({
     id: "PUMP.NPSHR",
     topic: "pumpCurve",
     purpose: "NPSH required by a pump at a flow, read from its curve's NPSHr column.",
@@ -84,10 +82,10 @@ export const specs: FunctionSpec[] = [
     validity: ["Blank NPSHr cells are skipped; at least 3 points must remain."],
     cautions: [CAVITATION_CAUTION],
     sources: [PCHIP_SOURCE],
-    examples: [{ args: ["250 gpm", CURVE_US as never, "ft"], expect: 9.33125, tolerance: 1e-12, source: `${SCIPY} (blank NPSHr at shutoff skipped): 9.33125 ft` }],
-    compute: (a) => ok(valueAt("flow", "NPSHr", curveColumn("curve", curveOf(a), "npshr", fitOf(a)), a.flow as number)),
-  },
-  {
+    examples: [{ args: ["250 gpm", CURVE_US, "ft"], expect: 9.33125, tolerance: 1e-12, source: `${SCIPY} (blank NPSHr at shutoff skipped): 9.33125 ft` }],
+    compute: (a) => ok(valueAt("flow", "NPSHr", curveInterpolant("curve", curveOf(a.curve), "npshr", a.fit), a.flow)),
+  }),
+  defineSpec({
     id: "PUMP.POWER",
     topic: "pumpCurve",
     purpose: "Shaft power of a pump at a flow: from the curve's power column, or ρgQH/η from its head and efficiency.",
@@ -100,23 +98,15 @@ export const specs: FunctionSpec[] = [
     sources: ["Definition of pump input power (ANSI/HI 1.6)", PCHIP_SOURCE],
     examples: [
       {
-        args: ["250 gpm", CURVE_US as never, 1000, "hp"],
+        args: ["250 gpm", CURVE_US, 1000, "hp"],
         expect: (1000 * 9.80665 * 250 * (3.785411784e-3 / 60) * 86.875 * 0.3048) / 0.748095238095238 / 745.69987158227022,
         tolerance: 1e-9,
         source: "ρgQH/η with the SciPy PCHIP head (86.875 ft) and efficiency (0.74810)",
       },
     ],
-    compute: (a) => {
-      const curve = curveOf(a);
-      const q = a.flow as number;
-      if (curve.power) return ok(valueAt("flow", "power", curveColumn("curve", curve, "power"), q));
-      const h = valueAt("flow", "head", curveColumn("curve", curve, "head"), q);
-      const eta = valueAt("flow", "efficiency", curveColumn("curve", curve, "efficiency"), q);
-      if (!(eta > 0)) throw new CalcError("flow", `the curve's efficiency is ${eta} at this flow: no power can be computed (add a Power column)`);
-      return ok(hydraulicPower(q, h, a.density as number).value / eta);
-    },
-  },
-  {
+    compute: (a) => pumpPowerAt(curveOf(a.curve), a.flow, a.density),
+  }),
+  defineSpec({
     id: "PUMP.DUTY",
     topic: "pumpCurve",
     purpose: "Operating point where the pump curve meets the system curve; spills flow and head.",
@@ -136,23 +126,21 @@ export const specs: FunctionSpec[] = [
     sources: ["Brent, R. P. (1973), Algorithms for Minimization without Derivatives, ch. 4 (root finding)", PCHIP_SOURCE],
     examples: [
       {
-        args: [PARABOLA_CURVE as never, 20, 10000],
+        args: [PARABOLA_CURVE, 20, 10000],
         expect: [[Math.sqrt(32 / 22000), 20 + (10000 * 32) / 22000]],
         tolerance: 2e-3,
         source: "Hand calculation: 52 − 12000Q² = 20 + 10000Q² gives Q = 0.03814 m³/s, H = 34.55 m (PCHIP through points on the parabola)",
       },
     ],
     compute: (a) => {
-      const head = curveColumn("curve", curveOf(a), "head");
-      const losses = systemLosses(a);
-      const p = operatingPoint(head, (q) => systemHead(q, a.static_head as number, losses).value);
-      const sys = systemHead(p.value.flow, a.static_head as number, losses);
-      const flow = a.flow_unit ? fromBase("flow_unit", p.value.flow, "flow", a.flow_unit as string) : p.value.flow;
-      const h = a.head_unit ? fromBase("head_unit", p.value.head, "length", a.head_unit as string) : p.value.head;
-      return ok([[flow, h]], [...p.warnings, ...sys.warnings]);
+      const head = curveInterpolant("curve", curveOf(a.curve), "head");
+      const losses = systemLosses(a.system, a.kinematic_viscosity);
+      const p = operatingPoint(head, (q) => systemHead(q, a.static_head, losses).value);
+      const sys = systemHead(p.value.flow, a.static_head, losses);
+      return ok([[spillValue("flow_unit", p.value.flow, "flow", a.flow_unit), spillValue("head_unit", p.value.head, "length", a.head_unit)]], [...p.warnings, ...sys.warnings]);
     },
-  },
-  {
+  }),
+  defineSpec({
     id: "PUMP.SCALE",
     topic: "pumpCurve",
     purpose: "A pump curve scaled by the affinity laws for a speed (or small diameter) ratio; spills the new curve.",
@@ -165,19 +153,19 @@ export const specs: FunctionSpec[] = [
     sources: ["Affinity laws; ANSI/HI 1.3"],
     examples: [
       {
-        args: [[["Flow (gpm)", "Head (ft)"], [0, 100], [200, 92], [400, 60]] as never, 0.5],
+        args: [[["Flow (gpm)", "Head (ft)"], [0, 100], [200, 92], [400, 60]], 0.5],
         expect: [["Flow (gpm)", "Head (ft)"], [0, 25], [100, 23], [200, 15]],
         source: "Affinity laws Q ∝ r, H ∝ r² (definition)",
       },
     ],
     compute: (a) => {
-      const t = a.curve as Table;
+      const t = a.curve;
       curveFromTable("curve", t);
-      const scale = curveScaleFactors(a.ratio as number);
+      const scale = curveScaleFactors(a.ratio);
       return ok(spillTable(t, (role, v) => v * scale.value(role)), scale.warnings);
     },
-  },
-  {
+  }),
+  defineSpec({
     id: "PUMP.COMBINE",
     topic: "pumpCurve",
     purpose: "Curve of identical pumps in parallel (flows add) or series (heads add); spills the combined curve.",
@@ -194,21 +182,18 @@ export const specs: FunctionSpec[] = [
     sources: ["Pumps in parallel and series (any pump handbook; ANSI/HI 1.3)"],
     examples: [
       {
-        args: [[["Flow (gpm)", "Head (ft)"], [0, 100], [200, 92], [400, 60]] as never, 2, "parallel"],
+        args: [[["Flow (gpm)", "Head (ft)"], [0, 100], [200, 92], [400, 60]], 2, "parallel"],
         expect: [["Flow (gpm)", "Head (ft)"], [0, 100], [400, 92], [800, 60]],
         source: "Parallel identical pumps: flow doubles at each head (definition)",
       },
     ],
     compute: (a) => {
-      const n = a.count as number;
-      if (!(Number.isInteger(n) && n >= 1 && n <= 20)) throw new CalcError("count", `expected a whole number of pumps from 1 to 20; got ${n}`);
-      const t = a.curve as Table;
-      curveFromTable("curve", t);
-      const scaled = a.arrangement === "parallel" ? ["flow", "power"] : ["head", "power"];
-      return ok(spillTable(t, (role, v) => (scaled.includes(role) ? v * n : v)));
+      const factor = combineFactors(a.count, a.arrangement);
+      curveFromTable("curve", a.curve);
+      return ok(spillTable(a.curve, (role, v) => v * factor(role)));
     },
-  },
-  {
+  }),
+  defineSpec({
     id: "PUMP.SELECT",
     topic: "pumpCurve",
     purpose: "From a family of impeller curves, the smallest impeller that meets a duty; spills impeller, head, efficiency and NPSHr at the duty flow.",
@@ -232,7 +217,7 @@ export const specs: FunctionSpec[] = [
             [250, 0, 40, 0], [250, 50, 38.5, 62], [250, 100, 34, 74], [250, 150, 26, 70],
             [230, 0, 34, 0], [230, 50, 32.6, 60], [230, 100, 28.5, 72], [230, 150, 21, 67],
             [210, 0, 28, 0], [210, 50, 26.8, 58], [210, 100, 23, 69], [210, 150, 16, 63],
-          ] as never,
+          ],
           "80 m^3/h",
           "29 m",
         ],
@@ -242,30 +227,10 @@ export const specs: FunctionSpec[] = [
       },
     ],
     compute: (a) => {
-      const impellers = impellersFromTable("family", a.family as Table);
-      const q = a.flow as number;
-      const need = a.head as number;
-      const out = (v: number) => (a.unit ? fromBase("unit", v, "length", a.unit as string) : v);
-      let reachable = false;
-      for (const imp of impellers) {
-        const head = curveColumn("family", imp.curve, "head");
-        if (q < head.min || q > head.max) continue;
-        reachable = true;
-        const h = head.at(q);
-        if (h >= need) {
-          const at = (role: "efficiency" | "npshr") => {
-            const s = imp.curve[role];
-            if (!s) return "";
-            const f = curveColumn("family", imp.curve, role);
-            return q >= f.min && q <= f.max ? f.at(q) : "";
-          };
-          const npshr = at("npshr");
-          const size = imp.size === null ? imp.label : Number(imp.label);
-          return ok([[size, out(h), at("efficiency"), typeof npshr === "number" ? out(npshr) : ""]]);
-        }
-      }
-      if (!reachable) throw new CalcError("flow", `${q.toPrecision(4)} m³/s is outside every impeller's curve in the family`);
-      throw new CalcError("head", `no impeller in the family gives ${need.toPrecision(4)} m at ${q.toPrecision(4)} m³/s; the largest gives less`);
+      const choice = selectImpeller(impellersFromTable("family", a.family), a.flow, a.head).value;
+      const out = (v: number | undefined) => (v === undefined ? "" : spillValue("unit", v, "length", a.unit));
+      const size = choice.impeller.size === null ? choice.impeller.label : Number(choice.impeller.label);
+      return ok([[size, out(choice.head), choice.efficiency ?? "", out(choice.npshr)]]);
     },
-  },
+  }),
 ];

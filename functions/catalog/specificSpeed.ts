@@ -1,10 +1,10 @@
-import { SPEED_CONVENTIONS, type SpeedConvention, specificSpeed, suctionSpecificSpeed } from "../calc/specificSpeed";
+import { SPEED_CONVENTIONS, specificSpeed, suctionSpecificSpeed } from "../calc/specificSpeed";
 import { CAVITATION_CAUTION } from "./_shared";
-import type { ChoiceParam, FunctionSpec, QuantityParam } from "./types";
+import { defineSpec, type ChoiceParam, type FunctionSpec, type QuantityParam } from "./types";
 
-const speed: QuantityParam = { name: "speed", kind: "quantity", dim: "rotationalSpeed", description: "Pump speed, rpm." };
-const flow: QuantityParam = { name: "flow", kind: "quantity", dim: "flow", description: "Flow at the best-efficiency point, per impeller eye (half the flow of a double-suction impeller)." };
-const convention: ChoiceParam = {
+const speed = { name: "speed", kind: "quantity", dim: "rotationalSpeed", description: "Pump speed, rpm." } as const satisfies QuantityParam;
+const flow = { name: "flow", kind: "quantity", dim: "flow", description: "Flow at the best-efficiency point, per impeller eye (half the flow of a double-suction impeller)." } as const satisfies QuantityParam;
+const convention = {
   name: "convention",
   kind: "choice",
   options: SPEED_CONVENTIONS,
@@ -12,11 +12,11 @@ const convention: ChoiceParam = {
   default: "si",
   defaultNote: "SI: rpm, m³/s, m",
   description: '"SI" (rpm, m³/s, m; default), "US" (rpm, gpm, ft) or "dimensionless" (rad/s, m³/s, g·H).',
-};
+} as const satisfies ChoiceParam;
 const SOURCE = "ANSI/HI 1.1–1.2 (nomenclature: specific speed and suction specific speed); conversion Ns(US) = 51.65·Ns(SI) = 2733·Ω";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "SPECIFICSPEED",
     topic: "specificSpeed",
     purpose: "Pump specific speed at the best-efficiency point, in the chosen convention's units.",
@@ -32,9 +32,9 @@ export const specs: FunctionSpec[] = [
       { args: [1750, "1000 gpm", "100 ft", "si"], expect: 1750 / 51.65, tolerance: 3e-4, source: "Published conversion Ns(US) = 51.65 Ns(SI, m³/s) (from memory)" },
       { args: [1750, "1000 gpm", "100 ft", "dimensionless"], expect: 1750 / 2733, tolerance: 3e-4, source: "Published conversion Ns(US) = 2733 Ω (from memory)" },
     ],
-    compute: (a) => specificSpeed(a.speed as number, a.flow as number, a.head as number, a.convention as SpeedConvention),
-  },
-  {
+    compute: (a) => specificSpeed(a.speed, a.flow, a.head, a.convention),
+  }),
+  defineSpec({
     id: "SUCTIONSPEED",
     topic: "specificSpeed",
     purpose: "Suction specific speed at the best-efficiency point, in the chosen convention's units.",
@@ -46,6 +46,6 @@ export const specs: FunctionSpec[] = [
     cautions: [CAVITATION_CAUTION],
     sources: [SOURCE],
     examples: [{ args: [3550, "500 gpm", "20 ft", "us"], expect: (3550 * Math.sqrt(500)) / 20 ** 0.75, source: "Definition (US units)" }],
-    compute: (a) => suctionSpecificSpeed(a.speed as number, a.flow as number, a.npshr as number, a.convention as SpeedConvention),
-  },
+    compute: (a) => suctionSpecificSpeed(a.speed, a.flow, a.npshr, a.convention),
+  }),
 ];

@@ -1,11 +1,11 @@
 import { WATER_BULK_MODULUS, surgePressure, waveSpeed } from "../calc/surge";
 import { PRESSURE_CAUTION, densityParam, unitParam } from "./_shared";
-import type { FunctionSpec } from "./types";
+import { defineSpec, type FunctionSpec } from "./types";
 
 const SURGE_CAUTION = "Surge can burst pipes and injure people: a detailed transient analysis by a qualified engineer is needed for any real system.";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "SURGE.WAVESPEED",
     topic: "surge",
     purpose: "Speed of a pressure wave in a liquid-filled elastic pipe (Korteweg).",
@@ -28,9 +28,9 @@ export const specs: FunctionSpec[] = [
       { args: [0.3, "10 mm", "200 GPa", null, 1000], expect: Math.sqrt(2.2e9 / 1000 / (1 + (2.2e9 * 0.3) / (200e9 * 0.01))), source: "Korteweg formula by hand: steel pipe, 300 mm bore, 10 mm wall" },
       { args: [0.3, 0.01, 1e15, 2.2e9, 1000], expect: Math.sqrt(2.2e6), tolerance: 1e-4, source: "Rigid pipe: a = √(K/ρ) = 1483 m/s, the speed of sound in water (definition)" },
     ],
-    compute: (a) => waveSpeed(a.diameter as number, a.wall as number, a.pipe_modulus as number, a.bulk_modulus as number, a.density as number, a.restraint as number),
-  },
-  {
+    compute: (a) => waveSpeed(a.diameter, a.wall, a.pipe_modulus, a.bulk_modulus, a.density, a.restraint),
+  }),
+  defineSpec({
     id: "SURGE.PRESSURE",
     topic: "surge",
     purpose: "Pressure rise from a sudden change of velocity (Joukowsky).",
@@ -49,6 +49,6 @@ export const specs: FunctionSpec[] = [
     examples: [
       { args: ["4000 ft/s", "1 ft/s", 998, "psi"], expect: 53.79, tolerance: 1e-3, source: "Common practice: about 50 to 60 psi per ft/s of velocity change in water mains; hand calculation 998 × 1219.2 × 0.3048 Pa = 53.79 psi" },
     ],
-    compute: (a) => surgePressure(a.wave_speed as number, a.velocity_change as number, a.density as number),
-  },
+    compute: (a) => surgePressure(a.wave_speed, a.velocity_change, a.density),
+  }),
 ];

@@ -1,17 +1,15 @@
 import { ok } from "../calc/_lib/result";
 import { systemCurve, systemHead } from "../calc/systemCurve";
-import { fromBase } from "../units/quantity";
-import type { Table } from "../bind/table";
 import { DESIGN_AID, PRESSURE_CAUTION, kinematicViscosityParam, unitParam } from "./_shared";
-import { segmentsFromTable, spillHeader } from "./_tables";
-import type { FunctionSpec, TableParam } from "./types";
+import { segmentsFromTable, spillHeader, spillValue } from "./_tables";
+import { defineSpec, type FunctionSpec, type TableParam } from "./types";
 
-const segmentsParam: TableParam = {
+const segmentsParam = {
   name: "segments",
   kind: "table",
   table: "segments",
   description: 'Pipe segments range: Length, ID, Roughness and optionally K (sum of fitting coefficients) per row; a header such as "ID (in)" sets units.',
-};
+} as const satisfies TableParam;
 const staticHead = { name: "static_head", kind: "quantity", dim: "length", description: "Static head: elevation rise plus any pressure difference as head." } as const;
 const EQUATION = String.raw`H(Q) = H_s + \sum_i \Big(f_i\,\frac{L_i}{D_i} + \Sigma K_i\Big)\frac{V_i^2}{2g}, \quad V_i = \frac{4Q}{\pi D_i^2}`;
 const ASSUMPTIONS = ["Segments in series carry the whole flow.", "Friction factor by Colebrook per segment (64/Re when laminar); K values refer to each segment's own velocity."];
@@ -24,7 +22,7 @@ const SEGMENTS = [
 ];
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "SYSTEM.HEAD",
     topic: "systemCurve",
     purpose: "Head a piping system needs at a flow: static head plus friction and fitting losses of each segment.",
@@ -37,18 +35,18 @@ export const specs: FunctionSpec[] = [
     sources: SOURCES,
     examples: [
       {
-        args: [0.02, 15, SEGMENTS as never, 1.004e-6],
+        args: [0.02, 15, SEGMENTS, 1.004e-6],
         expect: 26.67714238287764,
         tolerance: 1e-10,
         source: "Colebrook solved with mpmath per segment, h = (fL/D + K)·V²/2g summed in Python (independent calculation)",
       },
     ],
     compute: (a) => {
-      const segments = segmentsFromTable("segments", a.segments as Table);
-      return systemHead(a.flow as number, a.static_head as number, { segments, kinematicViscosity: a.kinematic_viscosity as number });
+      const segments = segmentsFromTable("segments", a.segments);
+      return systemHead(a.flow, a.static_head, { segments, kinematicViscosity: a.kinematic_viscosity });
     },
-  },
-  {
+  }),
+  defineSpec({
     id: "SYSTEM.CURVE",
     topic: "systemCurve",
     purpose: "System curve from zero to a maximum flow; spills a table of flow and head with a unit header.",
@@ -69,18 +67,18 @@ export const specs: FunctionSpec[] = [
     sources: SOURCES,
     examples: [
       {
-        args: [15, [[0, 0.1, 0, 1]] as never, 0.01, 2],
+        args: [15, [[0, 0.1, 0, 1]], 0.01, 2],
         expect: [["Flow (m^3/s)", "Head (m)"], [0, 15], [0.01, 15 + (0.01 / (Math.PI * 0.0025)) ** 2 / (2 * 9.80665)]],
         source: "Definition: static head at zero flow; one velocity head (K = 1, no pipe length) at 0.01 m³/s in 0.1 m",
       },
     ],
     compute: (a) => {
-      const segments = segmentsFromTable("segments", a.segments as Table);
-      const curve = systemCurve(a.static_head as number, { segments, kinematicViscosity: a.kinematic_viscosity as number }, a.max_flow as number, a.points as number);
-      const fu = a.flow_unit as string | undefined;
-      const hu = a.head_unit as string | undefined;
-      const rows = curve.value.map(([q, h]) => [fu ? fromBase("flow_unit", q, "flow", fu) : q, hu ? fromBase("head_unit", h, "length", hu) : h]);
+      const segments = segmentsFromTable("segments", a.segments);
+      const curve = systemCurve(a.static_head, { segments, kinematicViscosity: a.kinematic_viscosity }, a.max_flow, a.points);
+      const fu = a.flow_unit;
+      const hu = a.head_unit;
+      const rows = curve.value.map(([q, h]) => [spillValue("flow_unit", q, "flow", fu), spillValue("head_unit", h, "length", hu)]);
       return ok([[spillHeader("Flow", fu, "flow"), spillHeader("Head", hu, "length")], ...rows], curve.warnings);
     },
-  },
+  }),
 ];

@@ -3,11 +3,11 @@
  * binding, the pane's explanation, the README reference and the checks.
  */
 import type { CalcResult } from "../calc/_lib/result";
-import type { Table, TableKind } from "../bind/table";
+import type { Table, TableKind } from "../tables/table";
 import type { Dimension } from "../units/dimensions";
 
 /** Argument values after coercion, by parameter name: numbers in base units, choices as lower-case text, tables. */
-export type Args = Record<string, number | string | Table>;
+export type Args = Readonly<Record<string, number | string | Table | undefined>>;
 
 /** One cell of a spilled result. */
 export type Cell = number | string;
@@ -67,10 +67,13 @@ export interface TableParam extends ParamBase {
 
 export type ParamSpec = QuantityParam | ChoiceParam | UnitParam | TextParam | AnyQuantityParam | TableParam;
 
+/** One argument of an example as a worksheet passes it: a number, text, null when skipped, or a range. */
+export type ExampleArg = number | string | null | readonly (readonly (number | string | null)[])[];
+
 /** A worked example that runs as a test through the calc core and the built worksheet binding. */
 export interface Example {
-  /** Arguments as a worksheet would pass them: numbers, text, or null for a skipped optional. */
-  args: ReadonlyArray<number | string | null>;
+  /** Arguments as a worksheet would pass them: numbers, text, null for a skipped optional, ranges. */
+  args: readonly ExampleArg[];
   /** Expected worksheet result: a number, or for a spilled result the expected cells. */
   expect: number | readonly (readonly Cell[])[];
   /** Relative tolerance (default 1e-9). */
@@ -105,7 +108,51 @@ export interface FunctionSpec {
   compute: (args: Args) => CalcResult<number | Cell[][]>;
 }
 
+/** A number argument read by a default or a dimension rule (which see the untyped arguments). */
+export function numberArg(args: Args, name: string): number {
+  const v = args[name];
+  if (typeof v !== "number") throw new Error(`argument ${name} is not a number here`);
+  return v;
+}
+
 /** Resolves a result dimension that may depend on the arguments. */
 export function resultDimension(spec: FunctionSpec, args: Args): Dimension {
   return typeof spec.result.dim === "function" ? spec.result.dim(args) : spec.result.dim;
+}
+
+/** The value a compute function receives for one parameter (after defaults are filled in). */
+type ValueOf<P extends ParamSpec> = P extends { kind: "quantity" | "anyQuantity" }
+  ? number
+  : P extends { kind: "choice"; options: readonly (infer O extends string)[] }
+    ? O
+    : P extends { kind: "unit" | "text" }
+      ? string
+      : P extends { kind: "table"; scalar: Dimension }
+        ? Table | number
+        : P extends { kind: "table" }
+          ? Table
+          : never;
+
+/** An optional parameter with no default may be missing. */
+type Missing<P extends ParamSpec> = P extends { optional: true } ? (P extends { default: unknown } ? never : undefined) : never;
+
+/** The arguments a compute function receives, typed by the spec's own parameter list. */
+type ArgsOf<Ps extends readonly ParamSpec[]> = { readonly [P in Ps[number] as P["name"]]: ValueOf<P> | Missing<P> };
+
+/** A spec as it is written: its compute and result dimension see the arguments typed by its parameters. */
+interface TypedSpec<Ps extends readonly ParamSpec[]> extends Omit<FunctionSpec, "params" | "compute" | "result"> {
+  params: Ps;
+  result: { dim: Dimension | ((args: ArgsOf<Ps>) => Dimension); description: string; spill?: boolean };
+  compute: (args: ArgsOf<Ps>) => CalcResult<number | Cell[][]>;
+}
+
+/**
+ * Declares a worksheet function's spec. The parameter list keeps its literal names and kinds,
+ * so compute receives each argument with its own type: a misspelt name or a wrong type fails
+ * to compile instead of failing at run time.
+ */
+export function defineSpec<const Ps extends readonly ParamSpec[]>(spec: TypedSpec<Ps>): FunctionSpec {
+  // The one place a typed spec joins the catalogue's list: evaluate() fills the arguments
+  // exactly as ArgsOf describes (numbers in base units, lower-case choices, tables, defaults).
+  return spec as unknown as FunctionSpec;
 }

@@ -1,9 +1,9 @@
 import { convertUnits } from "../units/quantity";
 import { ok } from "../calc/_lib/result";
-import type { FunctionSpec } from "./types";
+import { defineSpec, type FunctionSpec } from "./types";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "CONVERT",
     topic: "units",
     purpose: "Converts a value from one unit to another of the same dimension.",
@@ -24,6 +24,6 @@ export const specs: FunctionSpec[] = [
       { args: [212, "degF", "degC"], expect: 100, source: "NIST SP 811 B.9: t/°C = (t/°F − 32)/1.8" },
       { args: [1, "ftH2O", "kPa"], expect: 2.98906692, source: "NIST SP 811 B.8: foot of water (conventional) = 2.989067E+03 Pa" },
     ],
-    compute: (a) => ok(convertUnits(a.value as number, a.from_unit as string, a.to_unit as string)),
-  },
+    compute: (a) => ok(convertUnits(a.value, a.from_unit, a.to_unit)),
+  }),
 ];

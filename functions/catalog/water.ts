@@ -1,15 +1,15 @@
 import { DEFAULT_PRESSURE_PA } from "../calc/_lib/constants";
 import { saturationPressure, waterDensity, waterKinematicViscosity, waterViscosity } from "../calc/water";
 import { unitParam } from "./_shared";
-import type { FunctionSpec, QuantityParam } from "./types";
+import { defineSpec, type FunctionSpec, type QuantityParam } from "./types";
 
-const temperature: QuantityParam = {
+const temperature = {
   name: "temperature",
   kind: "quantity",
   dim: "temperature",
   description: 'Water temperature: bare number in °C, or text such as "68 degF" or "300 K".',
-};
-const pressure: QuantityParam = {
+} as const satisfies QuantityParam;
+const pressure = {
   name: "pressure",
   kind: "quantity",
   dim: "pressure",
@@ -17,13 +17,13 @@ const pressure: QuantityParam = {
   description: "Absolute pressure; 101.325 kPa when left out.",
   default: DEFAULT_PRESSURE_PA,
   defaultNote: "standard atmosphere, 101.325 kPa absolute",
-};
+} as const satisfies QuantityParam;
 const IF97 = "IAPWS R7-97(2012): Revised Release on the IAPWS Industrial Formulation 1997 (IAPWS-IF97)";
 const VISC = "IAPWS R12-08: Release on the IAPWS Formulation 2008 for the Viscosity of Ordinary Water Substance";
 const LIQUID = "Liquid water only: 0 °C to 350 °C, pressure at or above the saturation pressure, up to 100 MPa (IF97 region 1).";
 
 export const specs: FunctionSpec[] = [
-  {
+  defineSpec({
     id: "WATER.DENSITY",
     topic: "water",
     purpose: "Density of liquid water at a temperature and absolute pressure.",
@@ -39,9 +39,9 @@ export const specs: FunctionSpec[] = [
       { args: ["500 K", "3 MPa"], expect: 1 / 0.1202418e-2, tolerance: 1e-8, source: "IAPWS-IF97 table 5: v = 0.120241800e-2 m³/kg at 500 K, 3 MPa" },
       { args: [20, null], expect: 998.21, tolerance: 1e-4, source: "Handbook value 998.21 kg/m³ at 20 °C, 1 atm (IAPWS-95 based tables; from memory)" },
     ],
-    compute: (a) => waterDensity(a.temperature as number, a.pressure as number),
-  },
-  {
+    compute: (a) => waterDensity(a.temperature, a.pressure),
+  }),
+  defineSpec({
     id: "WATER.VISCOSITY",
     topic: "water",
     purpose: "Dynamic viscosity of liquid water at a temperature and absolute pressure.",
@@ -55,9 +55,9 @@ export const specs: FunctionSpec[] = [
     examples: [
       { args: [20, null, "cP"], expect: 1.0016, tolerance: 2e-4, source: "Handbook value 1.0016 mPa·s at 20 °C, 1 atm (CRC Handbook of Chemistry and Physics; from memory)" },
     ],
-    compute: (a) => waterViscosity(a.temperature as number, a.pressure as number),
-  },
-  {
+    compute: (a) => waterViscosity(a.temperature, a.pressure),
+  }),
+  defineSpec({
     id: "WATER.KINVISC",
     topic: "water",
     purpose: "Kinematic viscosity of liquid water, dynamic viscosity over density.",
@@ -71,9 +71,9 @@ export const specs: FunctionSpec[] = [
     examples: [
       { args: [20, null, "cSt"], expect: 1.0034, tolerance: 5e-4, source: "Handbook value 1.0034 mm²/s at 20 °C, 1 atm (1.0016 mPa·s / 998.21 kg/m³; from memory)" },
     ],
-    compute: (a) => waterKinematicViscosity(a.temperature as number, a.pressure as number),
-  },
-  {
+    compute: (a) => waterKinematicViscosity(a.temperature, a.pressure),
+  }),
+  defineSpec({
     id: "WATER.VAPORPRESSURE",
     topic: "water",
     purpose: "Saturation (vapour) pressure of water at a temperature, absolute.",
@@ -90,6 +90,6 @@ export const specs: FunctionSpec[] = [
       { args: ["600 K", "MPa"], expect: 12.3443146, tolerance: 1e-8, source: "IAPWS-IF97 table 35: ps = 0.123443146e2 MPa at 600 K" },
       { args: [20, "kPa"], expect: 2.3393, tolerance: 1e-4, source: "Steam tables: 2.3393 kPa at 20 °C (IAPWS-95 based; from memory)" },
     ],
-    compute: (a) => saturationPressure(a.temperature as number),
-  },
+    compute: (a) => saturationPressure(a.temperature),
+  }),
 ];

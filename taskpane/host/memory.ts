@@ -3,10 +3,10 @@
  * server, or built in tests) with a selection. Formula values are recalculated with the
  * headless engine after every write, as Excel would.
  */
-import { addressOf, cellKey, type CellModel, type CellValue, type DefinedName, findSheet, getCell, labelSource, parseAddress, type WorkbookModel } from "../../headless/model";
-import { recalculate } from "../../headless/recalc";
+import { addressOf, cellKey, type CellModel, type CellValue, type DefinedName, findSheet, getCell, labelSource, parseAddress, type WorkbookModel } from "../../workbook/model";
+import { recalculate } from "../../workbook/recalc";
 import type { CellAddress, CellSnapshot, FormulaCell, HostPort } from "./port";
-import { hasNappeCall } from "../../headless/storedForm";
+import { hasNappeCall } from "../../workbook/storedForm";
 
 export class MemoryHost implements HostPort {
   private current: CellAddress;

@@ -2,10 +2,10 @@
  * The Office.js adapter of the HostPort: reads and writes the workbook through Excel's
  * JavaScript API. Kept thin; everything it returns is plain data for the pure pane logic.
  */
-import { addressOf, parseAddress } from "../../headless/address";
-import type { CellValue, DefinedName } from "../../headless/model";
+import { addressOf, parseAddress } from "../../workbook/address";
+import type { CellValue, DefinedName } from "../../workbook/model";
 import type { CellAddress, CellSnapshot, FormulaCell, HostPort } from "./port";
-import { hasNappeCall } from "../../headless/storedForm";
+import { hasNappeCall } from "../../workbook/storedForm";
 
 function plain(v: unknown): CellValue {
   if (v === null || v === undefined || v === "") return v === "" ? "" : null;

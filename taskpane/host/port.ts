@@ -3,7 +3,7 @@
  * Office.js in Excel (office.ts) and an in-memory workbook read from .xlsx (memory.ts) for the
  * preview page and tests. All pane logic talks to this interface only.
  */
-import type { CellValue, DefinedName } from "../../headless/model";
+import type { CellValue, DefinedName } from "../../workbook/model";
 
 export interface CellSnapshot {
   /** Formula without the leading "=", when the cell has one. */

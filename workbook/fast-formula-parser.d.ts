@@ -20,6 +20,7 @@ declare module "fast-formula-parser" {
     constructor(error: string, msg?: string, details?: unknown);
     readonly error: string;
     readonly details: unknown;
+    static NOT_IMPLEMENTED(name: string): FormulaError;
   }
   export default class FormulaParser {
     constructor(config: {

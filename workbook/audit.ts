@@ -6,7 +6,7 @@
  */
 import { CATALOG_BY_ID } from "../functions/catalog";
 import type { ArgReading } from "../functions/bind/evaluate";
-import type { Table } from "../functions/bind/table";
+import type { Table } from "../functions/tables/table";
 import { DIMENSIONS } from "../functions/units/dimensions";
 import type { CellOutcome, Status } from "./recalc";
 import { checkCallUnits, type LabelSource } from "./unitCheck";

@@ -13,7 +13,7 @@
  * Works on the bytes exceljs writes; the text of everything else is left as it was.
  */
 import JSZip from "jszip";
-import { unescapeXml } from "./package";
+import { unescapeXml } from "./xml";
 import { hasNappeCall, storedFormula, storedIds } from "./storedForm";
 
 /** The add-in as its manifest names it (manifest/manifest.xml; a test keeps the two equal). */

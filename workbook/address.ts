@@ -22,3 +22,16 @@ export function parseAddress(address: string): { row: number; col: number } {
   for (const ch of m[1].toUpperCase()) col = col * 26 + (ch.charCodeAt(0) - 64);
   return { row: Number(m[2]), col };
 }
+
+/** "Inputs!" or "'Pump data'!" ('' for a quote in the name), as a formula writes a sheet. */
+export function sheetPrefix(sheet: string): string {
+  return /^[A-Za-z_][A-Za-z0-9_.]*$/.test(sheet) ? `${sheet}!` : `'${sheet.replace(/'/g, "''")}'!`;
+}
+
+/** Splits "Inputs!B4" or "'A!B'!B4" into sheet and address; a bare address is on `here`. */
+export function splitReference(ref: string, here: string): { sheet: string; address: string } {
+  const bang = ref.lastIndexOf("!");
+  if (bang < 0) return { sheet: here, address: ref };
+  const sheet = ref.slice(0, bang);
+  return { sheet: sheet.startsWith("'") && sheet.endsWith("'") ? sheet.slice(1, -1).replace(/''/g, "'") : sheet, address: ref.slice(bang + 1) };
+}

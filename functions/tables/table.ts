@@ -7,7 +7,9 @@
 import { CalcError } from "../calc/_lib/result";
 import { type Dimension, DIMENSIONS } from "../units/dimensions";
 import { parseNumberText, parseQuantity, toBase, fromBase } from "../units/quantity";
-import type { RawArg } from "./evaluate";
+
+/** A worksheet argument as Excel passes it: a number, text, a logical, empty, or a range of them. */
+export type RawArg = number | string | boolean | null | undefined | readonly (readonly RawArg[])[];
 
 const TABLE_KINDS = ["curve", "segments", "family"] as const;
 export type TableKind = (typeof TABLE_KINDS)[number];

@@ -4,17 +4,15 @@
  * comparisons and Excel's common functions); every NAPPE.* call goes through the catalogue's
  * evaluate(), and is recorded with its inputs, result and warnings for the audit.
  */
-import FormulaParser, { type FunctionArg, type RangeRef } from "fast-formula-parser";
 import { CalcError } from "../functions/calc/_lib/result";
 import { evaluate, type Evaluation, type RawArg } from "../functions/bind/evaluate";
 import { CATALOG } from "../functions/catalog";
-import { references } from "./formula";
+import { type EvaluatingParser, evaluatingParser, FormulaError, type FormulaErrorValue, type FunctionArg, isParseError, MAX_COLUMN, MAX_ROW, notImplementedFunction, type RangeRef, references } from "./formula";
 import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAddress, type WorkbookModel } from "./model";
-import type { Budget } from "./package";
+import { sheetPrefix } from "./address";
 import { displayFormula, dottedName, expandLet, externalLinkIndexes, hasNappeCall, otherAddinFunctions, resolveNames, UDF_PREFIX, unknownNappeFunctions } from "./storedForm";
 import { EXTRA_FUNCTIONS } from "./extraFunctions";
 
-const { FormulaError } = FormulaParser;
 
 /** One NAPPE call made while computing a cell. */
 export interface CallRecord {
@@ -43,6 +41,11 @@ export interface CellOutcome {
   calls: CallRecord[];
   /** False when the engine could not compute the formula (an error of its own or of a precedent, another workbook, another add-in). */
   recalculated: boolean;
+}
+
+/** A time and memory budget the recalculation checks as it goes (headless/package.ts). */
+interface Budget {
+  check(stage: string): void;
 }
 
 interface RecalcOptions {
@@ -94,7 +97,7 @@ function isSingleNappeCall(formula: string): boolean {
 
 function rangeText(ref: FunctionArg["ref"], here: string): string | undefined {
   if (!ref) return undefined;
-  const prefix = ref.sheet && ref.sheet !== here ? `${ref.sheet}!` : "";
+  const prefix = ref.sheet && ref.sheet !== here ? sheetPrefix(ref.sheet) : "";
   if (ref.from && ref.to) return `${prefix}${addressOf(ref.from.row, ref.from.col)}:${addressOf(ref.to.row, ref.to.col)}`;
   if (ref.row && ref.col) return `${prefix}${addressOf(ref.row, ref.col)}`;
   return undefined;
@@ -120,7 +123,7 @@ export class Recalculation {
   private readonly calls: CallRecord[][] = [];
   /** Formula cells whose failed results the formula being computed has read. */
   private readonly failedReads: string[][] = [];
-  private readonly parsers: FormulaParser[] = [];
+  private readonly parsers: EvaluatingParser[] = [];
   /** Formula cells of each sheet, for ordering ranges. */
   private readonly formulaCells = new Map<string, CellModel[]>();
   private computedCount = 0;
@@ -145,7 +148,7 @@ export class Recalculation {
    * A parser for the current nesting depth: fast-formula-parser is not re-entrant, and a
    * formula's references may need other formulas computed while it is being parsed.
    */
-  private parserAt(depth: number): FormulaParser {
+  private parserAt(depth: number): EvaluatingParser {
     while (this.parsers.length <= depth) {
       const functions: Record<string, (...args: FunctionArg[]) => unknown> = {};
       // Both forms a NAPPE call takes: dotted as typed, and as Excel stores it (_xldudf_NAPPE_X_Y).
@@ -158,20 +161,21 @@ export class Recalculation {
         ANCHORARRAY: (arg: FunctionArg) => this.spillOf(arg),
         SINGLE: (arg: FunctionArg) => this.implicitIntersection(arg),
       });
-      const parser = new FormulaParser({
-        functions,
-        onCell: (ref) => this.scalarAt(ref.sheet, ref.row, ref.col),
-        onRange: (ref) => this.rangeValues(ref),
-      });
-      // Keep references on our functions' arguments so the audit can say where each input came from.
-      parser.funsPreserveRef.push(...Object.keys(functions).filter((n) => n.startsWith("NAPPE.") || n.startsWith("_XLDUDF_")), "ANCHORARRAY", "SINGLE");
-      this.parsers.push(parser);
+      this.parsers.push(
+        evaluatingParser({
+          functions,
+          // References on our functions' arguments let the audit say where each input came from.
+          keepReferences: [...Object.keys(functions).filter((n) => n.startsWith("NAPPE.") || n.startsWith("_XLDUDF_")), "ANCHORARRAY", "SINGLE"],
+          onCell: (ref) => this.scalarAt(ref.sheet, ref.row, ref.col),
+          onRange: (ref) => this.rangeValues(ref),
+        }),
+      );
     }
     return this.parsers[depth];
   }
 
   private callNappe(id: string, args: FunctionArg[]): unknown {
-    const here = this.visiting[this.visiting.length - 1]?.split("!")[0] ?? "";
+    const here = this.currentSheet();
     const record: CallRecord = { id, refs: args.map((a) => rangeText(a.ref, here)) };
     this.calls[this.calls.length - 1]?.push(record);
     const raws: RawArg[] = [];
@@ -237,7 +241,7 @@ export class Recalculation {
     const sheet = findSheet(this.wb, ref.sheet);
     let lastRow = ref.to.row;
     let lastCol = ref.to.col;
-    if (sheet && (lastRow >= FormulaParser.MAX_ROW || lastCol >= FormulaParser.MAX_COLUMN)) {
+    if (sheet && (lastRow >= MAX_ROW || lastCol >= MAX_COLUMN)) {
       const { maxR, maxC } = this.extent(sheet.name);
       lastRow = Math.min(lastRow, Math.max(maxR, ref.from.row));
       lastCol = Math.min(lastCol, Math.max(maxC, ref.from.col));
@@ -421,7 +425,7 @@ export class Recalculation {
     let result: Computed;
     const calls = () => this.calls[this.calls.length - 1];
     try {
-      const out = this.parserAt(this.visiting.length - 1).parse(this.prepared(cell), { sheet: cell.sheet, row: cell.row, col: cell.col }, true);
+      const out = this.parserAt(this.visiting.length - 1).parse(this.prepared(cell), { sheet: cell.sheet, row: cell.row, col: cell.col });
       if (out instanceof FormulaError) {
         result = { value: out.error, error: out.error, message: describeFormulaError(out), calls: calls() };
       } else if (Array.isArray(out)) {
@@ -456,11 +460,10 @@ export class Recalculation {
   }
 }
 
-function describeFormulaError(e: InstanceType<typeof FormulaError>): string {
-  const missing = /^Function (.+) is not implemented\.?$/.exec(e.message ?? "");
-  if (missing) return `unsupported function ${missing[1]}: Nappe's formula engine does not compute it`;
-  const details = e.details as { errorLocation?: { line: number; column: number } } | undefined;
-  if (e.error === "#ERROR!" || details?.errorLocation) {
+function describeFormulaError(e: FormulaErrorValue): string {
+  const missing = notImplementedFunction(e);
+  if (missing) return `unsupported function ${missing}: Nappe's formula engine does not compute it`;
+  if (isParseError(e)) {
     const first = (e.message ?? "").split("\n")[0].trim();
     return `the formula could not be parsed${first ? `: ${first}` : " (check brackets, commas and quotes)"}`;
   }

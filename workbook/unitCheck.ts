@@ -8,7 +8,7 @@ import type { FunctionSpec } from "../functions/catalog/types";
 import type { Evaluation } from "../functions/bind/evaluate";
 import { type Dimension, DIMENSIONS, hasUnit } from "../functions/units/dimensions";
 import { dimensionOfUnit, toBase } from "../functions/units/quantity";
-import { parseAddress } from "./address";
+import { parseAddress, splitReference } from "./address";
 
 export interface LabelSource {
   /** Text of the nearest label cells: to the left on the same row, then above. */
@@ -60,7 +60,7 @@ export function checkCallUnits(spec: FunctionSpec, evaluation: Evaluation, refs:
     if (!ref || ref.includes(":") || p.kind !== "quantity" || !hasUnit(p.dim)) return;
     const reading = evaluation.readings.find((r) => r.name === p.name);
     if (!reading || reading.how !== "base unit" || typeof reading.raw !== "number") return;
-    const [sheet, address] = ref.includes("!") ? ref.split("!") : [here, ref];
+    const { sheet, address } = splitReference(ref, here);
     const { row, col } = parseAddress(address);
     const sources = [labels.numberFormat(sheet, row, col), ...labels.labelsNear(sheet, row, col)].filter((t): t is string => Boolean(t));
     for (const text of sources) {

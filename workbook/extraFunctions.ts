@@ -3,9 +3,7 @@
  * MEDIAN, COUNTA, STDEV.S (and STDEV), MATCH. Each takes the library's argument objects
  * ({ value, isArray, isRangeRef, isCellRef, omitted }); errors are thrown as FormulaError.
  */
-import FormulaParser, { type FunctionArg } from "fast-formula-parser";
-
-const { FormulaError } = FormulaParser;
+import { FormulaError, type FunctionArg } from "./formula";
 type Arg = FunctionArg & { isRangeRef?: boolean; isCellRef?: boolean };
 
 function* flat(value: unknown): Generator<unknown> {

@@ -1,10 +1,72 @@
 /**
- * The structure of a formula's NAPPE calls, from fast-formula-parser's own lexer (the same
- * library that evaluates formulas): each call with its arguments' source text and position,
- * nested calls inside. Used to show arguments "as written" and to apply unit fixes.
+ * The adapter of the formula library, fast-formula-parser (MIT, pinned to an exact version in
+ * package.json): the only module that imports it, and the only one that touches its internals
+ * (its lexer, its list of functions whose arguments keep their references, its dependency
+ * parser, the wording of its "not implemented" error). test/formulaAdapter.test.ts fails if
+ * any of those internals change.
+ *
+ * What it offers: a formula's calls with their arguments' source text and position (to show
+ * arguments "as written" and apply unit fixes), the references its text names (to order a
+ * recalculation), its direct precedents (the pane's snapshot), and evaluating parsers.
  */
+import FormulaParser, { type CellRef, type FunctionArg, type RangeRef } from "fast-formula-parser";
 import { lex, type Token } from "fast-formula-parser/grammar/lexing";
 import { dottedName } from "./storedForm";
+
+export type { FunctionArg, RangeRef };
+export const { FormulaError } = FormulaParser;
+export type FormulaErrorValue = InstanceType<typeof FormulaError>;
+/** The sheet's last row and column, as the library bounds whole-column and whole-row ranges. */
+export const MAX_ROW = FormulaParser.MAX_ROW;
+export const MAX_COLUMN = FormulaParser.MAX_COLUMN;
+
+export interface EvaluatingParser {
+  /** Evaluates a formula (without "=") at a position; arrays allowed. */
+  parse(formula: string, position: { sheet: string; row: number; col: number }): unknown;
+}
+
+/**
+ * A parser that calls back for cells and ranges and knows our functions. The arguments of the
+ * functions named in `keepReferences` arrive with the reference they were written as (`ref`).
+ */
+export function evaluatingParser(options: {
+  functions: Record<string, (...args: FunctionArg[]) => unknown>;
+  keepReferences: readonly string[];
+  onCell: (ref: CellRef) => unknown;
+  onRange: (ref: RangeRef) => unknown[][];
+}): EvaluatingParser {
+  const parser = new FormulaParser({ functions: options.functions, onCell: options.onCell, onRange: options.onRange });
+  // Internal: the list of functions whose arguments keep their references.
+  parser.funsPreserveRef.push(...options.keepReferences.map((n) => n.toUpperCase()));
+  return { parse: (formula, position) => parser.parse(formula, position, true) };
+}
+
+/** The name of the function the library does not implement, when that is what an error says. */
+export function notImplementedFunction(e: FormulaErrorValue): string | undefined {
+  return /^Function (.+) is not implemented\.?$/.exec(e.message ?? "")?.[1];
+}
+
+/** Where the library says a formula could not be parsed, when it does. */
+export function isParseError(e: FormulaErrorValue): boolean {
+  const details = e.details as { errorLocation?: unknown } | undefined;
+  return e.error === "#ERROR!" || Boolean(details?.errorLocation);
+}
+
+/** A direct precedent of a formula: one cell (row, col) or a range (from, to). */
+export interface PrecedentRef {
+  sheet: string;
+  row?: number;
+  col?: number;
+  from?: { row: number; col: number };
+  to?: { row: number; col: number };
+}
+
+const { DepParser } = FormulaParser as unknown as { DepParser: new () => { parse(f: string, pos: { sheet: string; row: number; col: number }): PrecedentRef[] } };
+
+/** The cells and ranges a formula reads directly, from the library's dependency parser. */
+export function directPrecedents(formula: string, position: { sheet: string; row: number; col: number }): PrecedentRef[] {
+  return new DepParser().parse(formula, position);
+}
 
 interface ArgSite {
   /** Source text of the argument, trimmed ("" when left out). */
@@ -87,8 +149,6 @@ interface FormulaRef {
   to: { row: number; col: number };
 }
 
-const MAX_ROW = 1048576;
-const MAX_COL = 16384;
 
 function colNumber(letters: string): number {
   return [...letters.replace(/\$/g, "").toUpperCase()].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
@@ -138,7 +198,7 @@ export function references(formula: string): FormulaRef[] {
     // A bare number or column letters alone is not a reference: only as part of A:A or 1:1.
     if (end === j && tokens[j].type !== "Cell") continue;
     const from = { row: Math.min(a.row, b.row) || 1, col: Math.min(a.col, b.col) || 1 };
-    const to = { row: a.row && b.row ? Math.max(a.row, b.row) : MAX_ROW, col: a.col && b.col ? Math.max(a.col, b.col) : MAX_COL };
+    const to = { row: a.row && b.row ? Math.max(a.row, b.row) : MAX_ROW, col: a.col && b.col ? Math.max(a.col, b.col) : MAX_COLUMN };
     out.push({ sheet, from, to });
     i = end;
   }
