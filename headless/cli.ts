@@ -14,7 +14,8 @@
 import { basename, extname, join, resolve } from "node:path";
 import { parseArgs as parseCommandLine } from "node:util";
 import ExcelJS from "exceljs";
-import { buildAudit, formatValue } from "../workbook/audit";
+import { buildAudit, GENERAL_CAUTIONS } from "../workbook/audit";
+import { formatValue } from "../workbook/format";
 import { demoWorkbookBytes, DEMO_FILE } from "../demo/build";
 import { writeAtomically } from "./atomic";
 import { writeHandoff } from "./handoff";
@@ -234,7 +235,7 @@ async function demo(out: string): Promise<number> {
   await writeHandoff(path, join(out, "orchard-handoff.xlsx"), result, report, DEFAULT_LIMITS);
   console.log(`\n${summaryLine(result)}`);
   console.log(`Workbook: ${path}\nAudit report: ${join(out, "orchard-audit.html")}\nAudit sheet:  ${join(out, "orchard-audit.xlsx")}\nHand-off copy (values, no add-in needed): ${join(out, "orchard-handoff.xlsx")}`);
-  console.log("\nA design aid for preliminary sizing: confirm with the pump maker's certified data, local codes and a licensed engineer.");
+  console.log(`\n${GENERAL_CAUTIONS.join(" ")}`);
   return report.counts.error ? 1 : 0;
 }
 

@@ -9,7 +9,8 @@
 import { readFile } from "node:fs/promises";
 import { basename } from "node:path";
 import ExcelJS from "exceljs";
-import { type AuditReport, formatValue, GENERAL_CAUTIONS } from "../workbook/audit";
+import { type AuditReport, GENERAL_CAUTIONS } from "../workbook/audit";
+import { formatValue } from "../workbook/format";
 import { writeAtomically } from "./atomic";
 import { addressOf, type CellValue, parseAddress } from "../workbook/model";
 import { type Limits, openPackage } from "./package";

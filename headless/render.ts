@@ -1,7 +1,8 @@
 /** Renderers of recalculation results and of the audit model: text table, HTML, .xlsx. */
 import ExcelJS from "exceljs";
 import katex from "katex";
-import { type AuditReport, AUDIT_COLUMNS, AUDIT_WIDTHS, auditRows, formatNumber, formatValue, NOTHING_FOUND, wrappedLines } from "../workbook/audit";
+import { type AuditReport, AUDIT_COLUMNS, AUDIT_WIDTHS, auditSheetRows, NOTHING_FOUND, wrappedLines } from "../workbook/audit";
+import { formatNumber, formatValue } from "../workbook/format";
 import type { CellOutcome } from "../workbook/recalc";
 
 function clip(text: string, width: number): string {
@@ -34,7 +35,7 @@ export function renderTable(cells: readonly CellOutcome[]): string {
 
 const ESCAPES: Record<string, string> = { "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;", "'": "&#39;" };
 /** Escapes workbook text for HTML: nothing from a workbook is ever markup. */
-function escapeHtml(text: string): string {
+export function escapeHtml(text: string): string {
   return text.replace(/[&<>"']/g, (c) => ESCAPES[c]);
 }
 
@@ -75,12 +76,12 @@ export function renderHtml(report: AuditReport): string {
           (c) => `<div class="call">
 <h3>NAPPE.${escapeHtml(c.id)}: ${escapeHtml(c.purpose)}</h3>
 ${equation(c.equation)}
-<table><tr><th>argument</th><th>as written</th><th>as read</th><th>how</th></tr>
-${c.inputs.map((i) => `<tr><td>${escapeHtml(i.name)}</td><td><code>${escapeHtml(i.written)}</code></td><td>${escapeHtml(i.read)}</td><td>${escapeHtml(i.how)}</td></tr>`).join("\n")}
+<table><tr><th>argument</th><th>as written</th><th>as read</th><th>how</th><th>in base units</th></tr>
+${c.args.map((a) => `<tr><td>${escapeHtml(a.name)}</td><td><code>${escapeHtml(a.written || "(left out)")}</code></td><td>${escapeHtml(a.value)}${a.unit && !a.value.endsWith(a.unit) ? ` ${escapeHtml(a.unit)}` : ""}</td><td>${escapeHtml(a.why)}</td><td>${escapeHtml(a.base)}</td></tr>`).join("\n")}
 </table>
-<p><strong>Result:</strong> ${escapeHtml(c.result || "(error)")}</p>
+<p><strong>Result:</strong> ${escapeHtml(c.result ?? "(error)")}${c.resultBase && c.resultBase !== c.result ? ` (${escapeHtml(c.resultBase)} in base units)` : ""}</p>
 ${c.error ? `<p class="status error">${escapeHtml(c.error)}</p>` : ""}
-${list("Warnings", c.warnings)}${list("Assumptions", c.assumptions)}${list("Cautions", c.cautions)}${list("Sources", c.sources)}
+${list("Warnings", [...c.warnings, ...c.unitFindings.map((f) => `Unit check: ${f.message}`)])}${list("Assumptions", c.assumptions)}${list("Cautions", c.cautions)}${list("Sources", c.sources)}
 </div>`,
         )
         .join("\n");
@@ -120,22 +121,20 @@ export function addAuditSheet(book: ExcelJS.Workbook, report: AuditReport, name 
     headerFooter: { oddFooter: "&L&A&RPage &P of &N" },
   });
   const total = AUDIT_WIDTHS.reduce((a, b) => a + b, 0);
-  const banner = (text: string, font: Partial<ExcelJS.Font>) => {
+  const { rows, headerRow } = auditSheetRows(report);
+  const fonts: Partial<ExcelJS.Font>[] = [{ bold: true, size: 14 }, {}, { italic: true, color: { argb: "FF7A4B00" } }, { bold: true, color: { argb: "FF8A1C1C" } }];
+  rows.slice(0, headerRow).forEach(([text], i) => {
     const row = ws.addRow([text]);
-    row.font = font;
+    row.font = fonts[i] ?? {};
     ws.mergeCells(row.number, 1, row.number, AUDIT_COLUMNS.length);
     row.getCell(1).alignment = { wrapText: true, vertical: "top" };
     row.height = 15 * wrappedLines(text, total);
-  };
-  banner(report.title, { bold: true, size: 14 });
-  banner(`Workbook: ${report.source} · generated ${report.generated} · ${report.found ?? `${report.entries.length} NAPPE formulas`} · ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`, {});
-  banner(report.cautions.join(" "), { italic: true, color: { argb: "FF7A4B00" } });
-  banner(report.entries.length ? "" : NOTHING_FOUND, { bold: true, color: { argb: "FF8A1C1C" } });
-  const header = ws.addRow(AUDIT_COLUMNS);
+  });
+  const header = ws.addRow(rows[headerRow]);
   header.font = { bold: true, color: { argb: "FFFFFFFF" } };
   header.alignment = { wrapText: true, vertical: "top" };
   header.eachCell((c) => (c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FF0E5463" } }));
-  for (const row of auditRows(report).slice(1)) {
+  for (const row of rows.slice(headerRow + 1)) {
     const r = ws.addRow(row);
     r.alignment = { vertical: "top", wrapText: true };
     // Explicit heights: a spreadsheet program need not grow a row to fit wrapped text on its own.

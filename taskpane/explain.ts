@@ -7,33 +7,17 @@
  * headless command (over a snapshot of the formula's direct precedents).
  */
 import { CATALOG_BY_ID } from "../functions/catalog";
-import { resultDimension } from "../functions/catalog/types";
-import type { ArgReading } from "../functions/bind/evaluate";
-import type { Table } from "../functions/tables/table";
 import { DIMENSIONS } from "../functions/units/dimensions";
-import { formatNumber, formatValue } from "../workbook/audit";
+import { callView, type CallView, pairCalls } from "../workbook/callView";
+import { formatValue } from "../workbook/format";
 import { callSites, directPrecedents, evaluationOrder, type PrecedentRef, replaceArgument, type CallSite } from "../workbook/formula";
 import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../workbook/model";
 import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../workbook/recalc";
 import { displayFormula, hasNappeCall, resolveNames } from "../workbook/storedForm";
-import { checkCallUnits, type LabelSource } from "../workbook/unitCheck";
+import type { LabelSource } from "../workbook/unitCheck";
 import { type ChartData, chartFor, withNpsha } from "./chartData";
 import { toBase } from "../functions/units/quantity";
 import type { HostPort } from "./host/port";
-
-interface ArgExplanation {
-  name: string;
-  /** The argument as written in the formula ("Inputs!B14", "\"6 in\"", or "" when left out). */
-  written: string;
-  /** Value as read, for people. */
-  value: string;
-  /** Unit it was read in. */
-  unit: string;
-  /** Why that unit: bare number (base unit), text quantity, percent, table header, default. */
-  why: string;
-  /** Base-unit value with its unit. */
-  base: string;
-}
 
 interface UnitWarning {
   message: string;
@@ -43,22 +27,11 @@ interface UnitWarning {
   fixLabel?: string;
 }
 
-export interface CallExplanation {
-  id: string;
+/** One call as the pane shows it: the one call-view model, its text in the formula, and the unit fixes it offers. */
+export interface CallExplanation extends CallView {
   /** The call's own text in the formula. */
   text: string;
-  purpose: string;
-  equation: string;
-  args: ArgExplanation[];
-  resultBase?: string;
-  resultRequested?: string;
-  assumptions: readonly string[];
-  checks: readonly string[];
-  warnings: string[];
   unitWarnings: UnitWarning[];
-  cautions: readonly string[];
-  sources: readonly string[];
-  error?: string;
 }
 
 export interface CellExplanation {
@@ -75,41 +48,6 @@ export interface CellExplanation {
   chart?: ChartData;
 }
 
-
-function howWhy(r: ArgReading): { unit: string; why: string } {
-  switch (r.how) {
-    case "base unit":
-      return { unit: r.unit, why: "bare number, so the base unit" };
-    case "text quantity":
-      return { unit: r.unit, why: "unit written with the number" };
-    case "percent":
-      return { unit: "%", why: "percent text" };
-    case "default":
-      return { unit: r.unit, why: "left out, so the default" };
-    case "table":
-      return { unit: "", why: "units from the header row (base units without one)" };
-    default:
-      return { unit: "", why: r.how };
-  }
-}
-
-/** "81.56041424282913 m^3/h" → "81.5604 m^3/h" (the number as people read it, the unit as written). */
-function shortenQuantity(text: string): string {
-  const m = /^\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)(\s*.*)$/.exec(text);
-  return m ? `${formatNumber(Number(m[1]))}${m[2]}` : text;
-}
-
-function describeArg(r: ArgReading, written: string, baseUnit: string): ArgExplanation {
-  const { unit, why } = howWhy(r);
-  if (r.how === "table") {
-    const t = r.value as Table;
-    const cols = t.columns.map((c) => `${c.header ?? c.role} → ${c.role} in ${c.unit || DIMENSIONS[c.dim].baseLabel}`).join("; ");
-    return { name: r.name, written, value: `${t.rows} rows`, unit: "", why, base: cols };
-  }
-  const raw = r.raw === null || r.raw === undefined ? undefined : Array.isArray(r.raw) ? "(range)" : typeof r.raw === "number" ? formatNumber(r.raw) : shortenQuantity(String(r.raw));
-  if (typeof r.value !== "number") return { name: r.name, written, value: raw ?? String(r.value), unit, why, base: String(r.value) };
-  return { name: r.name, written, value: raw ?? formatNumber(r.value), unit, why, base: `${formatNumber(r.value)}${baseUnit ? ` ${baseUnit}` : ""}` };
-}
 
 /** Reads the formula's direct precedents from the host into a small workbook model. */
 async function snapshot(port: HostPort, sheet: string, address: string, formula: string): Promise<{ wb: WorkbookModel; labels: Map<string, string[]>; formats: Map<string, string | undefined> }> {
@@ -164,65 +102,15 @@ function labelSourceFrom(labels: Map<string, string[]>, formats: Map<string, str
   };
 }
 
-/** Pairs recorded calls with their places in the formula (both in evaluation order). */
-function pairCalls(records: CallRecord[], sites: CallSite[]): (CallSite | undefined)[] {
-  const nappe = sites.filter((s) => s.name.startsWith("NAPPE."));
-  const used = new Set<CallSite>();
-  return records.map((rec) => {
-    const site = nappe.find((s) => !used.has(s) && s.name === `NAPPE.${rec.id}`);
-    if (site) used.add(site);
-    return site;
-  });
-}
-
 function explainCall(rec: CallRecord, site: CallSite | undefined, formula: string, sheet: string, labels: LabelSource): CallExplanation {
+  const view = callView(rec, site, sheet, labels);
   const spec = CATALOG_BY_ID.get(rec.id)!;
-  const ev = rec.evaluation;
-  const args = spec.params.flatMap((p, i) => {
-    const written = site?.args[i]?.text ?? "";
-    const r = ev?.readings.find((x) => x.name === p.name);
-    if (!r) return written ? [{ name: p.name, written, value: "", unit: "", why: "", base: "" }] : [];
-    const dim = p.kind === "quantity" ? p.dim : p.kind === "anyQuantity" && ev ? resultDimension(spec, Object.fromEntries(ev.readings.map((x) => [x.name, x.value])) as never) : undefined;
-    return [describeArg(r, written, dim ? DIMENSIONS[dim].base || (dim === "efficiency" ? "(fraction)" : "") : "")];
+  const unitWarnings = view.unitFindings.map((f): UnitWarning => {
+    const arg = site?.args[spec.params.findIndex((p) => p.name === f.arg)];
+    const joined = arg && f.unit ? `${/^[A-Za-z0-9_$!'. ]+$/.test(arg.text) ? arg.text : `(${arg.text})`}&" ${f.unit}"` : undefined;
+    return { message: f.message, fixedFormula: arg && joined ? displayFormula(replaceArgument(formula, arg, joined)) : undefined, fixLabel: joined };
   });
-  const unitWarnings: UnitWarning[] = [];
-  if (ev) {
-    for (const f of checkCallUnits(spec, ev, rec.refs, sheet, labels)) {
-      const i = spec.params.findIndex((p) => p.name === f.arg);
-      const arg = site?.args[i];
-      const joined = arg && f.unit ? `${/^[A-Za-z0-9_$!'. ]+$/.test(arg.text) ? arg.text : `(${arg.text})`}&" ${f.unit}"` : undefined;
-      unitWarnings.push({ message: f.message, fixedFormula: arg && joined ? displayFormula(replaceArgument(formula, arg, joined)) : undefined, fixLabel: joined });
-    }
-  }
-  const requested = ev && ev.unit && typeof ev.value === "number" ? `${formatNumber(ev.value)} ${ev.unit}` : ev ? formatValue(ev.value) : undefined;
-  return {
-    id: rec.id,
-    text: site ? displayFormula(formula.slice(site.start, site.end)) : `NAPPE.${rec.id}(…)`,
-    purpose: spec.purpose,
-    equation: spec.equation,
-    args,
-    resultRequested: requested,
-    resultBase: ev && typeof ev.value === "number" ? baseResult(rec) : undefined,
-    assumptions: spec.assumptions,
-    checks: spec.validity,
-    warnings: ev?.warnings ?? [],
-    unitWarnings,
-    cautions: spec.cautions,
-    sources: spec.sources,
-    error: rec.error?.message,
-  };
-}
-
-/** The result in the result dimension's base unit (undoing any `unit` argument). */
-function baseResult(rec: CallRecord): string {
-  const ev = rec.evaluation!;
-  const base = DIMENSIONS[ev.dim].base;
-  if (ev.unit === base || !ev.unit) return `${formatNumber(ev.value as number)}${base ? ` ${base}` : ""}`;
-  const spec = CATALOG_BY_ID.get(rec.id)!;
-  const args: Record<string, unknown> = {};
-  for (const r of ev.readings) args[r.name] = r.value;
-  const value = spec.compute(args as never).value;
-  return typeof value === "number" ? `${formatNumber(value)} ${base}` : "";
+  return { ...view, text: site ? displayFormula(formula.slice(site.start, site.end)) : `NAPPE.${rec.id}(…)`, unitWarnings };
 }
 
 /**

@@ -4,7 +4,7 @@
  * it. Loads nothing but this page's own files and /workbook.json.
  */
 import { addressOf, type CellModel, cellKey, parseAddress, type WorkbookModel } from "../workbook/model";
-import { formatValue } from "../workbook/audit";
+import { formatValue } from "../workbook/format";
 import { MemoryHost } from "./host/memory";
 import { el, mountPane } from "./ui";
 import { workbookTab } from "./workbookTab";

@@ -11,9 +11,9 @@ import { drawChart } from "./chart";
 import { describeArguments, exampleFormula, searchCatalog, signature } from "./guide";
 import type { HostPort } from "./host/port";
 import { writeAction } from "./actions";
+import { GENERAL_CAUTIONS } from "../functions/catalog/_shared";
 
-const CAUTION_TEXT =
-  "A design aid for preliminary sizing. Confirm with the pump maker's certified curves, local codes and a licensed engineer. Pressurised systems, surge, cavitation and public water features can hurt people.";
+const CAUTION_TEXT = GENERAL_CAUTIONS.join(" ");
 
 type Child = Node | string;
 
@@ -75,7 +75,7 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
   }
   card.append(el("div", "table-wrap", table));
   if (call.error) card.append(el("p", "status error", call.error));
-  else card.append(el("p", "result", "Result: ", el("strong", "", call.resultRequested ?? ""), call.resultBase && call.resultBase !== call.resultRequested ? ` (${call.resultBase} in base units)` : ""));
+  else card.append(el("p", "result", "Result: ", el("strong", "", call.result ?? ""), call.resultBase && call.resultBase !== call.result ? ` (${call.resultBase} in base units)` : ""));
   for (const w of call.unitWarnings) {
     const box = el("div", "status warning unit-warning", el("p", "", `Unit check: ${w.message}`));
     if (w.fixedFormula) {

@@ -3,13 +3,13 @@
  * status and counts, yielding to the page between cells so long scans stay responsive; and the
  * audit sheet built from the same audit model as the headless report.
  */
-import { type AuditReport, auditRows, AUDIT_WIDTHS, buildAudit, GENERAL_CAUTIONS, NOTHING_FOUND } from "../workbook/audit";
+import { type AuditReport, AUDIT_WIDTHS, auditSheetRows, buildAudit } from "../workbook/audit";
 import type { CellOutcome, Status } from "../workbook/recalc";
 import type { LabelSource } from "../workbook/unitCheck";
 import { analyseCell } from "./explain";
 import type { HostPort } from "./host/port";
 
-export interface CheckRow {
+interface CheckRow {
   sheet: string;
   address: string;
   formula: string;
@@ -63,20 +63,6 @@ export function auditOf(check: WorkbookCheck, source: string): AuditReport {
   return buildAudit(check.outcomes, { title: "Nappe audit", source }, check.labels);
 }
 
-/** Rows of the audit sheet: title, summary, cautions, a blank row, then the audit table. */
-export function auditSheetRows(report: AuditReport): { rows: string[][]; headerRow: number } {
-  const table = auditRows(report);
-  const rows = [
-    [report.title],
-    [`Workbook: ${report.source} · ${report.generated} · ${report.entries.length} NAPPE formulas: ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`],
-    [GENERAL_CAUTIONS.join(" ")],
-    [report.entries.length ? "" : NOTHING_FOUND],
-    ...table,
-  ];
-  return { rows, headerRow: 4 };
-}
-
-export { AUDIT_WIDTHS };
 
 /** Writes (or replaces) the audit sheet through the port. */
 export async function writeAuditSheet(port: HostPort, check: WorkbookCheck, source: string): Promise<AuditReport> {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { evaluate } from "../functions/bind/evaluate";
-import { CATALOG } from "../functions/catalog";
+import { CATALOG, CATALOG_BY_ID } from "../functions/catalog";
 import * as bindings from "../functions/functions";
 import { bindingName } from "../scripts/generate";
 import ExcelJS from "exceljs";
@@ -8,7 +8,8 @@ import katex from "katex";
 import { exampleFormula } from "../functions/catalog/_formula";
 import { recalculate } from "../workbook/recalc";
 import { fromExcelJS } from "../headless/readXlsx";
-import { expectMatchesExample } from "./helpers";
+import { expectMatchesExample, relativeError } from "./helpers";
+import examplesReference from "./reference/examples_reference.json";
 
 describe("catalogue", () => {
   it("has unique ids in upper case", () => {
@@ -58,5 +59,20 @@ describe("each example as the formula the guide inserts, recalculated by the hea
     const result = recalculate(fromExcelJS(book));
     expect(result.cells[0].status, result.cells[0].messages.join("; ")).not.toBe("error");
     expectMatchesExample(result.valueOf("S", "A1"), spec.examples[0], spec.id);
+  });
+});
+
+describe("worked examples that cite a computation", () => {
+  // Each value here comes from test/reference/examples_reference.py (SciPy, Python, mpmath; versions in the JSON).
+  const computed = examplesReference.examples as Record<string, number | (number | string)[][]>;
+  const cites = /SciPy|Python|mpmath/;
+  it("are all backed by the reference generator", () => {
+    const citing = CATALOG.filter((s) => s.examples.some((ex) => cites.test(ex.source))).map((s) => s.id).sort();
+    expect(citing).toEqual(Object.keys(computed).sort());
+  });
+  it.each(Object.entries(computed))("NAPPE.%s's example expects the generator's value", (id, want) => {
+    const ex = CATALOG_BY_ID.get(id)!.examples.find((e) => cites.test(e.source))!;
+    if (typeof want === "number") expect(relativeError(ex.expect as number, want)).toBeLessThan(1e-12);
+    else expect(ex.expect).toEqual(want);
   });
 });

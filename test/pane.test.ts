@@ -6,7 +6,8 @@ import { fromExcelJS, readWorkbook } from "../headless/readXlsx";
 import { chartFor } from "../taskpane/chartData";
 import { analyseCell, explainCell } from "../taskpane/explain";
 import { MemoryHost } from "../taskpane/host/memory";
-import { AUDIT_SHEET, auditSheetRows, checkWorkbook, writeAuditSheet } from "../taskpane/workbookCheck";
+import { AUDIT_SHEET, auditOf, checkWorkbook, writeAuditSheet } from "../taskpane/workbookCheck";
+import { auditSheetRows } from "../workbook/audit";
 import { writeAction } from "../taskpane/actions";
 
 const root = join(__dirname, "..");
@@ -30,7 +31,7 @@ describe("cell explanation", () => {
     expect(e.calls[0].args.map((a) => a.written)).toEqual(["NAPPE.PRESSURE(NAPPE.HEAD(B1, 1000), 1000)", "", '"ft"']);
     expect(e.calls[2].args[0]).toMatchObject({ written: "B1", value: "2 bar", unit: "bar", base: "200000 Pa" });
     // 2 bar = 20.3943 m of water at 1000 kg/m³; the outer HEAD takes water at 20 °C (998.206 kg/m³): 20.431 m.
-    expect(e.calls[0].resultRequested).toBe("67.0308 ft");
+    expect(e.calls[0].result).toBe("67.0308 ft");
     expect(e.calls[0].resultBase).toBe("20.431 m");
     expect(e.calls[0].args.find((a) => a.name === "density")).toMatchObject({ written: "", why: "left out, so the default" });
   });
@@ -160,7 +161,7 @@ describe("workbook check and audit sheet", () => {
     const names = host.workbook.sheets.map((s) => s.name);
     expect(names.filter((n) => n === AUDIT_SHEET)).toHaveLength(1);
     expect(host.workbook.sheets.filter((s) => s.name !== AUDIT_SHEET).map((s) => [s.name, s.cells.size])).toEqual(before);
-    const { rows, headerRow } = auditSheetRows((await import("../taskpane/workbookCheck")).auditOf(check, "demo"));
+    const { rows, headerRow } = auditSheetRows(auditOf(check, "demo"));
     expect(rows[headerRow]).toEqual(["Cell", "Formula", "Status", "Result", "Function and purpose", "Inputs (as written → as read)", "Warnings, assumptions, sources, cautions"]);
     const audit = host.workbook.sheets.find((s) => s.name === AUDIT_SHEET)!;
     const text = [...audit.cells.values()].map((c) => String(c.value)).join("\n");

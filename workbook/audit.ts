@@ -1,44 +1,22 @@
 /**
  * The audit model: every NAPPE formula of a workbook with what a reviewer needs to follow it
- * without code (purpose, equation, inputs with units, result, assumptions, warnings, sources,
- * cautions). One model, several renderers: text, HTML and an .xlsx sheet here; the side pane's
- * audit sheet reuses it.
+ * without code. Each call is the one call-view model (callView.ts) the pane shows too; the
+ * renderers (text, HTML, the .xlsx audit sheet written headless and the one the pane writes)
+ * all read this model, and the audit sheet's layout is defined here once.
  */
-import { CATALOG_BY_ID } from "../functions/catalog";
-import type { ArgReading } from "../functions/bind/evaluate";
-import type { Table } from "../functions/tables/table";
-import { DIMENSIONS } from "../functions/units/dimensions";
+import { GENERAL_CAUTIONS } from "../functions/catalog/_shared";
+import { callView, type CallView, pairCalls } from "./callView";
+import { formatValue } from "./format";
+import { callSites, evaluationOrder } from "./formula";
 import type { CellOutcome, Status } from "./recalc";
-import { checkCallUnits, type LabelSource } from "./unitCheck";
-import type { CellValue } from "./model";
+import type { LabelSource } from "./unitCheck";
 
-/** Shown at the top of every audit. */
-export const GENERAL_CAUTIONS = [
-  "Nappe is a design aid for preliminary sizing. Confirm every selection with the pump maker's certified curves and data, local codes, and a licensed engineer.",
-  "Pressurised systems, surge, cavitation, motors and public water features can hurt people.",
-];
+export { GENERAL_CAUTIONS };
 
-interface AuditInput {
-  name: string;
-  /** What the formula passed: a reference ("B4"), or the literal value. */
-  written: string;
-  /** The value as read, with the unit it was read in. */
-  read: string;
-  /** Why that unit: base unit, text quantity, percent, default, table header… */
-  how: string;
-}
-
-interface AuditCall {
-  id: string;
-  purpose: string;
-  equation: string;
-  inputs: AuditInput[];
-  result: string;
-  assumptions: readonly string[];
-  warnings: string[];
-  sources: readonly string[];
-  cautions: readonly string[];
-  error?: string;
+/** One argument on one line: "flow: B11&" m^3/h" → 81.5604 m^3/h [unit written with the number]". */
+function argLine(a: CallView["args"][number]): string {
+  const read = a.value ? `${a.value}${a.unit && !a.value.endsWith(a.unit) ? ` ${a.unit}` : ""}` : "";
+  return `${a.name}: ${a.written || "(left out)"} → ${read}${a.why ? ` [${a.why}]` : ""}`;
 }
 
 interface AuditEntry {
@@ -48,7 +26,7 @@ interface AuditEntry {
   status: Status;
   result: string;
   messages: string[];
-  calls: AuditCall[];
+  calls: CallView[];
 }
 
 export interface AuditReport {
@@ -62,82 +40,31 @@ export interface AuditReport {
   entries: AuditEntry[];
 }
 
-/** A number as people read it: six significant figures, the shortest form JavaScript prints. */
-export function formatNumber(x: number): string {
-  if (!Number.isFinite(x)) return String(x);
-  return String(Number(x.toPrecision(6)));
-}
-
-export function formatValue(v: CellValue | CellValue[][]): string {
-  if (Array.isArray(v)) return v.map((row) => row.map((c) => (typeof c === "number" ? formatNumber(c) : String(c ?? ""))).join(" | ")).join("; ");
-  if (typeof v === "number") return formatNumber(v);
-  return v === null ? "" : String(v);
-}
-
-function describeTable(t: Table): string {
-  const cols = t.columns.map((c) => (c.header ? `"${c.header}"` : `${c.role} (${c.unit || DIMENSIONS[c.dim].baseLabel})`));
-  return `${t.rows} rows; columns ${cols.join(", ")}${t.hasHeader ? " (units from the header row)" : " (no header: positional, base units)"}`;
-}
-
-function describeReading(r: ArgReading): { read: string; how: string } {
-  if (r.how === "table") return { read: describeTable(r.value as Table), how: "table" };
-  if (typeof r.value !== "number") return { read: String(r.value), how: r.how };
-  const unit = r.unit && r.unit !== "%" ? ` ${r.unit}` : "";
-  if (r.how === "text quantity") return { read: `${String(r.raw)} = ${formatNumber(r.value)} (base unit)`, how: `text quantity in ${r.unit}` };
-  if (r.how === "percent") return { read: `${String(r.raw)} = ${formatNumber(r.value)}`, how: "percent" };
-  return { read: `${formatNumber(r.value)}${unit}`, how: r.how === "default" ? "default" : "bare number: base unit" };
-}
-
-function written(raw: unknown, ref: string | undefined): string {
-  if (ref) return ref;
-  if (raw === null || raw === undefined) return "(left out)";
-  if (typeof raw === "string") return `"${raw}"`;
-  if (Array.isArray(raw)) return "(array)";
-  return String(raw);
-}
-
 /** Builds the audit from recalculated cells. `labels` enables the unit check of referenced cells. */
 export function buildAudit(cells: readonly CellOutcome[], meta: { title: string; source: string; generated?: string; found?: string }, labels?: LabelSource): AuditReport {
   const counts: Record<Status, number> = { ok: 0, warning: 0, error: 0 };
   const entries = cells.map((cell): AuditEntry => {
     const messages = [...cell.messages];
     let status = cell.status;
-    const calls = cell.calls.map((call): AuditCall => {
-      const spec = CATALOG_BY_ID.get(call.id)!;
-      const ev = call.evaluation;
-      const inputs: AuditInput[] = ev
-        ? spec.params.flatMap((p, i) => {
-            const r = ev.readings.find((x) => x.name === p.name);
-            if (!r) return [];
-            const d = describeReading(r);
-            return [{ name: p.name, written: written(r.raw, call.refs[i]), ...d }];
-          })
-        : spec.params.map((p, i) => ({ name: p.name, written: call.refs[i] ?? "", read: "", how: "" }));
-      const warnings = [...(ev?.warnings ?? [])];
-      if (ev && labels) {
-        for (const f of checkCallUnits(spec, ev, call.refs, cell.sheet, labels)) {
-          warnings.push(`Unit check: ${f.message}`);
-          messages.push(`NAPPE.${call.id}: unit check: ${f.message}`);
-          if (status === "ok") status = "warning";
-        }
+    let sites: ReturnType<typeof callSites> = [];
+    try {
+      sites = evaluationOrder(callSites(cell.formula.replace(/^=/, "")));
+    } catch {
+      sites = [];
+    }
+    const pairs = pairCalls(cell.calls, sites);
+    const calls = cell.calls.map((call, i) => {
+      const view = callView(call, pairs[i], cell.sheet, labels);
+      for (const f of view.unitFindings) {
+        messages.push(`NAPPE.${call.id}: unit check: ${f.message}`);
+        if (status === "ok") status = "warning";
       }
-      return {
-        id: call.id,
-        purpose: spec.purpose,
-        equation: spec.equation,
-        inputs,
-        result: ev ? `${formatValue(ev.value)}${ev.unit ? ` ${ev.unit}` : ""}` : "",
-        assumptions: spec.assumptions,
-        warnings,
-        sources: spec.sources,
-        cautions: spec.cautions,
-        error: call.error?.message,
-      };
+      return view;
     });
     counts[status]++;
     return { sheet: cell.sheet, address: cell.address, formula: cell.formula, status, result: `${formatValue(cell.value)}${cell.unit ? ` ${cell.unit}` : ""}`, messages, calls };
   });
-  return { title: meta.title, source: meta.source, generated: meta.generated ?? new Date().toISOString(), found: meta.found, counts, cautions: GENERAL_CAUTIONS, entries };
+  return { title: meta.title, source: meta.source, generated: meta.generated ?? new Date().toISOString(), found: meta.found, counts, cautions: [...GENERAL_CAUTIONS], entries };
 }
 
 /**
@@ -152,7 +79,7 @@ export const AUDIT_WIDTHS = [16, 34, 9, 16, 30, 46, 58];
 /** Said at the top of an audit that found nothing to check. */
 export const NOTHING_FOUND = "No NAPPE formulas found in this workbook: nothing was checked.";
 
-export function auditRows(report: AuditReport): string[][] {
+function auditRows(report: AuditReport): string[][] {
   const rows: string[][] = [AUDIT_COLUMNS];
   for (const e of report.entries) {
     const calls = e.calls.length ? e.calls : [undefined];
@@ -160,6 +87,7 @@ export function auditRows(report: AuditReport): string[][] {
       const notes = [
         ...(c?.error ? [`Error: ${c.error}`] : []),
         ...(c?.warnings ?? []).map((w) => `Warning: ${w}`),
+        ...(c?.unitFindings ?? []).map((f) => `Warning: Unit check: ${f.message}`),
         ...(i === 0 && !c ? e.messages : []),
         ...(c?.assumptions ?? []).map((a) => `Assumes: ${a}`),
         ...(c?.sources ?? []).map((x) => `Source: ${x}`),
@@ -170,13 +98,28 @@ export function auditRows(report: AuditReport): string[][] {
         i === 0 ? e.formula : "",
         i === 0 ? e.status : "",
         i === 0 ? e.result : "",
-        c ? `NAPPE.${c.id}: ${c.purpose}` : "",
-        c ? c.inputs.map((x) => `${x.name}: ${x.written} → ${x.read}${x.how ? ` [${x.how}]` : ""}`).join("\n") : "",
+        c ? `NAPPE.${c.id}: ${c.purpose}${c.result && e.calls.length > 1 ? ` = ${c.result}` : ""}` : "",
+        c ? c.args.map(argLine).join("\n") : "",
         notes.join("\n"),
       ]);
     });
   }
   return rows;
+}
+
+/**
+ * The audit sheet, headless or written by the pane: title, what was found, the cautions, a
+ * line that says when nothing was found, then the table (its header at `headerRow`, 0-based).
+ */
+export function auditSheetRows(report: AuditReport): { rows: string[][]; headerRow: number } {
+  const rows = [
+    [report.title],
+    [`Workbook: ${report.source} · generated ${report.generated} · ${report.found ?? `${report.entries.length} NAPPE formulas`} · ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`],
+    [report.cautions.join(" ")],
+    [report.entries.length ? "" : NOTHING_FOUND],
+    ...auditRows(report),
+  ];
+  return { rows, headerRow: 4 };
 }
 
 /** Lines a text takes in a wrapped cell of the given width (characters), for row heights. */

@@ -17,7 +17,7 @@ export interface LabelSource {
   numberFormat(sheet: string, row: number, col: number): string | undefined;
 }
 
-interface UnitFinding {
+export interface UnitFinding {
   /** The argument's name. */
   arg: string;
   /** "Sheet!B7" or "B7". */

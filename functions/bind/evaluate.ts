@@ -25,7 +25,10 @@ export interface ArgReading {
 }
 
 export interface Evaluation {
+  /** The result in `unit`. */
   value: number | Cell[][];
+  /** The result in the base unit of its dimension, before any `unit` argument converts it. */
+  base: number | Cell[][];
   /** Result dimension and the unit the value is expressed in. */
   dim: Dimension;
   unit: string;
@@ -183,7 +186,7 @@ export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evalua
   if (spec.result.spill || typeof result.value !== "number") {
     if (typeof result.value === "number") throw new Error(`${spec.id} is declared as spilling but returned a number`);
     for (const row of result.value) for (const cell of row) if (typeof cell === "number" && !Number.isFinite(cell)) throw new CalcError("result", "is not a finite number for these inputs", "num");
-    return { value: result.value, dim, unit: "", warnings: result.warnings, readings };
+    return { value: result.value, base: result.value, dim, unit: "", warnings: result.warnings, readings };
   }
   let value = result.value;
   let unit: string = DIMENSIONS[dim].base;
@@ -196,5 +199,5 @@ export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evalua
     unit = outUnit;
   }
   if (!Number.isFinite(value)) throw new CalcError("result", "is not a finite number for these inputs", "num");
-  return { value, dim, unit, warnings: result.warnings, readings };
+  return { value, base: result.value, dim, unit, warnings: result.warnings, readings };
 }

@@ -39,9 +39,12 @@ export const kinematicViscosityParam = {
 export const flowParam = { name: "flow", kind: "quantity", dim: "flow", description: "Volume flow rate." } as const satisfies QuantityParam;
 export const diameterParam = { name: "diameter", kind: "quantity", dim: "length", description: "Pipe inside diameter.", plausible: [1e-4, 10] } as const satisfies QuantityParam;
 
-/** Shown with every result that sizes a pump or a pipe. */
+/** Shown with every result that sizes a pump or a pipe, and first of the general cautions. */
 export const DESIGN_AID =
   "A design aid for preliminary sizing: confirm with the pump maker's certified data, local codes and a licensed engineer.";
+
+/** The cautions every view keeps in sight (pane footer, audits, reports, the demo): written once, here. */
+export const GENERAL_CAUTIONS = [DESIGN_AID, "Pressurised systems, surge, cavitation, motors and public water features can hurt people."] as const;
 export const PRESSURE_CAUTION =
   "Pressurised piping can fail violently; test pressures, relief and surge protection follow local codes and the pipe maker's ratings.";
 export const CAVITATION_CAUTION =

@@ -1,0 +1,130 @@
+/**
+ * The one model of an explained NAPPE call. The pane's cell view, the audit entries, the HTML
+ * report, the text table and both audit sheets are all built from it: each argument as written,
+ * as read (value, unit and why) and in base units; the result in the unit asked for and in base
+ * units (carried by the evaluation, never recomputed); assumptions, checks, warnings, the unit
+ * check's findings, cautions and sources.
+ */
+import type { ArgReading } from "../functions/bind/evaluate";
+import { CATALOG_BY_ID } from "../functions/catalog";
+import { resultDimension } from "../functions/catalog/types";
+import type { Table } from "../functions/tables/table";
+import { DIMENSIONS } from "../functions/units/dimensions";
+import { formatNumber, formatQuantity, formatValue, shortenQuantityText } from "./format";
+import type { CallSite } from "./formula";
+import type { CallRecord } from "./recalc";
+import { checkCallUnits, type LabelSource, type UnitFinding } from "./unitCheck";
+
+interface ArgView {
+  name: string;
+  /** As written in the formula ("Inputs!B14", "\"6 in\"", B11&" m^3/h"), or "" when left out. */
+  written: string;
+  /** The value as read, for people ("2 bar", "0.78", "6 rows"). */
+  value: string;
+  /** The unit it was read in. */
+  unit: string;
+  /** Why that unit: bare number (base unit), text quantity, percent, table header, default. */
+  why: string;
+  /** The base-unit value with its unit, or a table's columns and their units. */
+  base: string;
+}
+
+export interface CallView {
+  id: string;
+  purpose: string;
+  equation: string;
+  args: ArgView[];
+  /** The result in the unit the formula asks for (its `unit` argument, else the base unit). */
+  result?: string;
+  /** The result in the base unit of its dimension. */
+  resultBase?: string;
+  assumptions: readonly string[];
+  checks: readonly string[];
+  warnings: readonly string[];
+  /** Bare numbers read from cells labelled in another unit, and implausible magnitudes. */
+  unitFindings: UnitFinding[];
+  cautions: readonly string[];
+  sources: readonly string[];
+  error?: string;
+}
+
+function howWhy(r: ArgReading): { unit: string; why: string } {
+  switch (r.how) {
+    case "base unit":
+      return { unit: r.unit, why: "bare number, so the base unit" };
+    case "text quantity":
+      return { unit: r.unit, why: "unit written with the number" };
+    case "percent":
+      return { unit: "%", why: "percent text" };
+    case "default":
+      return { unit: r.unit, why: "left out, so the default" };
+    case "table":
+      return { unit: "", why: "units from the header row (base units without one)" };
+    default:
+      return { unit: "", why: r.how };
+  }
+}
+
+function describeArg(r: ArgReading, written: string, baseUnit: string): ArgView {
+  const { unit, why } = howWhy(r);
+  if (r.how === "table") {
+    const t = r.value as Table;
+    const cols = t.columns.map((c) => `${c.header ?? c.role} → ${c.role} in ${c.unit || DIMENSIONS[c.dim].baseLabel}`).join("; ");
+    return { name: r.name, written, value: `${t.rows} rows`, unit: "", why, base: cols };
+  }
+  const raw = r.raw === null || r.raw === undefined ? undefined : Array.isArray(r.raw) ? "(range)" : typeof r.raw === "number" ? formatNumber(r.raw) : shortenQuantityText(String(r.raw));
+  if (typeof r.value !== "number") return { name: r.name, written, value: raw ?? String(r.value), unit, why, base: String(r.value) };
+  return { name: r.name, written, value: raw ?? formatNumber(r.value), unit, why, base: formatQuantity(r.value, baseUnit) };
+}
+
+/** As written when the formula's text is not at hand: the reference, or the literal passed. */
+function writtenFrom(raw: unknown, ref: string | undefined): string {
+  if (ref) return ref;
+  if (raw === null || raw === undefined) return "";
+  if (typeof raw === "string") return `"${raw}"`;
+  if (Array.isArray(raw)) return "(array)";
+  return String(raw);
+}
+
+/**
+ * The view of one recorded call. `site` (the call's place in the formula) gives each argument
+ * as written; `sheet` and `labels` let the unit check read labels and number formats.
+ */
+export function callView(rec: CallRecord, site: CallSite | undefined, sheet: string, labels?: LabelSource): CallView {
+  const spec = CATALOG_BY_ID.get(rec.id)!;
+  const ev = rec.evaluation;
+  const args = spec.params.flatMap((p, i) => {
+    const r = ev?.readings.find((x) => x.name === p.name);
+    const written = site?.args[i]?.text ?? writtenFrom(r?.raw, rec.refs[i]);
+    if (!r) return written ? [{ name: p.name, written, value: "", unit: "", why: "", base: "" }] : [];
+    const dim = p.kind === "quantity" ? p.dim : p.kind === "anyQuantity" && ev ? resultDimension(spec, Object.fromEntries(ev.readings.map((x) => [x.name, x.value]))) : undefined;
+    return [describeArg(r, written, dim ? DIMENSIONS[dim].base || (dim === "efficiency" ? "(fraction)" : "") : "")];
+  });
+  const numeric = ev && typeof ev.value === "number" && typeof ev.base === "number";
+  return {
+    id: rec.id,
+    purpose: spec.purpose,
+    equation: spec.equation,
+    args,
+    result: ev ? (typeof ev.value === "number" ? formatQuantity(ev.value, ev.unit) : formatValue(ev.value)) : undefined,
+    resultBase: numeric ? formatQuantity(ev.base as number, DIMENSIONS[ev.dim].base) : undefined,
+    assumptions: spec.assumptions,
+    checks: spec.validity,
+    warnings: ev?.warnings ?? [],
+    unitFindings: ev && labels ? checkCallUnits(spec, ev, rec.refs, sheet, labels) : [],
+    cautions: spec.cautions,
+    sources: spec.sources,
+    error: rec.error?.message,
+  };
+}
+
+/** Pairs recorded calls with their places in the formula (both in evaluation order). */
+export function pairCalls(records: readonly CallRecord[], sites: readonly CallSite[]): (CallSite | undefined)[] {
+  const nappe = sites.filter((s) => s.name.startsWith("NAPPE."));
+  const used = new Set<CallSite>();
+  return records.map((rec) => {
+    const site = nappe.find((s) => !used.has(s) && s.name === `NAPPE.${rec.id}`);
+    if (site) used.add(site);
+    return site;
+  });
+}
