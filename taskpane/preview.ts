@@ -8,7 +8,7 @@ import { formatValue } from "../workbook/format";
 import { MemoryHost } from "./host/memory";
 import { el, mountPane } from "./ui";
 import { workbookTab } from "./workbookTab";
-import { hasNappeCall } from "../workbook/storedForm";
+import { displayFormula, hasNappeCall } from "../workbook/storedForm";
 
 interface WorkbookJson {
   name: string;
@@ -87,7 +87,7 @@ function showSelection(host: MemoryHost, target: HTMLElement, formulaBar: HTMLEl
     td?.focus({ preventScroll: false });
     const { row, col } = parseAddress(sel.address);
     const cell = host.workbook.sheets.find((s) => s.name === sel.sheet)?.cells.get(cellKey(row, col));
-    formulaBar.textContent = cell?.formula ? `${sel.sheet}!${sel.address}  =${cell.formula}` : `${sel.sheet}!${sel.address}  ${cell ? formatValue(cell.value) : ""}`;
+    formulaBar.textContent = cell?.formula ? `${sel.sheet}!${sel.address}  =${displayFormula(cell.formula)}` : `${sel.sheet}!${sel.address}  ${cell ? formatValue(cell.value) : ""}`;
   });
 }
 

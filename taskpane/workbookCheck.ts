@@ -6,6 +6,7 @@
 import { type AuditReport, AUDIT_WIDTHS, auditSheetRows, buildAudit } from "../workbook/audit";
 import type { CellOutcome, Status } from "../workbook/recalc";
 import type { LabelSource } from "../workbook/unitCheck";
+import { displayFormula } from "../workbook/storedForm";
 import { analyseCell } from "./explain";
 import type { HostPort } from "./host/port";
 
@@ -48,7 +49,7 @@ export async function checkWorkbook(port: HostPort, onProgress?: (done: number, 
     let status: Status = analysis.outcome?.status ?? "error";
     if (status === "ok" && unitWarnings.length) status = "warning";
     const note = [...unitWarnings, ...(analysis.outcome?.messages ?? [analysis.explanation.error ?? ""])][0] ?? "";
-    rows.push({ sheet: c.sheet, address: c.address, formula: `=${c.formula}`, status, note });
+    rows.push({ sheet: c.sheet, address: c.address, formula: `=${displayFormula(c.formula)}`, status, note });
     counts[status]++;
     if (analysis.outcome) outcomes.push(analysis.outcome);
     labels.push(analysis.labels);

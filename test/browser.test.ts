@@ -97,6 +97,8 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
 
   it("explains a NAPPE cell: equation, arguments with their units, result", async () => {
     await selectCell(page, "Calc", "B9");
+    // The file stores _xldudf_NAPPE_HEAD(...); people read the dotted form.
+    await containsText(page.locator("#formula-bar"), "=NAPPE.HEAD(Inputs!B10, B5, \"m\")");
     const card = page.locator(".call").first();
     await hasExactText(card.locator("h3"), "NAPPE.HEAD");
     expect(await card.locator(".equation math").count()).toBe(1);

@@ -149,7 +149,7 @@ describe("workbook check and audit sheet", () => {
     expect(check.rows.length).toBe(30);
     expect(check.counts.ok + check.counts.warning + check.counts.error).toBe(30);
     expect(check.counts.error).toBe(0);
-    expect(check.rows.find((r) => r.address === "B21")).toMatchObject({ status: "warning" });
+    expect(check.rows.find((r) => r.address === "B21")).toMatchObject({ status: "warning", formula: '=NAPPE.HEADLOSS(B11&" m^3/h", B16, Inputs!B14, B18, B6)' });
     expect(progress[progress.length - 1]).toBe(30);
   });
   it("writes the audit sheet from the same audit model, replacing only that sheet", async () => {
