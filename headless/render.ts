@@ -79,6 +79,7 @@ ${equation(c.equation)}
 <table><tr><th>argument</th><th>as written</th><th>as read</th><th>how</th><th>in base units</th></tr>
 ${c.args.map((a) => `<tr><td>${escapeHtml(a.name)}</td><td><code>${escapeHtml(a.written || "(left out)")}</code></td><td>${escapeHtml(a.value)}${a.unit && !a.value.endsWith(a.unit) ? ` ${escapeHtml(a.unit)}` : ""}</td><td>${escapeHtml(a.why)}</td><td>${escapeHtml(a.base)}</td></tr>`).join("\n")}
 </table>
+${c.steps.length ? `<table class="steps"><tr><th colspan="3">intermediate values</th></tr>${c.steps.map((s) => `<tr><td><strong>${escapeHtml(s.symbol)}</strong> = ${escapeHtml(s.value)}</td><td>${escapeHtml(s.name)}</td><td>${escapeHtml(s.how)}</td></tr>`).join("")}</table>` : ""}
 <p><strong>Result:</strong> ${escapeHtml(c.result ?? "(error)")}${c.resultBase && c.resultBase !== c.result ? ` (${escapeHtml(c.resultBase)} in base units)` : ""}</p>
 ${c.error ? `<p class="status error">${escapeHtml(c.error)}</p>` : ""}
 ${list("Warnings", [...c.warnings, ...c.unitFindings.map((f) => `Unit check: ${f.message}`)])}${list("Assumptions", c.assumptions)}${list("Cautions", c.cautions)}${list("Sources", c.sources)}

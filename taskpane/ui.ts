@@ -74,6 +74,12 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
     );
   }
   card.append(el("div", "table-wrap", table));
+  if (call.steps.length) {
+    const steps = el("table", "steps");
+    steps.append(el("tr", "", el("th", "", "intermediate value"), el("th", "", "what and how")));
+    for (const s of call.steps) steps.append(el("tr", "", el("td", "", el("strong", "", s.symbol), ` = ${s.value}`), el("td", "", el("span", "", s.name), el("br"), el("span", "why", s.how))));
+    card.append(el("div", "table-wrap", steps));
+  }
   if (call.error) card.append(el("p", "status error", call.error));
   else card.append(el("p", "result", "Result: ", el("strong", "", call.result ?? ""), call.resultBase && call.resultBase !== call.result ? ` (${call.resultBase} in base units)` : ""));
   for (const w of call.unitWarnings) {

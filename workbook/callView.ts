@@ -9,7 +9,9 @@ import type { ArgReading } from "../functions/bind/evaluate";
 import { CATALOG_BY_ID } from "../functions/catalog";
 import { resultDimension } from "../functions/catalog/types";
 import type { Table } from "../functions/tables/table";
-import { DIMENSIONS } from "../functions/units/dimensions";
+import type { Step } from "../functions/calc/_lib/result";
+import { type Dimension, DIMENSIONS } from "../functions/units/dimensions";
+import { fromBase } from "../functions/units/quantity";
 import { formatNumber, formatQuantity, formatValue, shortenQuantityText } from "./format";
 import type { CallSite } from "./formula";
 import type { CallRecord } from "./recalc";
@@ -29,11 +31,22 @@ interface ArgView {
   base: string;
 }
 
+/** An intermediate value as a hand calculation writes it: "Re = 1.2e5 (Reynolds number; Re = VD/ν)". */
+interface StepView {
+  symbol: string;
+  name: string;
+  /** The value with its unit, in US customary units when the call's flow or a length was given in them, else SI. */
+  value: string;
+  how: string;
+}
+
 export interface CallView {
   id: string;
   purpose: string;
   equation: string;
   args: ArgView[];
+  /** The calculation's intermediate values, in the order it finds them. */
+  steps: StepView[];
   /** The result in the unit the formula asks for (its `unit` argument, else the base unit). */
   result?: string;
   /** The result in the base unit of its dimension. */
@@ -77,6 +90,25 @@ function describeArg(r: ArgReading, written: string, baseUnit: string): ArgView 
   return { name: r.name, written, value: raw ?? formatNumber(r.value), unit, why, base: formatQuantity(r.value, baseUnit) };
 }
 
+/** The units intermediate values are shown in when a call's inputs are in US customary units. */
+const US_UNITS: Partial<Record<Dimension, string>> = { length: "ft", flow: "gpm", velocity: "ft/s", pressure: "psi", power: "hp", kinematicViscosity: "ft^2/s", density: "lb/ft^3" };
+const US_UNIT_TEXT = /^(gpm|gal\/min|MGD|cfs|cfm|ft|feet|foot|in|inch|inches|yd|mi|mile|ftH2O|inH2O|psi|psia|ft\/s|ft\^3\/s|hp)$/i;
+
+/** True when the call's flow or a length (or a table column of them) was given in US customary units. */
+function usesUsUnits(ev: NonNullable<CallRecord["evaluation"]>): boolean {
+  return ev.readings.some((r) => {
+    if (r.how === "text quantity") return US_UNIT_TEXT.test(r.unit.trim());
+    if (r.how === "table") return (r.value as Table).columns.some((c) => (c.dim === "flow" || c.dim === "length") && US_UNIT_TEXT.test(c.unit.trim()));
+    return false;
+  });
+}
+
+function stepView(s: Step, us: boolean): StepView {
+  const unit = us && US_UNITS[s.dim] ? US_UNITS[s.dim]! : DIMENSIONS[s.dim].base;
+  const value = unit === DIMENSIONS[s.dim].base ? s.value : fromBase(s.symbol, s.value, s.dim, unit);
+  return { symbol: s.symbol, name: s.name, value: formatQuantity(value, unit), how: s.how };
+}
+
 /** As written when the formula's text is not at hand: the reference, or the literal passed. */
 function writtenFrom(raw: unknown, ref: string | undefined): string {
   if (ref) return ref;
@@ -106,6 +138,7 @@ export function callView(rec: CallRecord, site: CallSite | undefined, sheet: str
     purpose: spec.purpose,
     equation: spec.equation,
     args,
+    steps: ev ? ev.steps.map((s) => stepView(s, usesUsUnits(ev))) : [],
     result: ev ? (typeof ev.value === "number" ? formatQuantity(ev.value, ev.unit) : formatValue(ev.value)) : undefined,
     resultBase: numeric ? formatQuantity(ev.base as number, DIMENSIONS[ev.dim].base) : undefined,
     assumptions: spec.assumptions,

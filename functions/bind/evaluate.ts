@@ -3,7 +3,7 @@
  * (or a choice, or a unit name), calls the calc core, and converts the result to the requested
  * unit. Pure: no Office, no DOM. The worksheet binding and the pane both use it.
  */
-import { CalcError } from "../calc/_lib/result";
+import { CalcError, type Step } from "../calc/_lib/result";
 import type { Args, Cell, FunctionSpec, ParamSpec } from "../catalog/types";
 import { resultDimension } from "../catalog/types";
 import { type Dimension, DIMENSIONS, hasUnit } from "../units/dimensions";
@@ -34,6 +34,8 @@ export interface Evaluation {
   unit: string;
   warnings: string[];
   readings: ArgReading[];
+  /** The calculation's intermediate values, in base units. */
+  steps: Step[];
 }
 
 const MAX_TEXT = 200;
@@ -186,7 +188,7 @@ export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evalua
   if (spec.result.spill || typeof result.value !== "number") {
     if (typeof result.value === "number") throw new Error(`${spec.id} is declared as spilling but returned a number`);
     for (const row of result.value) for (const cell of row) if (typeof cell === "number" && !Number.isFinite(cell)) throw new CalcError("result", "is not a finite number for these inputs", "num");
-    return { value: result.value, base: result.value, dim, unit: "", warnings: result.warnings, readings };
+    return { value: result.value, base: result.value, dim, unit: "", warnings: result.warnings, readings, steps: result.steps ?? [] };
   }
   let value = result.value;
   let unit: string = DIMENSIONS[dim].base;
@@ -199,5 +201,5 @@ export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evalua
     unit = outUnit;
   }
   if (!Number.isFinite(value)) throw new CalcError("result", "is not a finite number for these inputs", "num");
-  return { value, base: result.value, dim, unit, warnings: result.warnings, readings };
+  return { value, base: result.value, dim, unit, warnings: result.warnings, readings, steps: result.steps ?? [] };
 }

@@ -1,5 +1,5 @@
 /** Affinity laws for a centrifugal pump: flow ∝ r, head and NPSHr ∝ r², power ∝ r³. */
-import { CalcError, type CalcResult, ok, requireFinite } from "./_lib/result";
+import { CalcError, type CalcResult, ok, requireFinite, step } from "./_lib/result";
 import { allRoots } from "./_lib/solve";
 
 export const AFFINITY_KINDS = ["flow", "head", "npshr", "power"] as const;
@@ -44,13 +44,18 @@ export function affinityRatioThrough(head: { min: number; max: number; at(q: num
     throw new CalcError("head", `no speed or diameter ratio moves this curve through ${flow.toPrecision(4)} m³/s at ${dutyHead.toPrecision(4)} m while staying on the curve's flow range`);
   }
   const r = roots.reduce((best, x) => (Math.abs(Math.log(x)) < Math.abs(Math.log(best)) ? x : best));
-  return ok(r);
+  return ok(r, [], [
+    step("r", "speed or diameter ratio", r, "ratio", "r²·Hc(Q/r) = H solved by Brent's method"),
+    step("Q/r", "flow on the given curve that maps to the duty", flow / r, "flow", "affinity: flow ∝ r"),
+    step("Hc(Q/r)", "head of the given curve there", head.at(flow / r), "length", "PCHIP through the curve's points"),
+  ]);
 }
 
 /** Trim diameter for a duty point: D2 = r·D1. Deeper trims than common practice trusts warn. */
 export function trimDiameter(head: { min: number; max: number; at(q: number): number }, diameter: number, flow: number, dutyHead: number): CalcResult {
   if (!(diameter > 0 && Number.isFinite(diameter))) throw new CalcError("diameter", `expected the curve's impeller diameter, greater than zero; got ${diameter}`);
-  const r = affinityRatioThrough(head, flow, dutyHead).value;
+  const ratio = affinityRatioThrough(head, flow, dutyHead);
+  const r = ratio.value;
   if (r > 1 + 1e-12) {
     throw new CalcError("head", `the duty needs an impeller ${((r - 1) * 100).toFixed(1)} % larger than the curve's ${diameter} m: a trim cannot add diameter; choose a larger impeller or speed`);
   }
@@ -60,14 +65,15 @@ export function trimDiameter(head: { min: number; max: number; at(q: number): nu
   } else if (r < 0.9) {
     warnings.push(`Trim of ${((1 - r) * 100).toFixed(1)} %: beyond about 10 % the affinity laws overstate head and flow (common practice); trim in steps or use the maker's trimmed curves.`);
   }
-  return ok(r * diameter, warnings);
+  return ok(r * diameter, warnings, ratio.steps);
 }
 
 /** Speed for a duty point: N2 = r·N1. */
 export function speedForDuty(head: { min: number; max: number; at(q: number): number }, speed: number, flow: number, dutyHead: number): CalcResult {
   if (!(speed > 0 && Number.isFinite(speed))) throw new CalcError("speed", `expected the curve's speed, greater than zero; got ${speed}`);
-  const r = affinityRatioThrough(head, flow, dutyHead).value;
+  const ratio = affinityRatioThrough(head, flow, dutyHead);
+  const r = ratio.value;
   const warnings = affinityScale(1, "flow", r).warnings;
   if (r > 1) warnings.push(`Speed ${(r * 100).toFixed(1)} % of the curve's: confirm the maker's maximum speed and the motor power, which rises as the cube of speed.`);
-  return ok(r * speed, warnings);
+  return ok(r * speed, warnings, ratio.steps);
 }

@@ -6,7 +6,7 @@
  * - Churchill (1977): one equation over laminar, transitional and turbulent flow.
  * - Laminar flow (Re < 2000): f = 64/Re (Hagen–Poiseuille) for every method but Churchill's.
  */
-import { CalcError, type CalcResult, ok, requireNonNegative, requirePositive } from "./_lib/result";
+import { CalcError, type CalcResult, ok, requireNonNegative, requirePositive, step } from "./_lib/result";
 
 export const FRICTION_METHODS = ["colebrook", "swamee-jain", "haaland", "churchill"] as const;
 type FrictionMethod = (typeof FRICTION_METHODS)[number];
@@ -74,7 +74,7 @@ export function frictionFactor(re: number, relativeRoughness: number, method: Fr
     warnings.push(`Relative roughness ${relativeRoughness} is beyond the Moody chart (ε/D ≤ 0.05); the friction factor is an extrapolation.`);
   }
   if (method !== "churchill" && re < LAMINAR_LIMIT) {
-    return ok(64 / re, warnings);
+    return ok(64 / re, warnings, [step("regime", "laminar (Re below 2000)", re, "ratio", "f = 64/Re (Hagen–Poiseuille)")]);
   }
   if (re < TURBULENT_LIMIT) {
     warnings.push(`Re = ${re.toPrecision(4)} is transitional (2000 to 4000): the flow may be laminar or turbulent and the friction factor is uncertain.`);
@@ -85,5 +85,7 @@ export function frictionFactor(re: number, relativeRoughness: number, method: Fr
   if (method === "haaland" && !(re >= 4000 && re <= 1e8)) {
     warnings.push("Outside the Haaland range (4000 ≤ Re ≤ 1e8); its error against Colebrook may exceed 1.5 %.");
   }
-  return ok(EXPLICIT[method](re, relativeRoughness), warnings);
+  const f = EXPLICIT[method](re, relativeRoughness);
+  const how = method === "colebrook" ? "Colebrook, 1/√f = −2 log₁₀(ε/3.7D + 2.51/(Re√f)), solved to double precision" : `${method === "swamee-jain" ? "Swamee–Jain" : method === "haaland" ? "Haaland" : "Churchill (1977)"} explicit formula`;
+  return ok(f, warnings, [step("Re", "Reynolds number", re, "ratio", "as given"), step("ε/D", "relative roughness", relativeRoughness, "ratio", "as given"), step("f", "Darcy friction factor", f, "ratio", how)]);
 }

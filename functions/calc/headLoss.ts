@@ -1,5 +1,5 @@
 /** Head losses in full pipes: Darcy–Weisbach, Hazen–Williams and loss coefficients. */
-import { CalcError, type CalcResult, ok, requireNonNegative, requirePositive } from "./_lib/result";
+import { CalcError, type CalcResult, ok, requireNonNegative, requirePositive, step } from "./_lib/result";
 import { STANDARD_GRAVITY } from "./_lib/constants";
 import { frictionFactor } from "./friction";
 import { meanVelocity, reynoldsNumber } from "./pipeFlow";
@@ -22,7 +22,14 @@ export function darcyHeadLoss(flow: number, diameter: number, length: number, ro
   const f = frictionFactor(re, roughness / diameter, "colebrook");
   const warnings = [...f.warnings];
   if (v > 3) warnings.push(`Velocity ${v.toFixed(2)} m/s is above the 3 m/s many designers use as a limit for water mains (common practice).`);
-  return ok(((f.value * length) / diameter) * velocityHead(v), warnings);
+  const steps = [
+    step("V", "mean velocity", v, "velocity", "continuity, V = 4Q/(πD²)"),
+    step("Re", "Reynolds number", re, "ratio", "Re = VD/ν"),
+    step("ε/D", "relative roughness", roughness / diameter, "ratio", "roughness over inside diameter"),
+    step("f", "Darcy friction factor", f.value, "ratio", re < 2000 ? "64/Re (laminar)" : "Colebrook, solved to double precision"),
+    step("V²/2g", "velocity head", velocityHead(v), "length", "g = 9.80665 m/s²"),
+  ];
+  return ok(((f.value * length) / diameter) * velocityHead(v), warnings, steps);
 }
 
 /** Hazen–Williams major loss, m, SI form: h = 10.67·L·Q^1.852/(C^1.852·D^4.8704). */
@@ -35,12 +42,12 @@ export function hazenWilliamsHeadLoss(flow: number, diameter: number, length: nu
   if (diameter < 0.05) warnings.push("Hazen–Williams is meant for pipes of about 50 mm and larger.");
   if (v > 3) warnings.push(`Velocity ${v.toFixed(2)} m/s is above about 3 m/s, where Hazen–Williams loses accuracy.`);
   const h = (10.67 * length * Math.pow(flow, 1.852)) / (Math.pow(cFactor, 1.852) * Math.pow(diameter, 4.8704));
-  return ok(h, warnings);
+  return ok(h, warnings, [step("V", "mean velocity", v, "velocity", "continuity, V = 4Q/(πD²)"), step("S", "hydraulic gradient, m per m of pipe", length > 0 ? h / length : 0, "ratio", "h/L")]);
 }
 
 /** Minor (local) loss, m: h = ΣK·V²/2g. */
 export function minorHeadLoss(flow: number, diameter: number, kTotal: number): CalcResult {
   requireNonNegative("k_total", kTotal, "a sum of loss coefficients of zero or more");
   const v = meanVelocity(flow, diameter).value;
-  return ok(kTotal * velocityHead(v));
+  return ok(kTotal * velocityHead(v), [], [step("V", "mean velocity", v, "velocity", "continuity, V = 4Q/(πD²)"), step("V²/2g", "velocity head", velocityHead(v), "length", "g = 9.80665 m/s²")]);
 }

@@ -1,5 +1,5 @@
 /** Free jets and nozzles: Torricelli velocity, projectile rise and throw (drag neglected), nozzle flow. */
-import { CalcError, type CalcResult, ok, requireFinite, requireNonNegative, requirePositive } from "./_lib/result";
+import { CalcError, type CalcResult, ok, requireFinite, requireNonNegative, requirePositive, step } from "./_lib/result";
 import { STANDARD_GRAVITY as g } from "./_lib/constants";
 import { pipeArea } from "./pipeFlow";
 
@@ -17,7 +17,7 @@ function requireAngle(angle: number): void {
 export function jetVelocity(head: number, velocityCoefficient: number): CalcResult {
   requireNonNegative("height", head, "a head of zero or more");
   requireCoefficient("velocity_coefficient", velocityCoefficient);
-  return ok(velocityCoefficient * Math.sqrt(2 * g * head));
+  return ok(velocityCoefficient * Math.sqrt(2 * g * head), [], [step("√(2gh)", "ideal (Torricelli) velocity", Math.sqrt(2 * g * head), "velocity", "g = 9.80665 m/s²")]);
 }
 
 /** Rise of a jet above the nozzle, m: (v·sinθ)²/2g with air drag neglected. */
@@ -25,7 +25,7 @@ export function jetHeight(velocity: number, angleDeg: number): CalcResult {
   requireNonNegative("velocity", velocity, "a jet velocity of zero or more");
   requireAngle(angleDeg);
   const vy = velocity * Math.sin((angleDeg * Math.PI) / 180);
-  return ok((vy * vy) / (2 * g), [DRAG_WARNING]);
+  return ok((vy * vy) / (2 * g), [DRAG_WARNING], [step("v·sinθ", "vertical velocity at the nozzle", vy, "velocity", "component along the vertical")]);
 }
 
 /**
@@ -44,7 +44,11 @@ export function jetReach(velocity: number, angleDeg: number, drop: number): Calc
     throw new CalcError("drop", `the jet rises only ${((vy * vy) / (2 * g)).toPrecision(4)} m, so it cannot land ${-drop} m above the nozzle`);
   }
   const t = (vy + Math.sqrt(disc)) / g;
-  return ok(vx * t, [DRAG_WARNING]);
+  return ok(vx * t, [DRAG_WARNING], [
+    step("v·cosθ", "horizontal velocity", vx, "velocity", "component along the horizontal"),
+    step("v·sinθ", "vertical velocity at the nozzle", vy, "velocity", "component along the vertical"),
+    step("t", "time of flight, s", t, "ratio", "later root of Δz + v·sinθ·t − g·t²/2 = 0"),
+  ]);
 }
 
 /** Flow through a nozzle or orifice, m³/s: Q = Cd·(πD²/4)·√(2gh). */
@@ -52,7 +56,10 @@ export function nozzleFlow(diameter: number, head: number, dischargeCoefficient:
   requirePositive("diameter", diameter, "a nozzle diameter greater than zero");
   requireNonNegative("head", head, "a head of zero or more");
   requireCoefficient("discharge_coefficient", dischargeCoefficient);
-  return ok(dischargeCoefficient * pipeArea(diameter) * Math.sqrt(2 * g * head));
+  return ok(dischargeCoefficient * pipeArea(diameter) * Math.sqrt(2 * g * head), [], [
+    step("A", "outlet area, m²", pipeArea(diameter), "ratio", "πD²/4"),
+    step("√(2gh)", "ideal jet velocity", Math.sqrt(2 * g * head), "velocity", "g = 9.80665 m/s²"),
+  ]);
 }
 
 const DRAG_WARNING =

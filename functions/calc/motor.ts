@@ -1,5 +1,5 @@
 /** Standard motor ratings: the next rating at or above a required power. */
-import { CalcError, type CalcResult, ok, requireNonNegative } from "./_lib/result";
+import { CalcError, type CalcResult, ok, requireNonNegative, step } from "./_lib/result";
 
 export const MOTOR_SERIES = ["nema", "iec"] as const;
 type MotorSeries = (typeof MOTOR_SERIES)[number];
@@ -28,5 +28,5 @@ export function motorSize(power: number, series: MotorSeries, margin: number): C
     throw new CalcError("power", `${(needed / 1000).toPrecision(4)} kW is above the largest ${series === "nema" ? "NEMA" : "IEC"} rating listed here (${(ratings[ratings.length - 1] / 1000).toPrecision(4)} kW)`);
   }
   const warnings = margin === 0 ? ["No margin added: size the motor for the largest power the pump can draw on its curve (end of curve), not only the duty point."] : [];
-  return ok(rating, warnings);
+  return ok(rating, warnings, [step("P(1 + m)", "power to cover, margin added", needed, "power", "next rating at or above it")]);
 }

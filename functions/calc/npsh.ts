@@ -1,5 +1,5 @@
 /** Net positive suction head available, and the margin over the pump's NPSH required. */
-import { type CalcResult, ok, requireFinite, requireNonNegative, requirePositive } from "./_lib/result";
+import { type CalcResult, ok, requireFinite, requireNonNegative, requirePositive, step } from "./_lib/result";
 import { STANDARD_GRAVITY } from "./_lib/constants";
 
 /**
@@ -18,7 +18,13 @@ export function npshAvailable(surfacePressure: number, liquidHeight: number, suc
     warnings.push("The surface pressure is at or below the vapour pressure: the liquid is boiling at the surface.");
   }
   if (value <= 0) warnings.push("NPSHa is zero or negative: any pump will cavitate here.");
-  return ok(value, warnings);
+  const rhoG = density * STANDARD_GRAVITY;
+  return ok(value, warnings, [
+    step("p_s/ρg", "surface pressure head (absolute)", surfacePressure / rhoG, "length", "p_s/(ρg), g = 9.80665 m/s²"),
+    step("p_v/ρg", "vapour pressure head", vapourPressure / rhoG, "length", "IAPWS-IF97 region 4 vapour pressure over ρg"),
+    step("z", "static head: liquid surface above the impeller eye", liquidHeight, "length", "as given (negative for a suction lift)"),
+    step("h_L", "suction line loss", suctionLoss, "length", "as given"),
+  ]);
 }
 
 /** Margin ratios of ANSI/HI 9.6.1 (values from memory: 1.1 at the least, up to 2.5 for high suction energy). */
@@ -37,6 +43,6 @@ export function npshMargin(npsha: number, npshr: number): CalcResult {
   } else if (ratio < 1.5) {
     warnings.push(`Margin ratio ${ratio.toFixed(2)}: ANSI/HI 9.6.1 asks for more (up to 2.5) on high suction energy pumps and some services; check the guideline for this application.`);
   }
-  return ok(ratio, warnings);
+  return ok(ratio, warnings, [step("NPSHa − NPSHr", "margin in head", npsha - npshr, "length", "difference")]);
 }
 

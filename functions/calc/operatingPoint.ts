@@ -1,5 +1,5 @@
 /** The operating point: where the pump's head curve meets the system curve. */
-import { CalcError, type CalcResult, ok } from "./_lib/result";
+import { CalcError, type CalcResult, ok, step } from "./_lib/result";
 import { allRoots } from "./_lib/solve";
 import type { Interpolant } from "./pumpCurve";
 
@@ -33,5 +33,9 @@ export function operatingPoint(pump: Interpolant, systemAt: (flow: number) => nu
   if (roots.length > 1) {
     warnings.push(`The curves cross ${roots.length} times (drooping head curve); the highest-flow crossing is returned. Operation near the others may be unstable.`);
   }
-  return ok({ flow, head: pump.at(flow) }, warnings);
+  return ok({ flow, head: pump.at(flow) }, warnings, [
+    step("Q*", "flow where the curves cross", flow, "flow", "Brent's method on H_pump(Q) − H_system(Q) over the curve's flow range"),
+    step("H_pump(Q*)", "pump head there", pump.at(flow), "length", "PCHIP through the curve's points"),
+    step("H_system(Q*)", "system head there", systemAt(flow), "length", "static head plus losses"),
+  ]);
 }

@@ -1,5 +1,5 @@
 /** Mean velocity and Reynolds number of full-pipe flow (continuity; definition of Re). */
-import { type CalcResult, ok, requireNonNegative, requirePositive } from "./_lib/result";
+import { type CalcResult, ok, requireNonNegative, requirePositive, step } from "./_lib/result";
 
 /** Flow area of a round pipe, m², from its inside diameter, m. */
 export function pipeArea(diameter: number): number {
@@ -10,7 +10,8 @@ export function pipeArea(diameter: number): number {
 export function meanVelocity(flow: number, diameter: number): CalcResult {
   requireNonNegative("flow", flow, "a flow of zero or more");
   requirePositive("diameter", diameter, "an inside diameter greater than zero");
-  return ok(flow / pipeArea(diameter));
+  const area = pipeArea(diameter);
+  return ok(flow / area, [], [step("A", "flow area", area, "ratio", "πD²/4, m²")]);
 }
 
 /** Reynolds number: Re = V·D/ν = 4Q/(π·D·ν). */
@@ -18,5 +19,6 @@ export function reynoldsNumber(flow: number, diameter: number, kinematicViscosit
   requireNonNegative("flow", flow, "a flow of zero or more");
   requirePositive("diameter", diameter, "an inside diameter greater than zero");
   requirePositive("kinematic_viscosity", kinematicViscosity, "a kinematic viscosity greater than zero");
-  return ok((4 * flow) / (Math.PI * diameter * kinematicViscosity));
+  const v = flow / pipeArea(diameter);
+  return ok((4 * flow) / (Math.PI * diameter * kinematicViscosity), [], [step("V", "mean velocity", v, "velocity", "continuity, V = 4Q/(πD²)"), step("ν", "kinematic viscosity", kinematicViscosity, "kinematicViscosity", "as given")]);
 }

@@ -1,5 +1,5 @@
 /** Hydraulic and shaft power of a pump: P = ρ·g·Q·H and P/η. */
-import { CalcError, type CalcResult, ok, requireFinite, requireNonNegative, requirePositive } from "./_lib/result";
+import { CalcError, type CalcResult, ok, requireFinite, requireNonNegative, requirePositive, step } from "./_lib/result";
 import { STANDARD_GRAVITY } from "./_lib/constants";
 
 /** Throws unless η is a fraction in (0, 1]. */
@@ -14,7 +14,7 @@ export function hydraulicPower(flow: number, head: number, density: number): Cal
   requireNonNegative("flow", flow, "a flow of zero or more");
   requireFinite("head", head);
   requirePositive("density", density, "a density greater than zero");
-  return ok(density * STANDARD_GRAVITY * flow * head);
+  return ok(density * STANDARD_GRAVITY * flow * head, [], [step("ρg", "specific weight, N/m³", density * STANDARD_GRAVITY, "ratio", "g = 9.80665 m/s²")]);
 }
 
 /** Shaft (brake) power, W: ρ·g·Q·H/η. */
@@ -22,5 +22,5 @@ export function shaftPower(flow: number, head: number, efficiency: number, densi
   requireEfficiency("efficiency", efficiency);
   const hydraulic = hydraulicPower(flow, head, density);
   const warnings = efficiency < 0.2 ? [`Efficiency ${efficiency} is unusually low for a centrifugal pump; check the input.`] : [];
-  return ok(hydraulic.value / efficiency, warnings);
+  return ok(hydraulic.value / efficiency, warnings, [step("P_h", "hydraulic power ρgQH", hydraulic.value, "power", "g = 9.80665 m/s²"), step("η", "pump efficiency", efficiency, "efficiency", "as given")]);
 }

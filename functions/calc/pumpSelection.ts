@@ -2,7 +2,7 @@
  * Working with pump curves as a whole: shaft power along a curve, curves of several identical
  * pumps, and choosing the smallest impeller of a family that meets a duty. SI in and out.
  */
-import { CalcError, type CalcResult, ok } from "./_lib/result";
+import { CalcError, type CalcResult, ok, step, type Step } from "./_lib/result";
 import { hydraulicPower } from "./power";
 import { curveInterpolant, type Impeller, type PumpCurve, valueAt } from "./pumpCurve";
 
@@ -42,18 +42,20 @@ interface ImpellerChoice {
  */
 export function selectImpeller(impellers: readonly Impeller[], flow: number, head: number): CalcResult<ImpellerChoice> {
   let reachable = false;
+  const steps: Step[] = [];
   for (const impeller of impellers) {
     const curve = curveInterpolant("family", impeller.curve, "head");
     if (flow < curve.min || flow > curve.max) continue;
     reachable = true;
     const h = curve.at(flow);
+    steps.push(step(`H(${impeller.label})`, `head of impeller ${impeller.label} at the duty flow`, h, "length", h < head ? "below the duty head" : "meets the duty head: chosen"));
     if (h < head) continue;
     const at = (column: "efficiency" | "npshr") => {
       if (!impeller.curve[column]) return undefined;
       const f = curveInterpolant("family", impeller.curve, column);
       return flow >= f.min && flow <= f.max ? f.at(flow) : undefined;
     };
-    return ok({ impeller, head: h, efficiency: at("efficiency"), npshr: at("npshr") });
+    return ok({ impeller, head: h, efficiency: at("efficiency"), npshr: at("npshr") }, [], steps);
   }
   if (!reachable) throw new CalcError("flow", `${flow.toPrecision(4)} m³/s is outside every impeller's curve in the family`);
   throw new CalcError("head", `no impeller in the family gives ${head.toPrecision(4)} m at ${flow.toPrecision(4)} m³/s; the largest gives less`);

@@ -1,5 +1,6 @@
 /** Pressure surge (water hammer): Korteweg wave speed and the Joukowsky pressure rise. */
-import { type CalcResult, CalcError, ok, requireFinite, requirePositive } from "./_lib/result";
+import { STANDARD_GRAVITY } from "./_lib/constants";
+import { type CalcResult, CalcError, ok, requireFinite, requirePositive, step } from "./_lib/result";
 
 /** Bulk modulus of water used by default, Pa (about 2.2 GPa near 20 °C; common practice). */
 export const WATER_BULK_MODULUS = 2.2e9;
@@ -15,7 +16,11 @@ export function waveSpeed(diameter: number, wall: number, pipeModulus: number, b
   const warnings: string[] = [];
   if (wall >= diameter / 2) warnings.push("A wall thicker than the radius: the thin-wall Korteweg formula does not hold.");
   else if (diameter / wall < 25) warnings.push("D/e below 25: a thick-wall correction of the restraint factor may be needed.");
-  return ok(Math.sqrt(bulkModulus / density / (1 + (restraint * bulkModulus * diameter) / (pipeModulus * wall))), warnings);
+  const stiffness = 1 + (restraint * bulkModulus * diameter) / (pipeModulus * wall);
+  return ok(Math.sqrt(bulkModulus / density / stiffness), warnings, [
+    step("√(K/ρ)", "wave speed in the liquid alone", Math.sqrt(bulkModulus / density), "velocity", "rigid pipe"),
+    step("1 + cKD/(Ee)", "wall elasticity factor", stiffness, "ratio", "Korteweg"),
+  ]);
 }
 
 /** Δp = ρ·a·Δv for a change of velocity faster than the wave's round trip 2L/a. */
@@ -25,5 +30,5 @@ export function surgePressure(waveSpeedValue: number, velocityChange: number, de
   requirePositive("density", density, "a density greater than zero");
   return ok(density * waveSpeedValue * Math.abs(velocityChange), [
     "Joukowsky holds for a change faster than 2L/a; slower closures give less, but column separation and reflections can give more.",
-  ]);
+  ], [step("Δp/ρg", "pressure rise as head of liquid", waveSpeedValue * Math.abs(velocityChange) / STANDARD_GRAVITY, "length", "a·Δv/g, g = 9.80665 m/s²")]);
 }

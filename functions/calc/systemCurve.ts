@@ -2,7 +2,7 @@
  * System head: static head plus the losses of each pipe segment,
  * H = Hs + Σ (f·L/D + ΣK)·V²/2g (Darcy–Weisbach with Colebrook), or H = Hs + k·Q².
  */
-import { type CalcResult, CalcError, ok, requireFinite, requireNonNegative } from "./_lib/result";
+import { type CalcResult, CalcError, ok, requireFinite, requireNonNegative, step, type Step } from "./_lib/result";
 import { frictionFactor } from "./friction";
 import { velocityHead } from "./headLoss";
 import { pipeArea } from "./pipeFlow";
@@ -38,14 +38,23 @@ function segmentLosses(flow: number, segments: readonly PipeSegment[], kinematic
   const warnings = new Set<string>();
   let total = 0;
   if (flow === 0) return ok(0);
-  for (const s of segments) {
+  const steps: Step[] = [];
+  segments.forEach((s, i) => {
     const v = flow / pipeArea(s.diameter);
     const re = (v * s.diameter) / kinematicViscosity;
     const f = frictionFactor(re, s.roughness / s.diameter);
     f.warnings.forEach((w) => warnings.add(w));
-    total += ((f.value * s.length) / s.diameter + s.k) * velocityHead(v);
-  }
-  return ok(total, [...warnings]);
+    const loss = ((f.value * s.length) / s.diameter + s.k) * velocityHead(v);
+    total += loss;
+    const n = segments.length > 1 ? `${i + 1}` : "";
+    steps.push(
+      step(`V${n}`, `mean velocity${n ? `, segment ${n}` : ""}`, v, "velocity", "continuity, V = 4Q/(πD²)"),
+      step(`Re${n}`, `Reynolds number${n ? `, segment ${n}` : ""}`, re, "ratio", "Re = VD/ν"),
+      step(`f${n}`, `Darcy friction factor${n ? `, segment ${n}` : ""}`, f.value, "ratio", re < 2000 ? "64/Re (laminar)" : "Colebrook, solved to double precision"),
+      step(`h${n}`, `loss${n ? `, segment ${n}` : ""}: (fL/D + ΣK)·V²/2g`, loss, "length", "Darcy–Weisbach plus loss coefficients"),
+    );
+  });
+  return ok(total, [...warnings], steps);
 }
 
 /** System head at a flow, m. */
@@ -54,10 +63,10 @@ export function systemHead(flow: number, staticHead: number, losses: SystemLosse
   requireFinite("static_head", staticHead);
   if ("k" in losses) {
     if (!(losses.k >= 0)) throw new CalcError("system", `expected a resistance k of zero or more (H = Hs + k·Q², k in s²/m⁵); got ${losses.k}`);
-    return ok(staticHead + losses.k * flow * flow);
+    return ok(staticHead + losses.k * flow * flow, [], [step("H_s", "static head", staticHead, "length", "as given"), step("kQ²", "losses", losses.k * flow * flow, "length", "resistance k times the flow squared")]);
   }
   const loss = segmentLosses(flow, losses.segments, losses.kinematicViscosity);
-  return ok(staticHead + loss.value, loss.warnings);
+  return ok(staticHead + loss.value, loss.warnings, [step("H_s", "static head", staticHead, "length", "as given"), ...(loss.steps ?? []), step("Σh", "all losses", loss.value, "length", "sum over the segments")]);
 }
 
 /** System curve at `points` flows evenly from 0 to maxFlow: rows of [flow, head] in m³/s and m. */
@@ -72,5 +81,6 @@ export function systemCurve(staticHead: number, losses: SystemLosses, maxFlow: n
     h.warnings.forEach((w) => warnings.add(w));
     rows.push([q, h.value]);
   }
-  return ok(rows, [...warnings]);
+  const last = rows[rows.length - 1];
+  return ok(rows, [...warnings], [step("H_s", "static head (zero flow)", staticHead, "length", "as given"), step("H(Q_max)", "system head at the largest flow", last[1], "length", "static head plus losses")]);
 }

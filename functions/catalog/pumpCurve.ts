@@ -137,7 +137,7 @@ export const specs: FunctionSpec[] = [
       const losses = systemLosses(a.system, a.kinematic_viscosity);
       const p = operatingPoint(head, (q) => systemHead(q, a.static_head, losses).value);
       const sys = systemHead(p.value.flow, a.static_head, losses);
-      return ok([[spillValue("flow_unit", p.value.flow, "flow", a.flow_unit), spillValue("head_unit", p.value.head, "length", a.head_unit)]], [...p.warnings, ...sys.warnings]);
+      return ok([[spillValue("flow_unit", p.value.flow, "flow", a.flow_unit), spillValue("head_unit", p.value.head, "length", a.head_unit)]], [...p.warnings, ...sys.warnings], [...(p.steps ?? []), ...(sys.steps ?? [])]);
     },
   }),
   defineSpec({
@@ -227,10 +227,11 @@ export const specs: FunctionSpec[] = [
       },
     ],
     compute: (a) => {
-      const choice = selectImpeller(impellersFromTable("family", a.family), a.flow, a.head).value;
+      const selection = selectImpeller(impellersFromTable("family", a.family), a.flow, a.head);
+      const choice = selection.value;
       const out = (v: number | undefined) => (v === undefined ? "" : spillValue("unit", v, "length", a.unit));
       const size = choice.impeller.size === null ? choice.impeller.label : Number(choice.impeller.label);
-      return ok([[size, out(choice.head), choice.efficiency ?? "", out(choice.npshr)]]);
+      return ok([[size, out(choice.head), choice.efficiency ?? "", out(choice.npshr)]], selection.warnings, selection.steps);
     },
   }),
 ];

@@ -78,7 +78,7 @@ export const specs: FunctionSpec[] = [
       const fu = a.flow_unit;
       const hu = a.head_unit;
       const rows = curve.value.map(([q, h]) => [spillValue("flow_unit", q, "flow", fu), spillValue("head_unit", h, "length", hu)]);
-      return ok([[spillHeader("Flow", fu, "flow"), spillHeader("Head", hu, "length")], ...rows], curve.warnings);
+      return ok([[spillHeader("Flow", fu, "flow"), spillHeader("Head", hu, "length")], ...rows], curve.warnings, curve.steps);
     },
   }),
 ];

@@ -2,6 +2,8 @@
  * The physical dimensions worksheet arguments and results can have, each with the project's
  * base unit (what a bare number means) and an example for messages and docs.
  */
+import type { StepDimension } from "../calc/_lib/result";
+
 export interface DimensionInfo {
   /** Unit a bare number is read in, as mathjs spells it. */
   base: string;
@@ -32,7 +34,7 @@ export const DIMENSIONS = {
   time: { base: "h", baseLabel: "h", noun: "a running time", example: '"6000 h"' },
   ratio: { base: "", baseLabel: "—", noun: "a plain number", example: "0.5" },
   efficiency: { base: "", baseLabel: "fraction", noun: "an efficiency", example: '0.78 or "78%"' },
-} as const satisfies Record<string, DimensionInfo>;
+} as const satisfies Record<StepDimension, DimensionInfo>;
 
 export type Dimension = keyof typeof DIMENSIONS;
 

@@ -1,12 +1,34 @@
-/** What every calc function returns: a value in base units plus warnings for the pane. */
+/** The kind of quantity an intermediate value is (as functions/units/dimensions.ts names them). */
+export type StepDimension = "length" | "flow" | "velocity" | "pressure" | "power" | "energy" | "density" | "viscosity" | "kinematicViscosity" | "temperature" | "rotationalSpeed" | "angle" | "modulus" | "time" | "ratio" | "efficiency";
+
+/** A named intermediate value of a calculation, as a hand calculation would write it down. */
+export interface Step {
+  /** Symbol as engineers write it: "V", "Re", "ε/D", "f", "V²/2g". */
+  symbol: string;
+  name: string;
+  /** In the base unit of its dimension. */
+  value: number;
+  dim: StepDimension;
+  /** How it was obtained: "continuity, V = 4Q/(πD²)", "Colebrook, solved to double precision". */
+  how: string;
+}
+
+/** What every calc function returns: a value in base units, warnings for the pane, and its intermediate steps. */
 export interface CalcResult<T = number> {
   value: T;
   warnings: string[];
+  /** The intermediate values a reviewer compares with a hand calculation. */
+  steps?: Step[];
 }
 
-/** Shorthand for a result with no warnings. */
-export function ok<T>(value: T, warnings: string[] = []): CalcResult<T> {
-  return { value, warnings };
+/** Shorthand for a result (warnings and steps optional). */
+export function ok<T>(value: T, warnings: string[] = [], steps?: Step[]): CalcResult<T> {
+  return steps ? { value, warnings, steps } : { value, warnings };
+}
+
+/** Shorthand for a step. */
+export function step(symbol: string, name: string, value: number, dim: StepDimension, how: string): Step {
+  return { symbol, name, value, dim, how };
 }
 
 /**
