@@ -81,6 +81,19 @@ describe.skipIf(!soffice)("LibreOffice, a second spreadsheet engine", () => {
     expect(pdfPages(pdf)).toBe(4); // Summary, Inputs, Calc, Pump: each fits one page at its print scale
   });
 
+  it("prints the demo on one page per sheet on Letter paper too", async () => {
+    const dir = tempDir();
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.readFile(join(root, "demo", DEMO_FILE));
+    book.eachSheet((ws) => (ws.pageSetup.paperSize = 1 as ExcelJS.PageSetup["paperSize"])); // 1: Letter (ECMA-376 paperSize)
+    const letter = join(dir, "letter.xlsx");
+    await book.xlsx.writeFile(letter);
+    convert([letter], "pdf", dir);
+    const pdf = readFileSync(join(dir, "letter.pdf"), "latin1");
+    expect(pdfPages(join(dir, "letter.pdf"))).toBe(4);
+    expect(pdf).toMatch(/\/MediaBox\s*\[\s*0 0 612 792\s*\]/); // US Letter, 8.5 × 11 in
+  });
+
   it("opens the hand-off copy with Nappe's values, recomputing the plain formulas that read them", async () => {
     const dir = tempDir();
     const copy = join(dir, "handoff.xlsx");
