@@ -578,3 +578,15 @@ export function surgeWavespeed(diameter: any, wall: any, pipe_modulus: any, bulk
 export function surgePressure(wave_speed: any, velocity_change: any, density?: any, unit?: any): number {
   return run("SURGE.PRESSURE", [wave_speed, velocity_change, density, unit]) as number;
 }
+
+/**
+ * Relative difference of a hand-calculated value from Nappe's, with a verdict against a tolerance.
+ * @customfunction CROSSCHECK
+ * @param hand The hand-calculated value (a cell of your own formula).
+ * @param nappe Nappe's value of the same quantity in the same unit, such as NAPPE.HEADLOSS(…, "ft").
+ * @param tolerance Largest relative difference that still agrees: a fraction (0.005) or percent text ("0.5%").
+ * @returns Relative difference (hand − Nappe)/Nappe; a warning says when it exceeds the tolerance.
+ */
+export function crosscheck(hand: any, nappe: any, tolerance?: any): number {
+  return run("CROSSCHECK", [hand, nappe, tolerance]) as number;
+}

@@ -12,6 +12,9 @@ import { describeArguments, exampleFormula, searchCatalog, signature } from "./g
 import type { HostPort } from "./host/port";
 import { writeAction } from "./actions";
 import { GENERAL_CAUTIONS } from "../functions/catalog/_shared";
+import { crossCheckCell } from "./crossCheck";
+import { formatNumber } from "../workbook/format";
+import { addressOf, parseAddress } from "../workbook/address";
 
 const CAUTION_TEXT = GENERAL_CAUTIONS.join(" ");
 
@@ -105,12 +108,73 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
   return card;
 }
 
+/** The cross-check of a plain (hand) formula: pick the quantity, see the verdict and the departing steps, keep the check. */
+function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
+  const box = el("section", "cross-check");
+  box.append(el("h3", "", "Cross-check this hand formula"), el("p", "", "Pick the quantity it computes; Nappe reads its inputs from the cells it uses (by label and unit) and computes the same."));
+  const input = el("input", "search");
+  input.type = "search";
+  input.placeholder = "Quantity: head loss, shaft power, npsh…";
+  input.setAttribute("aria-label", "Quantity the formula computes");
+  const choices = el("ul", "results");
+  choices.setAttribute("aria-label", "Quantities");
+  const result = el("div", "cross-check-result");
+  const numeric = CATALOG.filter((s) => !s.result.spill && s.id !== "CROSSCHECK");
+  const show = async (specId: string) => {
+    result.replaceChildren(el("p", "", "Checking…"));
+    try {
+      const r = await crossCheckCell(ctx.port, cell.sheet, cell.address, specId);
+      const verdict = el("p", `status ${r.verdict === "agrees" ? "ok" : "warning"}`, `${r.verdict === "agrees" ? "✓ Agrees" : "⚠ Differs"}: hand ${formatNumber(r.handValue)}, Nappe ${formatNumber(r.nappeValue)} ${r.unit}, difference ${(r.relativeDifference * 100).toPrecision(3)} % (tolerance ${(r.tolerance * 100).toPrecision(2)} %)`);
+      const mapping = el("table", "args");
+      mapping.append(el("tr", "", el("th", "", "argument"), el("th", "", "read from")));
+      for (const [name, from] of Object.entries(r.mapping)) mapping.append(el("tr", "", el("td", "name", name), el("td", "", from)));
+      const keep = el("button", "keep", "Keep the check in the workbook");
+      keep.addEventListener("click", () =>
+        writeAction(ctx, "keep the check", async () => {
+          const { row, col } = parseAddress(cell.address);
+          const target = addressOf(row, col + 1);
+          const existing = await ctx.port.cell(cell.sheet, target);
+          if (existing.formula || (existing.value !== null && existing.value !== "")) {
+            ctx.say(`${cell.sheet}!${target} is not empty: copy the check instead: =${r.keepFormula}`);
+            return;
+          }
+          await ctx.port.setFormula(cell.sheet, target, r.keepFormula);
+          ctx.say(`Kept the check in ${cell.sheet}!${target}.`);
+        }),
+      );
+      result.replaceChildren(
+        verdict,
+        el("div", "table-wrap", mapping),
+        list("Steps that depart by more than 0.01 %", r.departures, "warnings"),
+        list("Usual causes", r.causes, "warnings"),
+        el("code", "formula", `=${r.keepFormula}`),
+        keep,
+      );
+    } catch (e) {
+      result.replaceChildren(el("p", "status error", `Could not cross-check as NAPPE.${specId}: ${e instanceof Error ? e.message : String(e)}`));
+    }
+  };
+  const render = () => {
+    choices.replaceChildren();
+    for (const spec of searchCatalog(numeric, input.value).slice(0, 8)) {
+      const button = el("button", "fn", `NAPPE.${spec.id}`);
+      button.addEventListener("click", () => void show(spec.id));
+      choices.append(el("li", "", button, el("span", "purpose", spec.purpose)));
+    }
+  };
+  input.addEventListener("input", render);
+  render();
+  box.append(input, choices, result);
+  return box;
+}
+
 function renderCell(target: HTMLElement, cell: CellExplanation, ctx: PaneContext, refresh: () => void): void {
   target.replaceChildren();
   target.append(el("h2", "cell-address", `${cell.sheet}!${cell.address}`));
   if (cell.formula) target.append(el("code", "formula", `=${cell.formula}`));
   if (cell.value !== "") target.append(el("p", "value", "Value: ", el("strong", "", cell.value)));
   if (cell.message) target.append(el("p", "message", cell.message));
+  if (cell.formula && !cell.calls.length && !cell.error) target.append(crossCheckView(cell, ctx));
   if (cell.error) target.append(el("p", "status error", cell.error));
   if (cell.chart) target.append(drawChart(cell.chart));
   for (const call of cell.calls) target.append(callCard(call, cell, ctx, refresh));

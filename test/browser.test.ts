@@ -261,3 +261,50 @@ describe.runIf(hasChromium)("workbook text with markup", () => {
     }
   }, 60000);
 });
+
+describe.runIf(hasChromium)("cross-check of a hand formula", () => {
+  it("finds the explicit friction formula, and keeps the check in the workbook", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "nappe-hand-"));
+    const book = new ExcelJS.Workbook();
+    const ws = book.addWorksheet("Hand");
+    // Invented hand calculation: 400 gpm in 1000 ft of 6.065 in pipe, with the Swamee–Jain friction factor.
+    const rows: [string, number | { formula: string }][] = [
+      ["Flow (gpm)", 400],
+      ["Inside diameter (in)", 6.065],
+      ["Length (ft)", 1000],
+      ["Roughness (in)", 0.0018],
+      ["Kinematic viscosity (ft^2/s)", 1.0764e-5],
+      ["Velocity (ft/s)", { formula: "B1*0.002228009/(PI()*(B2/12)^2/4)" }],
+      ["Reynolds number", { formula: "B6*(B2/12)/B5" }],
+      ["Friction factor", { formula: "0.25/LOG10(B4/B2/3.7+5.74/B7^0.9)^2" }],
+      ["Head loss (ft)", { formula: "B8*B3/(B2/12)*B6^2/(2*32.174)" }],
+    ];
+    rows.forEach(([label, v], i) => {
+      ws.getCell(i + 1, 1).value = label;
+      ws.getCell(i + 1, 2).value = v;
+    });
+    const file = join(dir, "hand.xlsx");
+    writeFileSync(file, Buffer.from(await book.xlsx.writeBuffer()));
+    const preview = await startPreview(file);
+    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
+    try {
+      const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
+      await page.goto(preview.url);
+      await page.locator("table.grid").waitFor();
+      await page.locator('td[data-address="B9"]').click();
+      await page.getByRole("searchbox", { name: "Quantity the formula computes" }).fill("head loss darcy");
+      await page.getByRole("button", { name: "NAPPE.HEADLOSS", exact: true }).click();
+      const result = page.locator(".cross-check-result");
+      await containsText(result, "B8 Darcy friction factor");
+      await containsText(result, "explicit friction formula (Swamee–Jain)");
+      await page.screenshot({ path: join(shots, "pane-cross-check.png") });
+      await result.getByRole("button", { name: "Keep the check in the workbook" }).click();
+      await containsText(page.locator(".status-line"), "Kept the check in Hand!C9");
+      await page.locator('td[data-address="C9"]').click();
+      await containsText(page.locator(".cell-view"), "NAPPE.CROSSCHECK");
+    } finally {
+      await browser.close();
+      preview.server.kill();
+    }
+  }, 60000);
+});

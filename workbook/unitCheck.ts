@@ -41,7 +41,7 @@ function unitsDeclared(text: string): string[] {
 }
 
 /** The dimension and unit a piece of text declares, when it names a known unit. */
-function declaredUnit(text: string): { unit: string; dim: Dimension } | undefined {
+export function declaredUnit(text: string): { unit: string; dim: Dimension } | undefined {
   for (const u of unitsDeclared(text)) {
     const dim = dimensionOfUnit(u, ALL_DIMS);
     if (dim) return { unit: u, dim };

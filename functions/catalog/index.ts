@@ -18,9 +18,10 @@ import { specs as energy } from "./energy";
 import { specs as npsh } from "./npsh";
 import { specs as jet } from "./jet";
 import { specs as surge } from "./surge";
+import { specs as crossCheck } from "./crossCheck";
 
 /** Every worksheet function's spec, in documentation order. */
-export const CATALOG: readonly FunctionSpec[] = [...units, ...water, ...atmosphere, ...hydrostatics, ...pipeFlow, ...friction, ...headLoss, ...pipe, ...systemCurve, ...pumpCurve, ...affinity, ...specificSpeed, ...power, ...motor, ...energy, ...npsh, ...jet, ...surge];
+export const CATALOG: readonly FunctionSpec[] = [...units, ...water, ...atmosphere, ...hydrostatics, ...pipeFlow, ...friction, ...headLoss, ...pipe, ...systemCurve, ...pumpCurve, ...affinity, ...specificSpeed, ...power, ...motor, ...energy, ...npsh, ...jet, ...surge, ...crossCheck];
 
 /** Specs by worksheet id (without the NAPPE. namespace). */
 export const CATALOG_BY_ID: ReadonlyMap<string, FunctionSpec> = new Map(CATALOG.map((s) => [s.id, s]));
