@@ -2,7 +2,7 @@
  * nappe: recalculate and audit NAPPE workbooks outside Excel, and write hand-off copies.
  *
  *   nappe recalc  <workbook.xlsx> [--tolerance 1e-6] [--all] [--allow-empty]
- *   nappe audit   <workbook.xlsx> [--html report.html] [--xlsx audit.xlsx] [--allow-empty]
+ *   nappe audit   <workbook.xlsx> [--html report.html] [--xlsx audit.xlsx] [--text audit.txt] [--allow-empty]
  *   nappe handoff <workbook.xlsx> [--out copy.xlsx]
  *   nappe demo    [--out folder]
  *   (every command reading a workbook also takes --max-seconds 60 --max-memory 1024)
@@ -21,14 +21,14 @@ import { writeAtomically } from "./atomic";
 import { writeHandoff } from "./handoff";
 import { Budget, DEFAULT_LIMITS, type Limits } from "./package";
 import { recalculate, type RecalcResult } from "../workbook/recalc";
-import { addAuditSheet, renderHtml, renderTable } from "./render";
+import { addAuditSheet, renderHtml, renderTable, renderText } from "./render";
 import { BudgetError, labelSource, readWorkbook, type WorkbookModel, WorkbookError } from "./readXlsx";
 
 class UsageError extends Error {}
 
 const USAGE = `Usage:
   nappe recalc  <workbook.xlsx> [--tolerance 1e-6] [--all] [--allow-empty]
-  nappe audit   <workbook.xlsx> [--html report.html] [--xlsx audit.xlsx] [--allow-empty]
+  nappe audit   <workbook.xlsx> [--html report.html] [--xlsx audit.xlsx] [--text audit.txt] [--allow-empty]
   nappe handoff <workbook.xlsx> [--out copy.xlsx]
   nappe demo    [--out folder]
 Options for every command that reads a workbook:
@@ -49,6 +49,7 @@ interface Options {
   flags: {
     tolerance?: string;
     html?: string;
+    text?: string;
     xlsx?: string;
     out?: string;
     all?: boolean;
@@ -70,6 +71,7 @@ function parseArgs(argv: string[]): Options {
       options: {
         tolerance: { type: "string" },
         html: { type: "string" },
+        text: { type: "string" },
         xlsx: { type: "string" },
         out: { type: "string" },
         all: { type: "boolean" },
@@ -148,9 +150,10 @@ function emptyNotice(file: string, result: RecalcResult): string {
   return `nappe: no NAPPE formulas found in ${file} (${k.formulas} formulas, none calling NAPPE): nothing was checked.${others}`;
 }
 
-async function writeAudit(wb: WorkbookModel, result: RecalcResult, source: string, htmlPath: string, xlsxPath: string, title: string) {
+async function writeAudit(wb: WorkbookModel, result: RecalcResult, source: string, htmlPath: string, xlsxPath: string, textPath: string, title: string) {
   const report = buildAudit(result.cells, { title, source, found: summaryLine(result) }, labelSource(wb));
   await writeAtomically(htmlPath, renderHtml(report));
+  await writeAtomically(textPath, renderText(report));
   const book = new ExcelJS.Workbook();
   addAuditSheet(book, report);
   await writeAtomically(xlsxPath, Buffer.from(await book.xlsx.writeBuffer()));
@@ -179,14 +182,15 @@ async function main(argv: string[]): Promise<number> {
       const stem = opts.file.slice(0, opts.file.length - extname(opts.file).length);
       const html = resolve(flags.html ?? `${stem}.audit.html`);
       const xlsx = resolve(flags.xlsx ?? `${stem}.audit.xlsx`);
-      if ([html, xlsx].includes(resolve(opts.file))) throw new UsageError("the report would overwrite the workbook; choose another --html or --xlsx path");
+      const text = resolve(flags.text ?? `${stem}.audit.txt`);
+      if ([html, xlsx, text].includes(resolve(opts.file))) throw new UsageError("the report would overwrite the workbook; choose another --html, --xlsx or --text path");
       const { wb, result } = await load(opts.file, flags);
       if (result.counts.nappe === 0 && !flags["allow-empty"]) {
         console.error(`${emptyNotice(opts.file, result)}\nNo audit written (--allow-empty writes one that says so).`);
         return EXIT_EMPTY;
       }
-      const report = await writeAudit(wb, result, basename(opts.file), html, xlsx, `Nappe audit of ${basename(opts.file)}`);
-      console.log(`${summaryLine(result, flags.all)}\nAudit written:\n  ${html}\n  ${xlsx}`);
+      const report = await writeAudit(wb, result, basename(opts.file), html, xlsx, text, `Nappe audit of ${basename(opts.file)}`);
+      console.log(`${summaryLine(result, flags.all)}\nAudit written:\n  ${html}\n  ${xlsx}\n  ${text}`);
       return report.counts.error ? 1 : 0;
     }
     case "handoff": {
@@ -227,14 +231,14 @@ async function demo(out: string): Promise<number> {
     }
   }
   const flagged = result.cells.filter((c) => c.status !== "ok");
-  const report = await writeAudit(wb, result, DEMO_FILE, join(out, "orchard-audit.html"), join(out, "orchard-audit.xlsx"), "Nappe audit: hillside orchard pumping station (invented demo)");
+  const report = await writeAudit(wb, result, DEMO_FILE, join(out, "orchard-audit.html"), join(out, "orchard-audit.xlsx"), join(out, "orchard-audit.txt"), "Nappe audit: hillside orchard pumping station (invented demo)");
   const unitFindings = report.entries.flatMap((e) => e.messages.filter((m) => m.includes("unit check")).map((m) => `${e.sheet}!${e.address}: ${m}`));
   console.log(`\nWarnings and checks (${flagged.length + unitFindings.length}):`);
   for (const c of flagged) for (const m of c.messages) console.log(`  ${c.sheet}!${c.address}: ${m}`);
   for (const m of unitFindings) console.log(`  ${m}`);
   await writeHandoff(path, join(out, "orchard-handoff.xlsx"), result, report, DEFAULT_LIMITS);
   console.log(`\n${summaryLine(result)}`);
-  console.log(`Workbook: ${path}\nAudit report: ${join(out, "orchard-audit.html")}\nAudit sheet:  ${join(out, "orchard-audit.xlsx")}\nHand-off copy (values, no add-in needed): ${join(out, "orchard-handoff.xlsx")}`);
+  console.log(`Workbook: ${path}\nAudit report: ${join(out, "orchard-audit.html")}\nAudit sheet:  ${join(out, "orchard-audit.xlsx")}\nAudit text:   ${join(out, "orchard-audit.txt")}\nHand-off copy (values, no add-in needed): ${join(out, "orchard-handoff.xlsx")}`);
   console.log(`\n${GENERAL_CAUTIONS.join(" ")}`);
   return report.counts.error ? 1 : 0;
 }

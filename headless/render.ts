@@ -2,6 +2,7 @@
 import ExcelJS from "exceljs";
 import katex from "katex";
 import { type AuditReport, AUDIT_COLUMNS, AUDIT_WIDTHS, auditSheetRows, NOTHING_FOUND, wrappedLines } from "../workbook/audit";
+import { derivationText } from "../workbook/derivation";
 import { formatNumber, formatValue } from "../workbook/format";
 import type { CellOutcome } from "../workbook/recalc";
 
@@ -76,6 +77,7 @@ export function renderHtml(report: AuditReport): string {
           (c) => `<div class="call">
 <h3>NAPPE.${escapeHtml(c.id)}: ${escapeHtml(c.purpose)}</h3>
 ${equation(c.equation)}
+${c.substituted ? `<p class="substituted"><code>${escapeHtml(c.substituted)}</code></p>` : ""}
 <table><tr><th>argument</th><th>as written</th><th>as read</th><th>how</th><th>in base units</th></tr>
 ${c.args.map((a) => `<tr><td>${escapeHtml(a.name)}</td><td><code>${escapeHtml(a.written || "(left out)")}</code></td><td>${escapeHtml(a.value)}${a.unit && !a.value.endsWith(a.unit) ? ` ${escapeHtml(a.unit)}` : ""}</td><td>${escapeHtml(a.why)}</td><td>${escapeHtml(a.base)}</td></tr>`).join("\n")}
 </table>
@@ -110,6 +112,18 @@ ${report.found ? `<p class="meta">${escapeHtml(report.found)}</p>` : ""}
 ${entries}
 </body></html>
 `;
+}
+
+/** The audit as plain text: what was found, the cautions, then every cell with its derivations. */
+export function renderText(report: AuditReport): string {
+  const out = [report.title, `Workbook: ${report.source} · generated ${report.generated}`, report.found ?? `${report.entries.length} NAPPE formulas`, "", ...report.cautions, ""];
+  if (!report.entries.length) out.push(NOTHING_FOUND);
+  for (const e of report.entries) {
+    out.push(`${"-".repeat(72)}`, `${e.sheet}!${e.address}  [${e.status}]  ${e.formula} → ${e.result}`);
+    for (const m of e.messages.filter((m) => !e.calls.some((c) => m.includes(c.id)))) out.push(`Note: ${m}`);
+    for (const c of e.calls) out.push("", derivationText(e, c));
+  }
+  return `${out.join("\n")}\n`;
 }
 
 /** Adds the audit as a print-ready sheet to an exceljs workbook (replacing a sheet of that name). */

@@ -15,6 +15,7 @@ import { GENERAL_CAUTIONS } from "../functions/catalog/_shared";
 import { crossCheckCell } from "./crossCheck";
 import { formatNumber } from "../workbook/format";
 import { addressOf, parseAddress } from "../workbook/address";
+import { derivationText } from "../workbook/derivation";
 
 const CAUTION_TEXT = GENERAL_CAUTIONS.join(" ");
 
@@ -63,6 +64,7 @@ export interface PaneContext {
 function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext, refresh: () => void): HTMLElement {
   const card = el("section", "call");
   card.append(el("h3", "", `NAPPE.${call.id}`), el("p", "purpose", call.purpose), el("code", "formula", call.text), equation(call.equation));
+  if (call.substituted) card.append(el("p", "substituted", call.substituted));
   const table = el("table", "args");
   table.append(el("tr", "", el("th", "", "argument, as written"), el("th", "", "read as: unit and why"), el("th", "", "base value")));
   for (const a of call.args) {
@@ -178,6 +180,30 @@ function renderCell(target: HTMLElement, cell: CellExplanation, ctx: PaneContext
   if (cell.error) target.append(el("p", "status error", cell.error));
   if (cell.chart) target.append(drawChart(cell.chart));
   for (const call of cell.calls) target.append(callCard(call, cell, ctx, refresh));
+  if (cell.calls.length && cell.formula) target.append(copyAsText(cell, ctx));
+}
+
+/** "Copy as text": the derivation of every call in the cell, as a reviewer pastes it into a report. */
+function copyAsText(cell: CellExplanation, ctx: PaneContext): HTMLElement {
+  const text = cell.calls.map((c) => derivationText({ sheet: cell.sheet, address: cell.address, formula: cell.formula! }, c)).join("\n\n");
+  const area = el("textarea", "derivation-text");
+  area.value = text;
+  area.readOnly = true;
+  area.rows = Math.min(20, text.split("\n").length + 1);
+  area.setAttribute("aria-label", "Derivation as text");
+  const button = el("button", "copy", "Copy as text");
+  button.addEventListener("click", async () => {
+    try {
+      await navigator.clipboard.writeText(text);
+      ctx.say("Copied the derivation as text.");
+    } catch {
+      // Clipboard access can be refused inside an Office pane: the text is there to select.
+      area.focus();
+      area.select();
+      ctx.say("Select the text below and copy it (Ctrl+C).");
+    }
+  });
+  return el("section", "derivation", el("h3", "", "Derivation as text"), button, area);
 }
 
 function guideDetail(spec: FunctionSpec, target: HTMLElement, ctx: PaneContext): void {

@@ -108,6 +108,8 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
     await containsText(rows.nth(1), "bar · unit written with the number");
     await containsText(rows.nth(1), "480000 Pa");
     await containsText(card.locator(".result"), "49.1281 m");
+    await containsText(card.locator(".substituted"), "h = p/(ρg) = 480000 Pa/(996.3 kg/m^3·9.80665 m/s²) = 49.1281 m");
+    expect(await page.locator(".derivation-text").inputValue()).toMatch(/^Calc!B9: =NAPPE\.HEAD\(Inputs!B10, B5, "m"\)\nNAPPE\.HEAD: /);
     await page.screenshot({ path: join(shots, "pane-cell-view.png") });
   });
 

@@ -8,6 +8,7 @@ import type { Step } from "../functions/calc/_lib/result";
 import { CATALOG_BY_ID } from "../functions/catalog";
 import { evaluate } from "../functions/bind/evaluate";
 import { callView } from "../workbook/callView";
+import { derivationText } from "../workbook/derivation";
 import { relativeError, run } from "./helpers";
 import colebrook from "./reference/colebrook_reference.json";
 
@@ -62,5 +63,37 @@ describe("intermediate values", () => {
     expect(us.steps.find((s) => s.symbol === "V")!.value).toMatch(/^4\.53\d+ ft\/s$/);
     const si = callView({ id: "HEADLOSS", refs: [], evaluation: evaluate(spec, [0.02, 0.15, 100, 4.5e-5]) }, undefined, "S");
     expect(si.steps.find((s) => s.symbol === "V")!.value).toMatch(/ m\/s$/);
+  });
+});
+
+describe("derivations", () => {
+  it("put HEADLOSS's numbers into its equation, and the numbers multiply out to the result (hand check)", () => {
+    const spec = CATALOG_BY_ID.get("HEADLOSS")!;
+    const view = callView({ id: "HEADLOSS", refs: [], evaluation: evaluate(spec, [0.02, 0.15, 100, 4.5e-5]) }, undefined, "S");
+    const m = /^h_f = f·\(L\/D\)·V²\/2g = ([\d.e-]+)·\(([\d.]+) m\/([\d.]+) m\)·([\d.e-]+) m = ([\d.e-]+) m$/.exec(view.substituted!)!;
+    expect(m, view.substituted).not.toBeNull();
+    const [f, L, D, vh, h] = m.slice(1).map(Number);
+    expect(relativeError((f * L) / D * vh, h)).toBeLessThan(2e-5); // six significant figures each
+    // And the velocity head is V²/2g of V = 4Q/(πD²) (continuity), by hand.
+    const v = 0.02 / ((Math.PI * 0.15 ** 2) / 4);
+    expect(relativeError(vh, (v * v) / (2 * G))).toBeLessThan(1e-5);
+  });
+  it("writes a plain-text derivation a reviewer can paste: equation with numbers, inputs, intermediate values, result", () => {
+    const spec = CATALOG_BY_ID.get("NPSHA")!;
+    const view = callView({ id: "NPSHA", refs: ["B1", undefined, undefined, "B4"], evaluation: evaluate(spec, [101325, -3, 1, 20]) }, undefined, "S");
+    const text = derivationText({ sheet: "S", address: "B6", formula: "NAPPE.NPSHA(B1, -3, 1, B4)" }, view);
+    expect(text.split("\n")[0]).toBe("S!B6: =NAPPE.NPSHA(B1, -3, 1, B4)");
+    expect(text).toMatch(/^ {2}NPSHa = p_s\/ρg − p_v\/ρg \+ z − h_L = [\d.]+ m − [\d.]+ m \+ \(-3 m\) − 1 m = 6\.1118\d m$/m); // catalogue example: 6.11183 m (hand calculation with steam-table values)
+    expect(text).toMatch(/^ {2}surface_pressure = B1 → 101325/m);
+    expect(text).toMatch(/^Intermediate values:$/m);
+    expect(text).toMatch(/^Result: 6\.1118\d m$/m);
+  });
+  it("has a derivation line for every function that records intermediate values, and it fills in", () => {
+    for (const spec of [...CATALOG_BY_ID.values()]) {
+      const ev = evaluate(spec, spec.examples[0].args);
+      if (!ev.steps.length) continue;
+      const view = callView({ id: spec.id, refs: [], evaluation: ev }, undefined, "S");
+      expect(view.substituted, spec.id).toBeTruthy();
+    }
   });
 });

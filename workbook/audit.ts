@@ -98,7 +98,7 @@ function auditRows(report: AuditReport): string[][] {
         i === 0 ? e.formula : "",
         i === 0 ? e.status : "",
         i === 0 ? e.result : "",
-        c ? [`NAPPE.${c.id}: ${c.purpose}${c.result && e.calls.length > 1 ? ` = ${c.result}` : ""}`, ...c.steps.map((s) => `${s.symbol} = ${s.value} (${s.name})`)].join("\n") : "",
+        c ? [`NAPPE.${c.id}: ${c.purpose}${c.result && e.calls.length > 1 ? ` = ${c.result}` : ""}`, ...(c.substituted ? [c.substituted] : []), ...c.steps.map((s) => `${s.symbol} = ${s.value} (${s.name})`)].join("\n") : "",
         c ? c.args.map(argLine).join("\n") : "",
         notes.join("\n"),
       ]);

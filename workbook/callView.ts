@@ -5,7 +5,8 @@
  * units (carried by the evaluation, never recomputed); assumptions, checks, warnings, the unit
  * check's findings, cautions and sources.
  */
-import type { ArgReading } from "../functions/bind/evaluate";
+import type { ArgReading, Evaluation } from "../functions/bind/evaluate";
+import type { FunctionSpec } from "../functions/catalog/types";
 import { CATALOG_BY_ID } from "../functions/catalog";
 import { resultDimension } from "../functions/catalog/types";
 import type { Table } from "../functions/tables/table";
@@ -47,6 +48,8 @@ export interface CallView {
   args: ArgView[];
   /** The calculation's intermediate values, in the order it finds them. */
   steps: StepView[];
+  /** The equation with this call's numbers put in (base units), when the spec writes one. */
+  substituted?: string;
   /** The result in the unit the formula asks for (its `unit` argument, else the base unit). */
   result?: string;
   /** The result in the base unit of its dimension. */
@@ -109,6 +112,31 @@ function stepView(s: Step, us: boolean): StepView {
   return { symbol: s.symbol, name: s.name, value: formatQuantity(value, unit), how: s.how };
 }
 
+/** The spec's derivation line with the numbers of one evaluation, in base units. */
+function substitutedLine(spec: FunctionSpec, ev: Evaluation): string | undefined {
+  const derivation = spec.derivation;
+  if (!derivation) return undefined;
+  const missing = () => {
+    throw new Error("a number the derivation names is missing");
+  };
+  const arg = (name: string) => {
+    const r = ev.readings.find((x) => x.name === name);
+    if (!r || typeof r.value !== "number") return missing();
+    const p = spec.params.find((x) => x.name === name);
+    return formatQuantity(r.value, p?.kind === "quantity" ? DIMENSIONS[p.dim].base : "");
+  };
+  const stepValue = (symbol: string) => {
+    const s = ev.steps.find((x) => x.symbol === symbol);
+    return s ? formatQuantity(s.value, DIMENSIONS[s.dim].base) : missing();
+  };
+  try {
+    const result = typeof ev.base === "number" ? formatQuantity(ev.base, DIMENSIONS[ev.dim].base) : "";
+    return derivation({ arg, step: stepValue, result });
+  } catch {
+    return undefined;
+  }
+}
+
 /** As written when the formula's text is not at hand: the reference, or the literal passed. */
 function writtenFrom(raw: unknown, ref: string | undefined): string {
   if (ref) return ref;
@@ -139,6 +167,7 @@ export function callView(rec: CallRecord, site: CallSite | undefined, sheet: str
     equation: spec.equation,
     args,
     steps: ev ? ev.steps.map((s) => stepView(s, usesUsUnits(ev))) : [],
+    substituted: ev ? substitutedLine(spec, ev) : undefined,
     result: ev ? (typeof ev.value === "number" ? formatQuantity(ev.value, ev.unit) : formatValue(ev.value)) : undefined,
     resultBase: numeric ? formatQuantity(ev.base as number, DIMENSIONS[ev.dim].base) : undefined,
     assumptions: spec.assumptions,

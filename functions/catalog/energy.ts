@@ -18,6 +18,7 @@ export const specs: FunctionSpec[] = [
     ],
     result: { dim: "energy", description: "Energy, J." },
     equation: String.raw`E = \frac{\rho\, g\, Q\, H}{\eta_{pump}\,\eta_{motor}}\; t`,
+    derivation: (n) => `E = (P/η_m)·t = ${n.step("P/η_m")}·${n.step("t")} = ${n.result}`,
     assumptions: ["Steady running at one duty point for all the hours."],
     validity: ["Hours from 0 to 8784 (a leap year)."],
     cautions: [],

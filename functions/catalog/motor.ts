@@ -15,6 +15,7 @@ export const specs: FunctionSpec[] = [
     ],
     result: { dim: "power", description: "Motor rating, W." },
     equation: String.raw`P_{motor} = \min\{R \in \text{series} : R \ge P\,(1 + m)\}`,
+    derivation: (n) => `P·(1 + m) = ${n.arg("power")}·(1 + ${n.arg("margin")}) = ${n.step("P(1 + m)")} ⇒ next rating ${n.result}`,
     assumptions: ["Continuous duty, service factor not used up; the power is what the pump can draw at its worst point."],
     validity: ["Powers above the largest listed rating are an error."],
     cautions: [DESIGN_AID, "Motors, starters and wiring follow the electrical code; ask a licensed electrical engineer."],

@@ -97,6 +97,11 @@ export interface FunctionSpec {
   result: { dim: Dimension | ((args: Args) => Dimension); description: string; spill?: boolean };
   /** The equation in LaTeX. */
   equation: string;
+  /**
+   * The equation again with the numbers of one call put in, as a hand calculation writes it
+   * ("h_f = f·(L/D)·V²/2g = 0.0189·(30 m/0.1541 m)·0.0707 m = 0.256 m"), in base units.
+   */
+  derivation?: (n: DerivationNumbers) => string;
   assumptions: readonly string[];
   /** Validity checks the calc function makes, described for people. */
   validity: readonly string[];
@@ -113,6 +118,16 @@ export function numberArg(args: Args, name: string): number {
   const v = args[name];
   if (typeof v !== "number") throw new Error(`argument ${name} is not a number here`);
   return v;
+}
+
+/** The numbers of one call, formatted for a derivation line (base units, with the unit). */
+interface DerivationNumbers {
+  /** An argument's value ("30 m"). */
+  arg(name: string): string;
+  /** An intermediate value by its symbol ("0.0189"). */
+  step(symbol: string): string;
+  /** The result ("0.256 m"). */
+  result: string;
 }
 
 /** Resolves a result dimension that may depend on the arguments. */
