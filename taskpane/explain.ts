@@ -12,6 +12,7 @@ import { callView, type CallView, pairCalls } from "../workbook/callView";
 import { formatValue } from "../workbook/format";
 import { callSites, directPrecedents, evaluationOrder, type PrecedentRef, replaceArgument, type CallSite } from "../workbook/formula";
 import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../workbook/model";
+import { splitReference } from "../workbook/address";
 import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../workbook/recalc";
 import { displayFormula, hasNappeCall, resolveNames } from "../workbook/storedForm";
 import type { LabelSource } from "../workbook/unitCheck";
@@ -25,6 +26,8 @@ interface UnitWarning {
   fixedFormula?: string;
   /** Short label for the fix button: Inputs!B14&" ft". */
   fixLabel?: string;
+  /** The input cell the fix joins a unit to, and that unit: other formulas reading it are offered the same fix. */
+  input?: { sheet: string; address: string; unit: string };
 }
 
 /** One call as the pane shows it: the one call-view model, its text in the formula, and the unit fixes it offers. */
@@ -50,7 +53,7 @@ export interface CellExplanation {
 
 
 /** Reads the formula's direct precedents from the host into a small workbook model. */
-async function snapshot(port: HostPort, sheet: string, address: string, formula: string): Promise<{ wb: WorkbookModel; labels: Map<string, string[]>; formats: Map<string, string | undefined> }> {
+async function snapshot(port: HostPort, sheet: string, address: string, formula: string): Promise<{ wb: WorkbookModel; labels: Map<string, string[]>; formats: Map<string, string | undefined>; formulas: Map<string, string> }> {
   const target = parseAddress(address);
   const wb: WorkbookModel = { sheets: [] };
   const sheetModel = (name: string) => {
@@ -71,6 +74,9 @@ async function snapshot(port: HostPort, sheet: string, address: string, formula:
   }
   const labels = new Map<string, string[]>();
   const formats = new Map<string, string | undefined>();
+  // Precedents' own formulas, for the unit check to follow plain references (=Inputs!B14) to the input they copy.
+  const formulas = new Map<string, string>();
+  const follow: { sheet: string; address: string; formula: string }[] = [];
   for (const ref of refs) {
     const from = ref.from ?? { row: ref.row!, col: ref.col! };
     const to = ref.to ?? from;
@@ -84,6 +90,10 @@ async function snapshot(port: HostPort, sheet: string, address: string, formula:
         if (ref.sheet === sheet && r === target.row && col === target.col) return;
         // Precedents keep the host's values: their own formulas were already calculated there.
         put({ sheet: ref.sheet, address: addressOf(r, col), row: r, col, value: c.value, numFmt: c.numberFormat });
+        if (c.formula) {
+          formulas.set(`${ref.sheet}!${addressOf(r, col)}`, c.formula);
+          follow.push({ sheet: ref.sheet, address: addressOf(r, col), formula: c.formula });
+        }
       }),
     );
     if (!ref.from) {
@@ -92,13 +102,32 @@ async function snapshot(port: HostPort, sheet: string, address: string, formula:
       formats.set(`${ref.sheet}!${a}`, cells[0]?.[0]?.numberFormat);
     }
   }
-  return { wb, labels, formats };
+  // Up to three plain references deep: the labels and formats of the cells they copy.
+  for (let depth = 0; depth < 3 && follow.length; depth++) {
+    const next = follow.splice(0);
+    for (const f of next) {
+      const m = /^\s*((?:'(?:[^']|'')+'|[A-Za-z_][A-Za-z0-9_.]*)!)?\$?([A-Za-z]{1,3})\$?(\d+)\s*$/.exec(f.formula);
+      if (!m) continue;
+      const t = splitReference(`${m[1] ?? ""}${m[2]}${m[3]}`, f.sheet);
+      const key = `${t.sheet}!${t.address.toUpperCase()}`;
+      if (labels.has(key)) continue;
+      labels.set(key, await port.labelsNear(t.sheet, t.address.toUpperCase()));
+      const target = await port.cell(t.sheet, t.address.toUpperCase());
+      formats.set(key, target.numberFormat);
+      if (target.formula) {
+        formulas.set(key, target.formula);
+        follow.push({ sheet: t.sheet, address: t.address.toUpperCase(), formula: target.formula });
+      }
+    }
+  }
+  return { wb, labels, formats, formulas };
 }
 
-function labelSourceFrom(labels: Map<string, string[]>, formats: Map<string, string | undefined>): LabelSource {
+function labelSourceFrom(labels: Map<string, string[]>, formats: Map<string, string | undefined>, formulas: Map<string, string>): LabelSource {
   return {
     labelsNear: (sheet, row, col) => labels.get(`${sheet}!${addressOf(row, col)}`) ?? [],
     numberFormat: (sheet, row, col) => formats.get(`${sheet}!${addressOf(row, col)}`),
+    formula: (sheet, row, col) => formulas.get(`${sheet}!${addressOf(row, col)}`),
   };
 }
 
@@ -108,7 +137,9 @@ function explainCall(rec: CallRecord, site: CallSite | undefined, formula: strin
   const unitWarnings = view.unitFindings.map((f): UnitWarning => {
     const arg = site?.args[spec.params.findIndex((p) => p.name === f.arg)];
     const joined = arg && f.unit ? `${/^[A-Za-z0-9_$!'. ]+$/.test(arg.text) ? arg.text : `(${arg.text})`}&" ${f.unit}"` : undefined;
-    return { message: f.message, fixedFormula: arg && joined ? displayFormula(replaceArgument(formula, arg, joined)) : undefined, fixLabel: joined };
+    const plain = arg && /^((?:'(?:[^']|'')+'|[A-Za-z_][A-Za-z0-9_.]*)!)?\$?[A-Za-z]{1,3}\$?\d+$/.test(arg.text);
+    const input = plain && f.unit ? { ...splitReference(arg.text.replace(/\$/g, ""), sheet), unit: f.unit } : undefined;
+    return { message: f.message, fixedFormula: arg && joined ? displayFormula(replaceArgument(formula, arg, joined)) : undefined, fixLabel: joined, input };
   });
   return { ...view, text: site ? displayFormula(formula.slice(site.start, site.end)) : `NAPPE.${rec.id}(…)`, unitWarnings };
 }
@@ -173,7 +204,7 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
   const { row, col } = parseAddress(address);
   const model = snap.wb.sheets.find((s) => s.name === sheet)!.cells.get(cellKey(row, col))!;
   const computed = engine.compute(model);
-  const labels = labelSourceFrom(snap.labels, snap.formats);
+  const labels = labelSourceFrom(snap.labels, snap.formats, snap.formulas);
   const pairs = pairCalls(computed.calls, sites);
   const calls = computed.calls.map((rec, i) => explainCall(rec, pairs[i], formula, sheet, labels));
   // Outermost first reads best: reverse evaluation order.

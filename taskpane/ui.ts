@@ -16,6 +16,7 @@ import { crossCheckCell } from "./crossCheck";
 import { formatNumber } from "../workbook/format";
 import { addressOf, parseAddress } from "../workbook/address";
 import { derivationText } from "../workbook/derivation";
+import { sameInputFixes } from "./sameInput";
 
 const CAUTION_TEXT = GENERAL_CAUTIONS.join(" ");
 
@@ -59,6 +60,8 @@ export interface PaneContext {
   port: HostPort;
   /** Shows a short status line. */
   say(text: string): void;
+  /** Shows (or, with null, clears) a box above the cell view that stays until the selection changes. */
+  notice(content: HTMLElement | null): void;
 }
 
 function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext, refresh: () => void): HTMLElement {
@@ -95,6 +98,7 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
         writeAction(ctx, `join the unit in ${cell.sheet}!${cell.address}`, async () => {
           await ctx.port.setFormula(cell.sheet, cell.address, w.fixedFormula!);
           ctx.say(`Joined the unit in ${cell.sheet}!${cell.address}.`);
+          if (w.input) ctx.notice(await sameInputNotice(ctx, w.input, cell, refresh));
           refresh();
         }),
       );
@@ -108,6 +112,27 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
   card.append(list("Cautions", call.cautions, "cautions"));
   card.append(collapsible("Sources", call.sources));
   return card;
+}
+
+/** After a fix: the other formulas reading the same input, with "Fix all" so the input is read in one unit everywhere. */
+async function sameInputNotice(ctx: PaneContext, input: { sheet: string; address: string; unit: string }, cell: CellExplanation, refresh: () => void): Promise<HTMLElement | null> {
+  const fixes = await sameInputFixes(ctx.port, input, input.unit, cell);
+  if (!fixes.length) return null;
+  const where = `${input.sheet}!${input.address}`;
+  const box = el("section", "status warning same-input", el("p", "", `${fixes.length} other ${fixes.length === 1 ? "formula reads" : "formulas read"} ${where} as a bare number too:`));
+  const items = el("ul", "");
+  for (const f of fixes) items.append(el("li", "", el("strong", "", `${f.sheet}!${f.address}`), " ", el("code", "", `=${f.formula}`), " → ", el("code", "", `=${f.fixed}`)));
+  const all = el("button", "fix-all", `Fix all ${fixes.length}`);
+  all.addEventListener("click", () =>
+    writeAction(ctx, "fix them all", async () => {
+      for (const f of fixes) await ctx.port.setFormula(f.sheet, f.address, f.fixed);
+      ctx.say(`Joined " ${input.unit}" to ${where} in ${fixes.length} more ${fixes.length === 1 ? "formula" : "formulas"}.`);
+      ctx.notice(null);
+      refresh();
+    }),
+  );
+  box.append(items, all, el("p", "", `Or, if the number is in fact in the base unit, correct the label of ${where} instead and undo the fix.`));
+  return box;
 }
 
 /** The cross-check of a plain (hand) formula: pick the quantity, see the verdict and the departing steps, keep the check. */
@@ -255,9 +280,10 @@ function guideView(ctx: PaneContext): HTMLElement {
 export function mountPane(root: HTMLElement, port: HostPort, extraTabs: { name: string; build: (ctx: PaneContext) => HTMLElement }[] = []): PaneContext {
   const status = el("p", "status-line");
   status.setAttribute("role", "status");
-  const ctx: PaneContext = { port, say: (t) => (status.textContent = t) };
+  const noticeArea = el("div", "notice-area");
+  const ctx: PaneContext = { port, say: (t) => (status.textContent = t), notice: (content) => noticeArea.replaceChildren(...(content ? [content] : [])) };
   const cellView = el("div", "cell-view");
-  const tabs = [{ name: "This cell", build: () => cellView }, { name: "Function guide", build: () => guideView(ctx) }, ...extraTabs.map((t) => ({ name: t.name, build: () => t.build(ctx) }))];
+  const tabs = [{ name: "This cell", build: () => el("div", "", noticeArea, cellView) }, { name: "Function guide", build: () => guideView(ctx) }, ...extraTabs.map((t) => ({ name: t.name, build: () => t.build(ctx) }))];
   const bar = el("nav", "tabs");
   bar.setAttribute("role", "tablist");
   const body = el("main", "pane-body");
@@ -295,7 +321,10 @@ export function mountPane(root: HTMLElement, port: HostPort, extraTabs: { name: 
       if (mine === generation) cellView.replaceChildren(el("p", "status error", `Could not read the cell: ${e instanceof Error ? e.message : String(e)}`));
     }
   };
-  port.onSelectionChanged(() => void refresh());
+  port.onSelectionChanged(() => {
+    ctx.notice(null);
+    void refresh();
+  });
   void refresh();
   return ctx;
 }

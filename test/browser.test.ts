@@ -122,7 +122,16 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
     await containsText(page.locator("code.formula").first(), 'Inputs!B14&" ft"');
     await countIs(page.locator(".unit-warning"), 0);
     await containsText(page.locator(".call table.args"), "30 ft");
+    // The same input is read elsewhere: the table cell E4 copies it under "Length (m)".
+    const others = page.locator(".same-input");
+    await containsText(others, "1 other formula reads Inputs!B14 as a bare number too");
+    await containsText(others, 'Calc!E4 =Inputs!B14 → =Inputs!B14&" ft"');
     await page.screenshot({ path: join(shots, "pane-unit-fixed.png") });
+    await others.getByRole("button", { name: "Fix all 1" }).click();
+    await containsText(page.locator(".status-line"), 'Joined " ft" to Inputs!B14 in 1 more formula');
+    await selectCell(page, "Calc", "B25");
+    await containsText(page.locator(".call table.args"), "Length (m) → length in m");
+    await countIs(page.locator(".unit-warning"), 0);
   });
 
   it("finds a function in the guide and inserts it into the selected cell", async () => {

@@ -9,6 +9,7 @@ import { MemoryHost } from "../taskpane/host/memory";
 import { AUDIT_SHEET, auditOf, checkWorkbook, writeAuditSheet } from "../taskpane/workbookCheck";
 import { auditSheetRows } from "../workbook/audit";
 import { writeAction } from "../taskpane/actions";
+import { sameInputFixes } from "../taskpane/sameInput";
 
 const root = join(__dirname, "..");
 const demo = () => readWorkbook(join(root, "demo/orchard-pumping-station.xlsx"));
@@ -195,5 +196,52 @@ describe("implausible magnitudes", () => {
   it("is quiet for ordinary sizes", async () => {
     const host = book((ws) => (ws.getCell("B2").value = { formula: "NAPPE.VELOCITY(0.02, 0.15)" }));
     expect((await explainCell(host, "S", "B2")).calls[0].unitWarnings).toEqual([]);
+  });
+});
+
+describe("units traced through references and tables", () => {
+  function traced(): MemoryHost {
+    const wb = new ExcelJS.Workbook();
+    const inputs = wb.addWorksheet("Inputs");
+    inputs.getCell("A1").value = "Pipe length (ft)";
+    inputs.getCell("B1").value = 100;
+    inputs.getCell("A2").value = "Flow (gpm)";
+    inputs.getCell("B2").value = 400;
+    const calc = wb.addWorksheet("Calc");
+    // A copy of the input under a "Length (m)" header: the table reads 100 ft as 100 m.
+    [["Length (m)", "ID (in)", "Roughness (mm)", "K"], [{ formula: "Inputs!B1" }, 6.065, 0.045, 2]].forEach((row, i) => row.forEach((v, j) => (calc.getCell(1 + i, 1 + j).value = v as ExcelJS.CellValue)));
+    calc.getCell("F1").value = "Flow copy";
+    calc.getCell("F2").value = { formula: "Inputs!B2" }; // a plain reference to a labelled input
+    calc.getCell("G1").value = { formula: 'NAPPE.SYSTEM.HEAD(Inputs!B2&" gpm", 10, A1:D2)' };
+    calc.getCell("G2").value = { formula: 'NAPPE.VELOCITY(F2, "6 in")' };
+    return new MemoryHost(fromExcelJS(wb));
+  }
+  it("flags a table cell that copies an input labelled in another unit than its column header", async () => {
+    const e = await explainCell(traced(), "Calc", "G1");
+    expect(e.calls[0].unitWarnings.map((w) => w.message)).toEqual([
+      'A2, under "Length (m)", copies Inputs!B1, labelled "Pipe length (ft)": the table reads its number in m, not ft. Convert it in the table (or change the header), or correct the label.',
+    ]);
+  });
+  it("follows a plain reference to the labelled input it copies", async () => {
+    const e = await explainCell(traced(), "Calc", "G2");
+    expect(e.calls[0].unitWarnings.map((w) => w.message)).toContainEqual(expect.stringMatching(/^F2 copies Inputs!B2, labelled "Flow \(gpm\)", but its bare number 400 is read as 400 m³\/s/));
+    expect(e.calls[0].unitWarnings.map((w) => w.fixLabel)).toContain('F2&" gpm"');
+  });
+  it("the whole-workbook check finds both, as the headless audit does", async () => {
+    const check = await checkWorkbook(traced());
+    expect(check.rows.filter((r) => r.status === "warning").map((r) => r.address).sort()).toEqual(["G1", "G2"]);
+  });
+});
+
+describe("the same input read elsewhere", () => {
+  it("lists, after the fix of Calc!B21, the table cell that copies Inputs!B14 too, with its fix", async () => {
+    const host = new MemoryHost(await demo());
+    const fixes = await sameInputFixes(host, { sheet: "Inputs", address: "B14" }, "ft", { sheet: "Calc", address: "B21" });
+    expect(fixes).toEqual([{ sheet: "Calc", address: "E4", formula: "Inputs!B14", fixed: 'Inputs!B14&" ft"' }]);
+    // Applied, the table reads 30 ft: no unit finding is left on the calls that read the table.
+    for (const f of fixes) await host.setFormula(f.sheet, f.address, f.fixed);
+    const e = await explainCell(host, "Calc", "B25");
+    expect(e.calls[0].unitWarnings).toEqual([]);
+    expect(e.calls[0].args.find((a) => a.name === "segments")!.base).toMatch(/Length \(m\) → length in m/);
   });
 });

@@ -75,5 +75,6 @@ export function labelSource(wb: WorkbookModel): LabelSource {
       return found;
     },
     numberFormat: (sheet, row, col) => getCell(wb, sheet, row, col)?.numFmt,
+    formula: (sheet, row, col) => getCell(wb, sheet, row, col)?.formula,
   };
 }

@@ -8,13 +8,84 @@ import type { FunctionSpec } from "../functions/catalog/types";
 import type { Evaluation } from "../functions/bind/evaluate";
 import { type Dimension, DIMENSIONS, hasUnit } from "../functions/units/dimensions";
 import { dimensionOfUnit, toBase } from "../functions/units/quantity";
-import { parseAddress, splitReference } from "./address";
+import type { Table } from "../functions/tables/table";
+import { addressOf, parseAddress, sheetPrefix, splitReference } from "./address";
 
 export interface LabelSource {
   /** Text of the nearest label cells: to the left on the same row, then above. */
   labelsNear(sheet: string, row: number, col: number): string[];
   /** The cell's number format, if any. */
   numberFormat(sheet: string, row: number, col: number): string | undefined;
+  /** The cell's formula (without "="), where the source knows it: lets the check follow plain references. */
+  formula?(sheet: string, row: number, col: number): string | undefined;
+}
+
+const PLAIN_REFERENCE = /^\s*((?:'(?:[^']|'')+'|[A-Za-z_][A-Za-z0-9_.]*)!)?\$?([A-Za-z]{1,3})\$?(\d+)\s*$/;
+
+/**
+ * Where a cell's number comes from: the cell itself, or, while its formula is a plain reference
+ * (=Inputs!B14), the cell it copies. Returns each cell on the way, the cell itself first.
+ */
+function referenceChain(labels: LabelSource, sheet: string, row: number, col: number): { sheet: string; row: number; col: number }[] {
+  const chain = [{ sheet, row, col }];
+  for (let i = 0; i < 10; i++) {
+    const here = chain[chain.length - 1];
+    const m = PLAIN_REFERENCE.exec(labels.formula?.(here.sheet, here.row, here.col) ?? "");
+    if (!m) break;
+    const target = splitReference(`${m[1] ?? ""}${m[2]}${m[3]}`, here.sheet);
+    const { row: r, col: c } = parseAddress(target.address);
+    chain.push({ sheet: target.sheet, row: r, col: c });
+  }
+  return chain;
+}
+
+/** The first label or number format on the way that declares a unit, with the cell it belongs to. */
+function declaredOnChain(labels: LabelSource, sheet: string, row: number, col: number, here = sheet): { text: string; declared: { unit: string; dim: Dimension }; cell: string } | undefined {
+  for (const c of referenceChain(labels, sheet, row, col)) {
+    for (const text of [labels.numberFormat(c.sheet, c.row, c.col), ...labels.labelsNear(c.sheet, c.row, c.col)]) {
+      const declared = text ? declaredUnit(text) : undefined;
+      if (text && declared) return { text, declared, cell: `${c.sheet === here ? "" : sheetPrefix(c.sheet)}${addressOf(c.row, c.col)}` };
+    }
+  }
+  return undefined;
+}
+
+/**
+ * Table columns whose header names one unit while a cell copies an input labelled in another
+ * ("Length (m)" over =Inputs!B14, labelled "Suction pipe length (ft)"): the same mistake as a
+ * mislabelled bare number.
+ */
+function tableFindings(spec: FunctionSpec, evaluation: Evaluation, refs: readonly (string | undefined)[], here: string, labels: LabelSource): UnitFinding[] {
+  const findings: UnitFinding[] = [];
+  spec.params.forEach((p, i) => {
+    const ref = refs[i];
+    const reading = evaluation.readings.find((r) => r.name === p.name);
+    if (!ref || !ref.includes(":") || p.kind !== "table" || reading?.how !== "table") return;
+    const table = reading.value as Table;
+    const { sheet, address } = splitReference(ref, here);
+    const [from] = address.split(":");
+    const origin = parseAddress(from);
+    table.columns.forEach((column) => {
+      if (!column.header || !column.unit) return;
+      for (let k = 0; k < table.rows; k++) {
+        const row = origin.row + (table.hasHeader ? 1 : 0) + k;
+        const col = origin.col + column.index;
+        const chain = referenceChain(labels, sheet, row, col);
+        if (chain.length < 2) continue;
+        const found = declaredOnChain(labels, chain[1].sheet, chain[1].row, chain[1].col, here);
+        if (!found || found.declared.dim !== column.dim) continue;
+        const same = Math.abs(toBase(p.name, 1, column.dim, found.declared.unit) / toBase(p.name, 1, column.dim, column.unit) - 1) < 1e-9;
+        if (same) continue;
+        const cell = `${sheet === here ? "" : sheetPrefix(sheet)}${addressOf(row, col)}`;
+        findings.push({
+          arg: p.name,
+          ref: cell,
+          message: `${cell}, under "${column.header}", copies ${found.cell}, labelled "${found.text}": the table reads its number in ${column.unit}, not ${found.declared.unit}. Convert it in the table (or change the header), or correct the label.`,
+        });
+      }
+    });
+  });
+  return findings;
 }
 
 export interface UnitFinding {
@@ -54,7 +125,7 @@ export function declaredUnit(text: string): { unit: string; dim: Dimension } | u
  * number, whose label or number format declares a unit other than the one it was read in.
  */
 export function checkCallUnits(spec: FunctionSpec, evaluation: Evaluation, refs: readonly (string | undefined)[], here: string, labels: LabelSource): UnitFinding[] {
-  const findings: UnitFinding[] = [...implausibleMagnitudes(spec, evaluation, refs)];
+  const findings: UnitFinding[] = [...implausibleMagnitudes(spec, evaluation, refs), ...tableFindings(spec, evaluation, refs, here, labels)];
   spec.params.forEach((p, i) => {
     const ref = refs[i];
     if (!ref || ref.includes(":") || p.kind !== "quantity" || !hasUnit(p.dim)) return;
@@ -62,10 +133,10 @@ export function checkCallUnits(spec: FunctionSpec, evaluation: Evaluation, refs:
     if (!reading || reading.how !== "base unit" || typeof reading.raw !== "number") return;
     const { sheet, address } = splitReference(ref, here);
     const { row, col } = parseAddress(address);
-    const sources = [labels.numberFormat(sheet, row, col), ...labels.labelsNear(sheet, row, col)].filter((t): t is string => Boolean(t));
-    for (const text of sources) {
-      const declared = declaredUnit(text);
-      if (!declared) continue;
+    // The cell's own label, or the label of the input it copies through plain references.
+    const onChain = declaredOnChain(labels, sheet, row, col, here);
+    for (const { text, declared, cell } of onChain ? [onChain] : []) {
+      const labelled = cell === ref || `${sheetPrefix(sheet)}${cell}` === ref || cell === address ? `${ref} is labelled "${text}"` : `${ref} copies ${cell}, labelled "${text}",`;
       const base = DIMENSIONS[p.dim].base;
       if (declared.dim !== p.dim && !(DIMENSIONS[declared.dim].base === base)) {
         findings.push({ arg: p.name, ref, message: `${ref} is labelled "${text}" (${DIMENSIONS[declared.dim].noun.replace(/^an? /, "")}) but ${p.name} expects ${DIMENSIONS[p.dim].noun}.` });
@@ -77,7 +148,7 @@ export function checkCallUnits(spec: FunctionSpec, evaluation: Evaluation, refs:
       findings.push({
         arg: p.name,
         ref,
-        message: `${ref} is labelled "${text}" but its bare number ${reading.raw} is read as ${reading.raw} ${DIMENSIONS[p.dim].baseLabel}: join the unit, ${fixRef}&" ${declared.unit}", or correct the label.`,
+        message: `${labelled} but its bare number ${reading.raw} is read as ${reading.raw} ${DIMENSIONS[p.dim].baseLabel}: join the unit, ${fixRef}&" ${declared.unit}", or correct the label.`,
         fix: `${fixRef}&" ${declared.unit}"`,
         unit: declared.unit,
       });

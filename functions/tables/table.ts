@@ -55,6 +55,8 @@ interface TableColumn {
   values: (number | null)[];
   /** Text labels (impeller names) where cells were labels, else null. */
   labels: (string | null)[];
+  /** Position of the column in the range (0 for the first). */
+  index: number;
 }
 
 export interface Table {
@@ -123,12 +125,12 @@ export function readTable(arg: string, kind: TableKind, raw: RawArg): Table {
   const columns: TableColumn[] = [];
   assigned.forEach((a, j) => {
     if (!a) return;
-    columns.push(readColumn(arg, a.spec, a.header, a.unit, body.map((row) => row[j]), hasHeader ? 2 : 1));
+    columns.push({ ...readColumn(arg, a.spec, a.header, a.unit, body.map((row) => row[j]), hasHeader ? 2 : 1), index: j });
   });
   return { kind, hasHeader, rows: body.length, columns };
 }
 
-function readColumn(arg: string, spec: RoleSpec, header: string | undefined, unit: string, cells: RawArg[], firstRow: number): TableColumn {
+function readColumn(arg: string, spec: RoleSpec, header: string | undefined, unit: string, cells: RawArg[], firstRow: number): Omit<TableColumn, "index"> {
   const label = header ? `"${header}"` : spec.label;
   const where = (i: number) => `row ${i + firstRow}, column ${label}`;
   const dimNoun = DIMENSIONS[spec.dim].noun;
