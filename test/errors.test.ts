@@ -16,6 +16,26 @@ describe("defects found on the way stay fixed", () => {
   });
 });
 
+describe("messages quote values in the units the user gave", () => {
+  const family = [
+    ["Impeller (in)", "Flow (gpm)", "Head (ft)"],
+    [9, 0, 105], [9, 200, 95], [9, 420, 65],
+    [10, 0, 115], [10, 200, 105], [10, 420, 75],
+  ];
+  it("a duty flow beyond every impeller, in gpm (the family's header unit)", () => {
+    expect(failure("PUMP.SELECT", family, "500 gpm", "50 ft").message).toBe("flow: 500 gpm is outside every impeller's curve in the family (the largest reaches 420 gpm)");
+  });
+  it("a duty head no impeller reaches, in ft", () => {
+    expect(failure("PUMP.SELECT", family, "200 gpm", "130 ft").message).toBe("head: no impeller in the family gives 130 ft at 200 gpm; the largest gives 105 ft");
+  });
+  it("a flow beyond a curve, in the curve's header unit", () => {
+    expect(failure("PUMP.HEAD", "450 gpm", [["Flow (gpm)", "Head (ft)"], [0, 100], [200, 92], [400, 60]]).message).toBe("flow: 450 gpm is outside the head curve (0 gpm to 400 gpm); values are never extrapolated");
+  });
+  it("a velocity warning in the base unit when the flow was given as a bare number", () => {
+    expect(run("HEADLOSS", 0.1, 0.15, 10, 4.5e-5).warnings[0]).toMatch(/^Velocity 5\.659 m\/s is above the 3 m\/s/);
+  });
+});
+
 describe("bad input gives a worksheet error naming the argument", () => {
   it("wrong dimension is #VALUE!", () => {
     const e = failure("VELOCITY", "100 gpm", "35 psi");

@@ -71,6 +71,7 @@ describe("fuzzing every worksheet function through the built bundle", () => {
           const call = `NAPPE.${id}(${JSON.stringify(args).slice(0, 200)})`;
           // An internal failure is a defect, not an answer: the message must name an argument of the call.
           expect(err.message, call).not.toMatch(/failed unexpectedly/);
+          expect(err.message, call).not.toMatch(/[⟦⟧]/); // every marked quantity is written out in a unit
           expect(names.some((n) => err.message.startsWith(`${n}:`)), `${call}: ${err.message}`).toBe(true);
         }
       }),

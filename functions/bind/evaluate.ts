@@ -3,7 +3,7 @@
  * (or a choice, or a unit name), calls the calc core, and converts the result to the requested
  * unit. Pure: no Office, no DOM. The worksheet binding and the pane both use it.
  */
-import { CalcError, type Step } from "../calc/_lib/result";
+import { CalcError, type Step, unquote } from "../calc/_lib/result";
 import type { Args, Cell, FunctionSpec, ParamSpec } from "../catalog/types";
 import { resultDimension } from "../catalog/types";
 import { type Dimension, DIMENSIONS, hasUnit } from "../units/dimensions";
@@ -180,10 +180,53 @@ function readOne(p: Exclude<ParamSpec, { kind: "table" }>, raw: number | string 
   }
 }
 
+/**
+ * Rewrites the quantities a calc message marks (calc/_lib/result.ts, `quoted`) in the unit the
+ * user gave for that kind of quantity: a text quantity's unit, a table column's header unit, or
+ * the `unit` argument for the result's own dimension; the base unit otherwise.
+ */
+function userUnits(readings: readonly ArgReading[], spec: FunctionSpec, args: Args): (text: string) => string {
+  const units = new Map<Dimension, string>();
+  // Text quantities first; then the flow, head, NPSHr and power columns of tables (not an impeller's size or a pipe's bore).
+  for (const r of readings) {
+    const p = spec.params.find((x) => x.name === r.name);
+    if (r.how === "text quantity" && p?.kind === "quantity" && !units.has(p.dim)) units.set(p.dim, r.unit);
+  }
+  for (const r of readings) {
+    if (r.how !== "table") continue;
+    for (const c of (r.value as Table).columns) if (c.header && ["flow", "head", "npshr", "power"].includes(c.role) && !units.has(c.dim)) units.set(c.dim, c.unit);
+  }
+  const out = args["unit"];
+  if (typeof out === "string" && !spec.result.spill) {
+    const dim = typeof spec.result.dim === "string" ? spec.result.dim : undefined;
+    if (dim && !units.has(dim)) units.set(dim, out);
+  }
+  return (text) =>
+    unquote(text, (value, dim) => {
+      const unit = units.get(dim);
+      if (unit) {
+        try {
+          return `${Number(fromBase("unit", value, dim, unit).toPrecision(4))} ${unit}`;
+        } catch {
+          // An odd unit text: fall back to the base unit.
+        }
+      }
+      return `${Number(value.toPrecision(4))} ${DIMENSIONS[dim].baseLabel}`.trimEnd();
+    });
+}
+
 /** Evaluates a function from raw worksheet arguments. Throws CalcError on bad input. */
 export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evaluation {
   const { args, readings } = readArgs(spec, rawArgs);
-  const result = spec.compute(args);
+  const inUserUnits = userUnits(readings, spec, args);
+  let result: ReturnType<FunctionSpec["compute"]>;
+  try {
+    result = spec.compute(args);
+  } catch (e) {
+    if (e instanceof CalcError) throw new CalcError(e.arg, inUserUnits(e.detail), e.kind);
+    throw e;
+  }
+  result = { ...result, warnings: result.warnings.map(inUserUnits) };
   const dim = resultDimension(spec, args);
   if (spec.result.spill || typeof result.value !== "number") {
     if (typeof result.value === "number") throw new Error(`${spec.id} is declared as spilling but returned a number`);

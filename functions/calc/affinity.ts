@@ -1,5 +1,5 @@
 /** Affinity laws for a centrifugal pump: flow ∝ r, head and NPSHr ∝ r², power ∝ r³. */
-import { CalcError, type CalcResult, ok, requireFinite, step } from "./_lib/result";
+import { CalcError, type CalcResult, ok, requireFinite, step, quoted } from "./_lib/result";
 import { allRoots } from "./_lib/solve";
 
 export const AFFINITY_KINDS = ["flow", "head", "npshr", "power"] as const;
@@ -41,7 +41,7 @@ export function affinityRatioThrough(head: { min: number; max: number; at(q: num
   const g = (r: number) => r * r * head.at(Math.min(Math.max(flow / r, head.min), head.max)) - dutyHead;
   const roots = allRoots(g, rLo, rHi, 400);
   if (!roots.length) {
-    throw new CalcError("head", `no speed or diameter ratio moves this curve through ${flow.toPrecision(4)} m³/s at ${dutyHead.toPrecision(4)} m while staying on the curve's flow range`);
+    throw new CalcError("head", `no speed or diameter ratio moves this curve through ${quoted(flow, "flow")} at ${quoted(dutyHead, "length")} while staying on the curve's flow range`);
   }
   const r = roots.reduce((best, x) => (Math.abs(Math.log(x)) < Math.abs(Math.log(best)) ? x : best));
   return ok(r, [], [

@@ -1,5 +1,5 @@
 /** Head losses in full pipes: Darcy–Weisbach, Hazen–Williams and loss coefficients. */
-import { CalcError, type CalcResult, ok, requireNonNegative, requirePositive, step } from "./_lib/result";
+import { CalcError, type CalcResult, ok, requireNonNegative, requirePositive, step, quoted } from "./_lib/result";
 import { STANDARD_GRAVITY } from "./_lib/constants";
 import { frictionFactor } from "./friction";
 import { meanVelocity, reynoldsNumber } from "./pipeFlow";
@@ -21,7 +21,7 @@ export function darcyHeadLoss(flow: number, diameter: number, length: number, ro
   }
   const f = frictionFactor(re, roughness / diameter, "colebrook");
   const warnings = [...f.warnings];
-  if (v > 3) warnings.push(`Velocity ${v.toFixed(2)} m/s is above the 3 m/s many designers use as a limit for water mains (common practice).`);
+  if (v > 3) warnings.push(`Velocity ${quoted(v, "velocity")} is above the ${quoted(3, "velocity")} many designers use as a limit for water mains (common practice).`);
   const steps = [
     step("V", "mean velocity", v, "velocity", "continuity, V = 4Q/(πD²)"),
     step("Re", "Reynolds number", re, "ratio", "Re = VD/ν"),
@@ -40,7 +40,7 @@ export function hazenWilliamsHeadLoss(flow: number, diameter: number, length: nu
   const warnings: string[] = [];
   if (cFactor < 40 || cFactor > 160) warnings.push(`C = ${cFactor} is outside the usual 40 to 160 of published tables.`);
   if (diameter < 0.05) warnings.push("Hazen–Williams is meant for pipes of about 50 mm and larger.");
-  if (v > 3) warnings.push(`Velocity ${v.toFixed(2)} m/s is above about 3 m/s, where Hazen–Williams loses accuracy.`);
+  if (v > 3) warnings.push(`Velocity ${quoted(v, "velocity")} is above about ${quoted(3, "velocity")}, where Hazen–Williams loses accuracy.`);
   const h = (10.67 * length * Math.pow(flow, 1.852)) / (Math.pow(cFactor, 1.852) * Math.pow(diameter, 4.8704));
   return ok(h, warnings, [step("V", "mean velocity", v, "velocity", "continuity, V = 4Q/(πD²)"), step("S", "hydraulic gradient, m per m of pipe", length > 0 ? h / length : 0, "ratio", "h/L")]);
 }

@@ -1,5 +1,5 @@
 /** The operating point: where the pump's head curve meets the system curve. */
-import { CalcError, type CalcResult, ok, step } from "./_lib/result";
+import { CalcError, type CalcResult, ok, step, quoted } from "./_lib/result";
 import { allRoots } from "./_lib/solve";
 import type { Interpolant } from "./pumpCurve";
 
@@ -20,12 +20,12 @@ export function operatingPoint(pump: Interpolant, systemAt: (flow: number) => nu
     if (diff(pump.min) < 0) {
       throw new CalcError(
         "system",
-        `the system needs more head than the pump gives anywhere on its curve (at ${pump.min.toPrecision(4)} m³/s: pump ${pump.at(pump.min).toPrecision(4)} m, system ${systemAt(pump.min).toPrecision(4)} m)`,
+        `the system needs more head than the pump gives anywhere on its curve (at ${quoted(pump.min, "flow")}: pump ${quoted(pump.at(pump.min), "length")}, system ${quoted(systemAt(pump.min), "length")})`,
       );
     }
     throw new CalcError(
       "system",
-      `the curves do not cross within the pump curve: at its last point (${pump.max.toPrecision(4)} m³/s) the pump still gives ${pump.at(pump.max).toPrecision(4)} m against ${systemAt(pump.max).toPrecision(4)} m needed, so it would run beyond the curve`,
+      `the curves do not cross within the pump curve: at its last point (${quoted(pump.max, "flow")}) the pump still gives ${quoted(pump.at(pump.max), "length")} against ${quoted(systemAt(pump.max), "length")} needed, so it would run beyond the curve`,
     );
   }
   const flow = roots[roots.length - 1];

@@ -6,7 +6,7 @@
  *  - "quadratic" / "cubic": a least-squares polynomial through all the points.
  * Flows outside the points are an error, never an extrapolation.
  */
-import { CalcError } from "./_lib/result";
+import { CalcError, quoted } from "./_lib/result";
 import { evaluatePolynomial, fitPolynomial } from "./_lib/leastSquares";
 
 export const CURVE_FITS = ["pchip", "quadratic", "cubic"] as const;
@@ -107,7 +107,7 @@ const RANGE_SLACK = 1e-9;
 export function valueAt(arg: string, what: string, f: Interpolant, flow: number): number {
   const slack = RANGE_SLACK * Math.max(Math.abs(f.max), 1e-300);
   if (!(flow >= f.min - slack && flow <= f.max + slack)) {
-    throw new CalcError(arg, `${flow.toPrecision(6)} m³/s is outside the ${what} curve (${f.min.toPrecision(6)} to ${f.max.toPrecision(6)} m³/s); values are never extrapolated`);
+    throw new CalcError(arg, `${quoted(flow, "flow")} is outside the ${what} curve (${quoted(f.min, "flow")} to ${quoted(f.max, "flow")}); values are never extrapolated`);
   }
   return f.at(Math.min(Math.max(flow, f.min), f.max));
 }

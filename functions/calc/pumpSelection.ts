@@ -2,7 +2,7 @@
  * Working with pump curves as a whole: shaft power along a curve, curves of several identical
  * pumps, and choosing the smallest impeller of a family that meets a duty. SI in and out.
  */
-import { CalcError, type CalcResult, ok, step, type Step } from "./_lib/result";
+import { CalcError, type CalcResult, ok, step, type Step, quoted } from "./_lib/result";
 import { hydraulicPower } from "./power";
 import { curveInterpolant, type Impeller, type PumpCurve, valueAt } from "./pumpCurve";
 
@@ -57,6 +57,6 @@ export function selectImpeller(impellers: readonly Impeller[], flow: number, hea
     };
     return ok({ impeller, head: h, efficiency: at("efficiency"), npshr: at("npshr") }, [], steps);
   }
-  if (!reachable) throw new CalcError("flow", `${flow.toPrecision(4)} m³/s is outside every impeller's curve in the family`);
-  throw new CalcError("head", `no impeller in the family gives ${head.toPrecision(4)} m at ${flow.toPrecision(4)} m³/s; the largest gives less`);
+  if (!reachable) throw new CalcError("flow", `${quoted(flow, "flow")} is outside every impeller's curve in the family (the largest reaches ${quoted(Math.max(...impellers.map((i) => curveInterpolant("family", i.curve, "head").max)), "flow")})`);
+  throw new CalcError("head", `no impeller in the family gives ${quoted(head, "length")} at ${quoted(flow, "flow")}; the largest gives ${quoted(steps[steps.length - 1].value, "length")}`);
 }

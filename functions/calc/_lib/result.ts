@@ -62,3 +62,17 @@ export function requireFinite(arg: string, x: number): void {
   if (!Number.isFinite(x)) throw new CalcError(arg, `expected a finite number; got ${x}`);
 }
 
+
+/**
+ * A quantity inside a message, written in base units and marked so that the binding layer can
+ * rewrite it in the unit the user gave for that kind of quantity ("0.02524 m³/s" becomes
+ * "400 gpm" when the flow was given in gpm). Calc code stays in SI; only the words change.
+ */
+export function quoted(value: number, dim: StepDimension): string {
+  return `⟦${dim}:${value}⟧`;
+}
+
+/** The base-unit text of marked quantities, for callers that show messages without a binding. */
+export function unquote(text: string, write: (value: number, dim: StepDimension) => string): string {
+  return text.replace(/⟦([A-Za-z]+):([^⟧]+)⟧/g, (_, dim: string, value: string) => write(Number(value), dim as StepDimension));
+}
