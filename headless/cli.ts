@@ -133,9 +133,9 @@ async function load(file: string, flags: Options["flags"]): Promise<{ wb: Workbo
 }
 
 /** What the run found and did, in one line: always counts found, recalculated and not. */
-export function summaryLine(result: RecalcResult, all = false): string {
-  const n = { ok: 0, warning: 0, error: 0 };
-  for (const c of result.cells) n[c.status]++;
+export function summaryLine(result: RecalcResult, all = false, counted?: Record<"ok" | "warning" | "error", number>): string {
+  const n = counted ?? { ok: 0, warning: 0, error: 0 };
+  if (!counted) for (const c of result.cells) n[c.status]++;
   const k = result.counts;
   const statuses = `${n.ok} ok, ${n.warning} warning, ${n.error} error`;
   const done = `${k.recalculated} recalculated${k.notRecalculated ? `, ${k.notRecalculated} could not be` : ""}`;
@@ -190,7 +190,7 @@ async function main(argv: string[]): Promise<number> {
         return EXIT_EMPTY;
       }
       const report = await writeAudit(wb, result, basename(opts.file), html, xlsx, text, `Nappe audit of ${basename(opts.file)}`);
-      console.log(`${summaryLine(result, flags.all)}\nAudit written:\n  ${html}\n  ${xlsx}\n  ${text}`);
+      console.log(`${summaryLine(result, flags.all, report.counts)} (with the unit check)\nAudit written:\n  ${html}\n  ${xlsx}\n  ${text}`);
       return report.counts.error ? 1 : 0;
     }
     case "handoff": {
@@ -205,7 +205,7 @@ async function main(argv: string[]): Promise<number> {
       }
       const report = buildAudit(result.cells, { title: `Nappe audit of ${basename(opts.file)}`, source: basename(opts.file), found: summaryLine(result) }, labelSource(wb));
       const frozen = await writeHandoff(opts.file, out, result, report, limitsOf(flags));
-      console.log(`${summaryLine(result)}\nHand-off copy written: ${out}\n  ${frozen.nappe} NAPPE formulas frozen to their values${frozen.other ? `, ${frozen.other} formulas of another add-in frozen to their cached values` : ""}; the original is untouched.`);
+      console.log(`${summaryLine(result, false, report.counts)}\nHand-off copy written: ${out}\n  ${frozen.nappe} NAPPE formulas frozen to their values${frozen.other ? `, ${frozen.other} formulas of another add-in frozen to their cached values` : ""}; the original is untouched.`);
       return report.counts.error ? 1 : 0;
     }
     case "demo":
@@ -237,7 +237,7 @@ async function demo(out: string): Promise<number> {
   for (const c of flagged) for (const m of c.messages) console.log(`  ${c.sheet}!${c.address}: ${m}`);
   for (const m of unitFindings) console.log(`  ${m}`);
   await writeHandoff(path, join(out, "orchard-handoff.xlsx"), result, report, DEFAULT_LIMITS);
-  console.log(`\n${summaryLine(result)}`);
+  console.log(`\n${summaryLine(result, false, report.counts)} (with the unit check)`);
   console.log(`Workbook: ${path}\nAudit report: ${join(out, "orchard-audit.html")}\nAudit sheet:  ${join(out, "orchard-audit.xlsx")}\nAudit text:   ${join(out, "orchard-audit.txt")}\nHand-off copy (values, no add-in needed): ${join(out, "orchard-handoff.xlsx")}`);
   console.log(`\n${GENERAL_CAUTIONS.join(" ")}`);
   return report.counts.error ? 1 : 0;
