@@ -139,12 +139,6 @@ async function sameInputNotice(ctx: PaneContext, input: { sheet: string; address
 function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
   const box = el("section", "cross-check");
   box.append(el("h3", "", "Cross-check this hand formula"), el("p", "", "Pick the quantity it computes; Nappe reads its inputs from the cells it uses (by label and unit) and computes the same."));
-  const input = el("input", "search");
-  input.type = "search";
-  input.placeholder = "Quantity: head loss, shaft power, npsh…";
-  input.setAttribute("aria-label", "Quantity the formula computes");
-  const choices = el("ul", "results");
-  choices.setAttribute("aria-label", "Quantities");
   const result = el("div", "cross-check-result");
   const numeric = CATALOG.filter((s) => !s.result.spill && s.id !== "CROSSCHECK");
   const show = async (specId: string) => {
@@ -181,17 +175,8 @@ function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
       result.replaceChildren(el("p", "status error", `Could not cross-check as NAPPE.${specId}: ${e instanceof Error ? e.message : String(e)}`));
     }
   };
-  const render = () => {
-    choices.replaceChildren();
-    for (const spec of searchCatalog(numeric, input.value).slice(0, 8)) {
-      const button = el("button", "fn", `NAPPE.${spec.id}`);
-      button.addEventListener("click", () => void show(spec.id));
-      choices.append(el("li", "", button, el("span", "purpose", spec.purpose)));
-    }
-  };
-  input.addEventListener("input", render);
-  render();
-  box.append(input, choices, result);
+  const picker = functionPicker(numeric, { placeholder: "Quantity: head loss, shaft power, npsh…", label: "Quantity the formula computes", listLabel: "Quantities", most: 8 }, (spec) => void show(spec.id));
+  box.append(picker, result);
   return box;
 }
 
@@ -253,27 +238,31 @@ function guideDetail(spec: FunctionSpec, target: HTMLElement, ctx: PaneContext):
   target.append(list("Assumptions", spec.assumptions), list("Cautions", spec.cautions, "cautions"), collapsible("Sources", spec.sources));
 }
 
-function guideView(ctx: PaneContext): HTMLElement {
-  const view = el("div", "guide");
+/** A search box over the functions with the matching ones listed as buttons (the guide, the cross-check). */
+function functionPicker(specs: readonly FunctionSpec[], text: { placeholder: string; label: string; listLabel: string; most?: number }, pick: (spec: FunctionSpec) => void): HTMLElement {
   const input = el("input", "search");
   input.type = "search";
-  input.placeholder = "Search: head loss, npsh, gpm…";
-  input.setAttribute("aria-label", "Search the functions");
+  input.placeholder = text.placeholder;
+  input.setAttribute("aria-label", text.label);
   const results = el("ul", "results");
-  results.setAttribute("aria-label", "Functions");
-  const detail = el("div", "detail");
+  results.setAttribute("aria-label", text.listLabel);
   const render = () => {
     results.replaceChildren();
-    for (const spec of searchCatalog(CATALOG, input.value)) {
+    for (const spec of searchCatalog(specs, input.value).slice(0, text.most ?? Infinity)) {
       const button = el("button", "fn", `NAPPE.${spec.id}`);
-      button.addEventListener("click", () => guideDetail(spec, detail, ctx));
+      button.addEventListener("click", () => pick(spec));
       results.append(el("li", "", button, el("span", "purpose", spec.purpose)));
     }
   };
   input.addEventListener("input", render);
   render();
-  view.append(input, results, detail);
-  return view;
+  return el("div", "picker", input, results);
+}
+
+function guideView(ctx: PaneContext): HTMLElement {
+  const detail = el("div", "detail");
+  const picker = functionPicker(CATALOG, { placeholder: "Search: head loss, npsh, gpm…", label: "Search the functions", listLabel: "Functions" }, (spec) => guideDetail(spec, detail, ctx));
+  return el("div", "guide", picker, detail);
 }
 
 /** Builds the pane inside `root` and keeps it in step with the selection. */
