@@ -2,7 +2,7 @@
  * The adapter of the formula library, fast-formula-parser (MIT, pinned to an exact version in
  * package.json): the only module that imports it, and the only one that touches its internals
  * (its lexer, its list of functions whose arguments keep their references, its dependency
- * parser, the wording of its "not implemented" error). test/formulaAdapter.test.ts fails if
+ * parser, the wording of its "not implemented" error). test/architecture.test.ts fails if
  * any of those internals change.
  *
  * What it offers: a formula's calls with their arguments' source text and position (to show
