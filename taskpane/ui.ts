@@ -140,11 +140,21 @@ function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
   const box = el("section", "cross-check");
   box.append(el("h3", "", "Cross-check this hand formula"), el("p", "", "Pick the quantity it computes; Nappe reads its inputs from the cells it uses (by label and unit) and computes the same."));
   const result = el("div", "cross-check-result");
+  const tolerance = el("input", "tolerance");
+  tolerance.type = "number";
+  tolerance.min = "0.01";
+  tolerance.max = "50";
+  tolerance.step = "0.1";
+  tolerance.value = "0.5";
+  tolerance.setAttribute("aria-label", "Tolerance, percent");
+  const toleranceRow = el("label", "tolerance-row", "Agrees within ", tolerance, " %");
   const numeric = CATALOG.filter((s) => !s.result.spill && s.id !== "CROSSCHECK");
   const show = async (specId: string) => {
     result.replaceChildren(el("p", "", "Checking…"));
     try {
-      const r = await crossCheckCell(ctx.port, cell.sheet, cell.address, specId);
+      const percent = Number(tolerance.value);
+      if (!(percent > 0 && percent < 100)) throw new Error("the tolerance must be a percentage above 0 and below 100");
+      const r = await crossCheckCell(ctx.port, cell.sheet, cell.address, specId, { tolerance: percent / 100 });
       const verdict = el("p", `status ${r.verdict === "agrees" ? "ok" : "warning"}`, `${r.verdict === "agrees" ? "✓ Agrees" : "⚠ Differs"}: hand ${formatNumber(r.handValue)}, Nappe ${formatNumber(r.nappeValue)} ${r.unit}, difference ${(r.relativeDifference * 100).toPrecision(3)} % (tolerance ${(r.tolerance * 100).toPrecision(2)} %)`);
       const mapping = el("table", "args");
       mapping.append(el("tr", "", el("th", "", "argument"), el("th", "", "read from")));
@@ -176,7 +186,7 @@ function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
     }
   };
   const picker = functionPicker(numeric, { placeholder: "Quantity: head loss, shaft power, npsh…", label: "Quantity the formula computes", listLabel: "Quantities", most: 8 }, (spec) => void show(spec.id));
-  box.append(picker, result);
+  box.append(toleranceRow, picker, result);
   return box;
 }
 

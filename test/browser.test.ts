@@ -303,16 +303,20 @@ describe.runIf(hasChromium)("cross-check of a hand formula", () => {
       await page.goto(preview.url);
       await page.locator("table.grid").waitFor();
       await page.locator('td[data-address="B9"]').click();
+      await page.getByRole("spinbutton", { name: "Tolerance, percent" }).fill("0.2");
       await page.getByRole("searchbox", { name: "Quantity the formula computes" }).fill("head loss darcy");
       await page.getByRole("button", { name: "NAPPE.HEADLOSS", exact: true }).click();
       const result = page.locator(".cross-check-result");
       await containsText(result, "B8 Darcy friction factor");
+      await containsText(result, "Differs"); // 0.40 % apart: beyond the 0.2 % asked for
+      await containsText(result, "(tolerance 0.20 %)");
       await containsText(result, "explicit friction formula (Swamee–Jain)");
       await page.screenshot({ path: join(shots, "pane-cross-check.png") });
       await result.getByRole("button", { name: "Keep the check in the workbook" }).click();
       await containsText(page.locator(".status-line"), "Kept the check in Hand!C9");
       await page.locator('td[data-address="C9"]').click();
       await containsText(page.locator(".cell-view"), "NAPPE.CROSSCHECK");
+      await containsText(page.locator("#formula-bar"), ", 0.002)");
     } finally {
       await browser.close();
       preview.server.kill();

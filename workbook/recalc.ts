@@ -13,7 +13,6 @@ import { sheetPrefix } from "./address";
 import { displayFormula, dottedName, expandLet, externalLinkIndexes, hasNappeCall, otherAddinFunctions, resolveNames, UDF_PREFIX, unknownNappeFunctions } from "./storedForm";
 import { EXTRA_FUNCTIONS } from "./extraFunctions";
 
-
 /** One NAPPE call made while computing a cell. */
 export interface CallRecord {
   id: string;
