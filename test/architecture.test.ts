@@ -79,26 +79,22 @@ describe("the formula library's internals the adapter relies on (fast-formula-pa
     expect(seen).toMatchObject([{ sheet: "Data", row: 7, col: 2 }]);
     expect(Array.isArray(new FormulaParser({}).funsPreserveRef)).toBe(true);
   });
-  it("says a function is not implemented in the words notImplementedFunction reads", () => {
+  /** The library's error for a formula, as the engine meets it. */
+  function failureOf(formula: string): InstanceType<typeof FormulaError> {
     const parser = evaluatingParser({ functions: {}, keepReferences: [], onCell: () => 0, onRange: () => [[0]] });
-    let error: unknown;
     try {
-      parser.parse("NOSUCHFUNCTION(1)", { sheet: "S", row: 1, col: 1 });
+      parser.parse(formula, { sheet: "S", row: 1, col: 1 });
     } catch (e) {
-      error = e;
+      expect(e).toBeInstanceOf(FormulaError);
+      return e as InstanceType<typeof FormulaError>;
     }
-    expect(error).toBeInstanceOf(FormulaError);
-    expect(notImplementedFunction(error as InstanceType<typeof FormulaError>)).toBe("NOSUCHFUNCTION");
+    throw new Error(`${formula} did not fail`);
+  }
+  it("says a function is not implemented in the words notImplementedFunction reads", () => {
+    expect(notImplementedFunction(failureOf("NOSUCHFUNCTION(1)"))).toBe("NOSUCHFUNCTION");
   });
   it("marks a parse error as isParseError reads it", () => {
-    const parser = evaluatingParser({ functions: {}, keepReferences: [], onCell: () => 0, onRange: () => [[0]] });
-    let error: unknown;
-    try {
-      parser.parse("1+(", { sheet: "S", row: 1, col: 1 });
-    } catch (e) {
-      error = e;
-    }
-    expect(isParseError(error as InstanceType<typeof FormulaError>)).toBe(true);
+    expect(isParseError(failureOf("1+("))).toBe(true);
   });
   it("has the dependency parser directPrecedents uses", () => {
     expect(directPrecedents("A1+Data!B2:C3", { sheet: "S", row: 5, col: 5 })).toEqual([
