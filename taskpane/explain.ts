@@ -15,7 +15,7 @@ import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type 
 import { splitReference } from "../workbook/address";
 import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../workbook/recalc";
 import { displayFormula, hasNappeCall, resolveNames } from "../workbook/storedForm";
-import type { LabelSource } from "../workbook/unitCheck";
+import type { LabelSource, UnitFinding } from "../workbook/unitCheck";
 import { type ChartData, chartFor, withNpsha } from "./chartData";
 import { toBase } from "../functions/units/quantity";
 import type { HostPort } from "./host/port";
@@ -28,6 +28,8 @@ interface UnitWarning {
   fixLabel?: string;
   /** The input cell the fix joins a unit to, and that unit: other formulas reading it are offered the same fix. */
   input?: { sheet: string; address: string; unit: string };
+  /** The label that declared the unit, and its text corrected to the unit the number is read in. */
+  label?: UnitFinding["label"];
 }
 
 /** One call as the pane shows it: the one call-view model, its text in the formula, and the unit fixes it offers. */
@@ -139,7 +141,7 @@ function explainCall(rec: CallRecord, site: CallSite | undefined, formula: strin
     const joined = arg && f.unit ? `${/^[A-Za-z0-9_$!'. ]+$/.test(arg.text) ? arg.text : `(${arg.text})`}&" ${f.unit}"` : undefined;
     const plain = arg && /^((?:'(?:[^']|'')+'|[A-Za-z_][A-Za-z0-9_.]*)!)?\$?[A-Za-z]{1,3}\$?\d+$/.test(arg.text);
     const input = plain && f.unit ? { ...splitReference(arg.text.replace(/\$/g, ""), sheet), unit: f.unit } : undefined;
-    return { message: f.message, fixedFormula: arg && joined ? displayFormula(replaceArgument(formula, arg, joined)) : undefined, fixLabel: joined, input };
+    return { message: f.message, fixedFormula: arg && joined ? displayFormula(replaceArgument(formula, arg, joined)) : undefined, fixLabel: joined, input, label: f.label };
   });
   return { ...view, text: site ? displayFormula(formula.slice(site.start, site.end)) : `NAPPE.${rec.id}(…)`, unitWarnings };
 }

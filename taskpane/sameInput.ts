@@ -71,3 +71,26 @@ export async function sameInputFixes(port: HostPort, input: { sheet: string; add
   }
   return out;
 }
+
+/**
+ * The label cell near `input` whose text is `text`: to the left on the same row (up to three
+ * cells, the nearest first), then the cell above, as the unit check reads labels. Two reads.
+ */
+export async function labelCell(port: HostPort, input: { sheet: string; address: string }, text: string): Promise<{ sheet: string; address: string } | undefined> {
+  const { row, col } = parseAddress(input.address);
+  if (col > 1) {
+    const first = Math.max(1, col - 3);
+    const left = (await port.range(input.sheet, `${addressOf(row, first)}:${addressOf(row, col - 1)}`))[0];
+    for (let j = left.length - 1; j >= 0; j--) {
+      const v = left[j].value;
+      if (typeof v !== "string" || !v.trim()) continue;
+      if (v === text && !left[j].formula) return { sheet: input.sheet, address: addressOf(row, first + j) };
+      break;
+    }
+  }
+  if (row > 1) {
+    const above = await port.cell(input.sheet, addressOf(row - 1, col));
+    if (above.value === text && !above.formula) return { sheet: input.sheet, address: addressOf(row - 1, col) };
+  }
+  return undefined;
+}

@@ -16,7 +16,7 @@ import { crossCheckCell } from "./crossCheck";
 import { formatNumber } from "../workbook/format";
 import { addressOf, parseAddress } from "../workbook/address";
 import { derivationText } from "../workbook/derivation";
-import { sameInputFixes } from "./sameInput";
+import { labelCell, sameInputFixes } from "./sameInput";
 
 const CAUTION_TEXT = GENERAL_CAUTIONS.join(" ");
 
@@ -98,11 +98,17 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
         writeAction(ctx, `join the unit in ${cell.sheet}!${cell.address}`, async () => {
           await ctx.port.setFormula(cell.sheet, cell.address, w.fixedFormula!);
           ctx.say(`Joined the unit in ${cell.sheet}!${cell.address}.`);
-          if (w.input) ctx.notice(await sameInputNotice(ctx, w.input, cell, refresh));
+          if (w.input) ctx.notice(await sameInputNotice(ctx, w.input, cell, refresh, w.label));
           refresh();
         }),
       );
       box.append(button);
+    }
+    if (w.label) {
+      const label = w.label;
+      const relabel = el("button", "relabel", `Relabel as "${label.corrected}"`);
+      relabel.addEventListener("click", () => writeAction(ctx, `correct the label of ${label.sheet}!${label.address}`, () => correctLabel(ctx, label, refresh)));
+      box.append(relabel);
     }
     card.append(box);
   }
@@ -114,25 +120,52 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
   return card;
 }
 
-/** After a fix: the other formulas reading the same input, with "Fix all" so the input is read in one unit everywhere. */
-async function sameInputNotice(ctx: PaneContext, input: { sheet: string; address: string; unit: string }, cell: CellExplanation, refresh: () => void): Promise<HTMLElement | null> {
+/**
+ * After a fix: the other formulas reading the same input, with "Fix all" so the input is read in
+ * one unit everywhere, or, the other way round, the label corrected and the fix undone.
+ */
+async function sameInputNotice(ctx: PaneContext, input: { sheet: string; address: string; unit: string }, cell: CellExplanation, refresh: () => void, label?: CallExplanation["unitWarnings"][number]["label"]): Promise<HTMLElement | null> {
   const fixes = await sameInputFixes(ctx.port, input, input.unit, cell);
-  if (!fixes.length) return null;
+  if (!fixes.length && !label) return null;
   const where = `${input.sheet}!${input.address}`;
-  const box = el("section", "status warning same-input", el("p", "", `${fixes.length} other ${fixes.length === 1 ? "formula reads" : "formulas read"} ${where} as a bare number too:`));
-  const items = el("ul", "");
-  for (const f of fixes) items.append(el("li", "", el("strong", "", `${f.sheet}!${f.address}`), " ", el("code", "", `=${f.formula}`), " → ", el("code", "", `=${f.fixed}`)));
-  const all = el("button", "fix-all", `Fix all ${fixes.length}`);
-  all.addEventListener("click", () =>
-    writeAction(ctx, "fix them all", async () => {
-      for (const f of fixes) await ctx.port.setFormula(f.sheet, f.address, f.fixed);
-      ctx.say(`Joined " ${input.unit}" to ${where} in ${fixes.length} more ${fixes.length === 1 ? "formula" : "formulas"}.`);
-      ctx.notice(null);
-      refresh();
-    }),
-  );
-  box.append(items, all, el("p", "", `Or, if the number is in fact in the base unit, correct the label of ${where} instead and undo the fix.`));
+  const box = el("section", "status warning same-input");
+  if (fixes.length) {
+    const items = el("ul", "");
+    for (const f of fixes) items.append(el("li", "", el("strong", "", `${f.sheet}!${f.address}`), " ", el("code", "", `=${f.formula}`), " → ", el("code", "", `=${f.fixed}`)));
+    const all = el("button", "fix-all", `Fix all ${fixes.length}`);
+    all.addEventListener("click", () =>
+      writeAction(ctx, "fix them all", async () => {
+        for (const f of fixes) await ctx.port.setFormula(f.sheet, f.address, f.fixed);
+        ctx.say(`Joined " ${input.unit}" to ${where} in ${fixes.length} more ${fixes.length === 1 ? "formula" : "formulas"}.`);
+        ctx.notice(null);
+        refresh();
+      }),
+    );
+    box.append(el("p", "", `${fixes.length} other ${fixes.length === 1 ? "formula reads" : "formulas read"} ${where} as a bare number too:`), items, all);
+  } else box.append(el("p", "", `No other formula reads ${where}.`));
+  if (label && cell.formula) {
+    // The other way round: the number was in the base unit all along. Undo the fix, correct the label.
+    const before = cell.formula;
+    const instead = el("button", "relabel", "Correct the label instead");
+    instead.addEventListener("click", () =>
+      writeAction(ctx, `correct the label of ${where}`, async () => {
+        await ctx.port.setFormula(cell.sheet, cell.address, before);
+        ctx.notice(null);
+        await correctLabel(ctx, label, refresh, ` and put back =${before} in ${cell.sheet}!${cell.address}`);
+      }),
+    );
+    box.append(el("p", "", `Or, if the number in ${where} is right as read, correct its label instead: "${label.text}" becomes "${label.corrected}", and the fix above is undone.`), instead);
+  }
   return box;
+}
+
+/** Writes the corrected label text over the label cell of the input, after finding that cell again. */
+async function correctLabel(ctx: PaneContext, label: NonNullable<CallExplanation["unitWarnings"][number]["label"]>, refresh: () => void, also = ""): Promise<void> {
+  const at = await labelCell(ctx.port, label, label.text);
+  if (!at) throw new Error(`the label "${label.text}" is no longer next to ${label.sheet}!${label.address}`);
+  await ctx.port.setValue(at.sheet, at.address, label.corrected);
+  ctx.say(`Relabelled ${at.sheet}!${at.address} "${label.corrected}"${also}.`);
+  refresh();
 }
 
 /** The cross-check of a plain (hand) formula: pick the quantity, see the verdict and the departing steps, keep the check. */

@@ -134,6 +134,24 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
     await countIs(page.locator(".unit-warning"), 0);
   });
 
+  it("corrects the label instead: the fix is undone and the input's label says the unit the number is read in", async () => {
+    await selectCell(page, "Calc", "B21");
+    const warning = page.locator(".unit-warning");
+    await containsText(warning.getByRole("button", { name: 'Relabel as "Suction pipe length (m)"' }), "Relabel");
+    await warning.getByRole("button", { name: 'Use Inputs!B14&" ft"' }).click();
+    const others = page.locator(".same-input");
+    await containsText(others, '"Suction pipe length (ft)" becomes "Suction pipe length (m)"');
+    await others.getByRole("button", { name: "Correct the label instead" }).click();
+    await containsText(page.locator(".status-line"), 'Relabelled Inputs!A14 "Suction pipe length (m)" and put back =NAPPE.HEADLOSS(B11&" m^3/h", B16, Inputs!B14, B18, B6) in Calc!B21');
+    await countIs(page.locator(".same-input"), 0);
+    await containsText(page.locator("#formula-bar"), "Inputs!B14, B18, B6)");
+    await countIs(page.locator(".unit-warning"), 0);
+    await containsText(page.locator(".call table.args"), "30 m");
+    await page.screenshot({ path: join(shots, "pane-label-corrected.png") });
+    await selectCell(page, "Inputs", "A14");
+    await containsText(page.locator("#formula-bar"), "Suction pipe length (m)");
+  });
+
   it("finds a function in the guide and inserts it into the selected cell", async () => {
     await selectCell(page, "Calc", "D40");
     await page.getByRole("tab", { name: "Function guide" }).click();

@@ -9,7 +9,9 @@ import { MemoryHost } from "../taskpane/host/memory";
 import { AUDIT_SHEET, auditOf, checkWorkbook, writeAuditSheet } from "../taskpane/workbookCheck";
 import { auditSheetRows } from "../workbook/audit";
 import { writeAction } from "../taskpane/actions";
-import { sameInputFixes } from "../taskpane/sameInput";
+import { labelCell, sameInputFixes } from "../taskpane/sameInput";
+import { relabelled } from "../workbook/unitCheck";
+import { displayFormula } from "../workbook/storedForm";
 
 const root = join(__dirname, "..");
 const demo = () => readWorkbook(join(root, "demo/orchard-pumping-station.xlsx"));
@@ -68,6 +70,33 @@ describe("unit check", () => {
     expect(call.unitWarnings[0].fixedFormula).toBe('NAPPE.HEADLOSS(B11&" m^3/h", B16, Inputs!B14&" ft", B18, B6)');
     await host.setFormula("Calc", "B21", call.unitWarnings[0].fixedFormula!);
     expect((await explainCell(host, "Calc", "B21")).calls[0].unitWarnings).toEqual([]);
+  });
+  it("offers the other fix: the label corrected to the unit the number is read in, found again and rewritten", async () => {
+    const host = new MemoryHost(await demo());
+    const [call] = (await explainCell(host, "Calc", "B21")).calls;
+    const label = call.unitWarnings[0].label!;
+    expect(label).toEqual({ sheet: "Inputs", address: "B14", text: "Suction pipe length (ft)", corrected: "Suction pipe length (m)" });
+    const at = (await labelCell(host, label, label.text))!;
+    expect(at).toEqual({ sheet: "Inputs", address: "A14" });
+    await host.setValue(at.sheet, at.address, label.corrected);
+    // The formula is untouched; with the label saying m, nothing is left to warn about.
+    expect((await explainCell(host, "Calc", "B21")).calls[0].unitWarnings).toEqual([]);
+    expect(displayFormula((await host.cell("Calc", "B21")).formula!)).toBe('NAPPE.HEADLOSS(B11&" m^3/h", B16, Inputs!B14, B18, B6)');
+  });
+  it("corrects only the unit of a label, wherever it is written", () => {
+    expect(relabelled("Suction pipe length (ft)", "ft", "m")).toBe("Suction pipe length (m)");
+    expect(relabelled("Flow [gpm] at duty", "gpm", "m^3/s")).toBe("Flow [m^3/s] at duty");
+    expect(relabelled("ft", "ft", "m")).toBe("m");
+    expect(relabelled('Head, "ft"', "ft", "m")).toBe('Head, "m"');
+  });
+  it("does not offer to rewrite a unit that comes from a number format", async () => {
+    const host = book((ws) => {
+      ws.getCell("B1").value = 400;
+      ws.getCell("B1").numFmt = '0.0 "gpm"';
+      ws.getCell("B2").value = { formula: 'NAPPE.VELOCITY(B1, "4 in")' };
+    });
+    const [call] = (await explainCell(host, "S", "B2")).calls;
+    expect(call.unitWarnings.find((w) => w.fixedFormula)!.label).toBeUndefined();
   });
   it("reads a unit from the number format", async () => {
     const host = book((ws) => {

@@ -39,15 +39,41 @@ function referenceChain(labels: LabelSource, sheet: string, row: number, col: nu
   return chain;
 }
 
+interface Declaration {
+  text: string;
+  declared: { unit: string; dim: Dimension };
+  /** The cell the label belongs to, as the message names it ("B14" or "Inputs!B14"). */
+  cell: string;
+  /** That cell's place, and whether a label cell near it (not its number format) declared the unit. */
+  at: { sheet: string; address: string };
+  byLabel: boolean;
+}
+
 /** The first label or number format on the way that declares a unit, with the cell it belongs to. */
-function declaredOnChain(labels: LabelSource, sheet: string, row: number, col: number, here = sheet): { text: string; declared: { unit: string; dim: Dimension }; cell: string } | undefined {
+function declaredOnChain(labels: LabelSource, sheet: string, row: number, col: number, here = sheet): Declaration | undefined {
   for (const c of referenceChain(labels, sheet, row, col)) {
-    for (const text of [labels.numberFormat(c.sheet, c.row, c.col), ...labels.labelsNear(c.sheet, c.row, c.col)]) {
+    const format = labels.numberFormat(c.sheet, c.row, c.col);
+    for (const text of [format, ...labels.labelsNear(c.sheet, c.row, c.col)]) {
       const declared = text ? declaredUnit(text) : undefined;
-      if (text && declared) return { text, declared, cell: `${c.sheet === here ? "" : sheetPrefix(c.sheet)}${addressOf(c.row, c.col)}` };
+      const address = addressOf(c.row, c.col);
+      if (text && declared) return { text, declared, cell: `${c.sheet === here ? "" : sheetPrefix(c.sheet)}${address}`, at: { sheet: c.sheet, address }, byLabel: text !== format };
     }
   }
   return undefined;
+}
+
+/**
+ * The label text with its unit replaced: "Suction pipe length (ft)" → "Suction pipe length (m)".
+ * The unit in brackets or quotes is replaced where it stands; a label that is only a unit word
+ * becomes the new unit.
+ */
+export function relabelled(text: string, unit: string, to: string): string {
+  const escaped = unit.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
+  const inBrackets = new RegExp(`([([]\\s*)${escaped}(\\s*[)\\]])`);
+  if (inBrackets.test(text)) return text.replace(inBrackets, `$1${to}$2`);
+  const quoted = new RegExp(`"\\s*${escaped}\\s*"`);
+  if (quoted.test(text)) return text.replace(quoted, `"${to}"`);
+  return text.trim() === unit ? to : text;
 }
 
 /**
@@ -98,6 +124,12 @@ export interface UnitFinding {
   fix?: string;
   /** The unit the label declares, when joining it would fix the reading. */
   unit?: string;
+  /**
+   * The other way to fix it, when a label cell (not a number format) declared the unit: the
+   * input cell the label belongs to, the label's text, and the text saying the unit the number
+   * is read in ("Suction pipe length (ft)" → "Suction pipe length (m)").
+   */
+  label?: { sheet: string; address: string; text: string; corrected: string };
 }
 
 const ALL_DIMS = Object.keys(DIMENSIONS) as Dimension[];
@@ -135,7 +167,7 @@ export function checkCallUnits(spec: FunctionSpec, evaluation: Evaluation, refs:
     const { row, col } = parseAddress(address);
     // The cell's own label, or the label of the input it copies through plain references.
     const onChain = declaredOnChain(labels, sheet, row, col, here);
-    for (const { text, declared, cell } of onChain ? [onChain] : []) {
+    for (const { text, declared, cell, at, byLabel } of onChain ? [onChain] : []) {
       const labelled = cell === ref || `${sheetPrefix(sheet)}${cell}` === ref || cell === address ? `${ref} is labelled "${text}"` : `${ref} copies ${cell}, labelled "${text}",`;
       const base = DIMENSIONS[p.dim].base;
       if (declared.dim !== p.dim && !(DIMENSIONS[declared.dim].base === base)) {
@@ -151,6 +183,7 @@ export function checkCallUnits(spec: FunctionSpec, evaluation: Evaluation, refs:
         message: `${labelled} but its bare number ${reading.raw} is read as ${reading.raw} ${DIMENSIONS[p.dim].baseLabel}: join the unit, ${fixRef}&" ${declared.unit}", or correct the label.`,
         fix: `${fixRef}&" ${declared.unit}"`,
         unit: declared.unit,
+        label: byLabel ? { ...at, text, corrected: relabelled(text, declared.unit, base) } : undefined,
       });
       return;
     }

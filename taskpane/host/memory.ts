@@ -87,12 +87,25 @@ export class MemoryHost implements HostPort {
   }
 
   async setFormula(sheet: string, address: string, formula: string): Promise<void> {
+    this.write(sheet, address, (cell) => {
+      cell.formula = formula.replace(/^=/, "");
+    });
+  }
+
+  async setValue(sheet: string, address: string, value: string | number): Promise<void> {
+    this.write(sheet, address, (cell) => {
+      delete cell.formula;
+      cell.value = value;
+    });
+  }
+
+  /** Changes one cell (made if missing), then recalculates and tells the views. */
+  private write(sheet: string, address: string, change: (cell: CellModel) => void): void {
     const s = findSheet(this.workbook, sheet);
     if (!s) throw new Error(`no sheet named ${sheet}`);
     const { row, col } = parseAddress(address);
-    const existing = s.cells.get(cellKey(row, col));
-    const cell: CellModel = existing ?? { sheet: s.name, address: addressOf(row, col), row, col, value: null };
-    cell.formula = formula.replace(/^=/, "");
+    const cell: CellModel = s.cells.get(cellKey(row, col)) ?? { sheet: s.name, address: addressOf(row, col), row, col, value: null };
+    change(cell);
     s.cells.set(cellKey(row, col), cell);
     this.recalculate();
     this.changeHandlers.forEach((h) => h());

@@ -78,6 +78,13 @@ export class OfficeHost implements HostPort {
     });
   }
 
+  async setValue(sheet: string, address: string, value: string | number): Promise<void> {
+    await Excel.run(async (context) => {
+      context.workbook.worksheets.getItem(sheet).getRange(address).values = [[value]];
+      await context.sync();
+    });
+  }
+
   async nappeFormulaCells(onProgress?: (done: number, total: number) => void): Promise<FormulaCell[]> {
     return Excel.run(async (context) => {
       const sheets = context.workbook.worksheets;

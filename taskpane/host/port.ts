@@ -36,6 +36,8 @@ export interface HostPort {
   labelsNear(sheet: string, address: string): Promise<string[]>;
   /** Writes a formula (without "=") into one cell. */
   setFormula(sheet: string, address: string, formula: string): Promise<void>;
+  /** Writes a constant (a label's text, a number) into one cell, replacing any formula there. */
+  setValue(sheet: string, address: string, value: string | number): Promise<void>;
   /** The workbook's defined names, workbook-scoped and sheet-scoped. */
   definedNames(): Promise<DefinedName[]>;
   /** Every formula cell in the workbook that calls a NAPPE function. */
