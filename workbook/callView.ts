@@ -48,7 +48,7 @@ export interface CallView {
   args: ArgView[];
   /** The calculation's intermediate values, in the order it finds them. */
   steps: StepView[];
-  /** The equation with this call's numbers put in (base units), when the spec writes one. */
+  /** The equation with this call's numbers put in (in the units of the steps), when the spec writes one. */
   substituted?: string;
   /** The result in the unit the formula asks for (its `unit` argument, else the base unit). */
   result?: string;
@@ -94,7 +94,7 @@ function describeArg(r: ArgReading, written: string, baseUnit: string): ArgView 
 }
 
 /** The units intermediate values are shown in when a call's inputs are in US customary units. */
-const US_UNITS: Partial<Record<Dimension, string>> = { length: "ft", flow: "gpm", velocity: "ft/s", pressure: "psi", power: "hp", kinematicViscosity: "ft^2/s", density: "lb/ft^3" };
+const US_UNITS: Partial<Record<Dimension, string>> = { length: "ft", area: "ft^2", flow: "gpm", velocity: "ft/s", pressure: "psi", power: "hp", kinematicViscosity: "ft^2/s", density: "lb/ft^3" };
 const US_UNIT_TEXT = /^(gpm|gal\/min|MGD|cfs|cfm|ft|feet|foot|in|inch|inches|yd|mi|mile|ftH2O|inH2O|psi|psia|ft\/s|ft\^3\/s|hp)$/i;
 
 /** True when the call's flow or a length (or a table column of them) was given in US customary units. */
@@ -106,32 +106,53 @@ function usesUsUnits(ev: NonNullable<CallRecord["evaluation"]>): boolean {
   });
 }
 
-function stepView(s: Step, us: boolean): StepView {
-  const unit = us && US_UNITS[s.dim] ? US_UNITS[s.dim]! : DIMENSIONS[s.dim].base;
-  const value = unit === DIMENSIONS[s.dim].base ? s.value : fromBase(s.symbol, s.value, s.dim, unit);
-  return { symbol: s.symbol, name: s.name, value: formatQuantity(value, unit), how: s.how };
+/** Energy reads in kWh in either system (joules of a year's pumping are 1e11). */
+const SHOWN_UNITS: Partial<Record<Dimension, string>> = { energy: "kWh" };
+
+/** The unit a value of `dim` is shown in: US customary when the call's inputs are, else the base unit. */
+function shownUnit(dim: Dimension, us: boolean): string {
+  return (us && US_UNITS[dim]) || SHOWN_UNITS[dim] || DIMENSIONS[dim].base;
 }
 
-/** The spec's derivation line with the numbers of one evaluation, in base units. */
-function substitutedLine(spec: FunctionSpec, ev: Evaluation): string | undefined {
+/** A base-unit value in the unit it is shown in, with that unit. */
+function shown(value: number, dim: Dimension, us: boolean, unit = shownUnit(dim, us)): string {
+  return formatQuantity(unit === DIMENSIONS[dim].base ? value : fromBase("value", value, dim, unit), unit);
+}
+
+function stepView(s: Step, us: boolean): StepView {
+  return { symbol: s.symbol, name: s.name, value: shown(s.value, s.dim, us), how: s.how };
+}
+
+/** Standard gravity (NIST SP 811) as a derivation line writes it. */
+const GRAVITY = { si: "9.80665 m/s²", us: "32.174 ft/s²" };
+
+/**
+ * The spec's derivation line with the numbers of one evaluation: in US customary units when the
+ * call's flow or a length was given in them, else in base units.
+ */
+function substitutedLine(spec: FunctionSpec, ev: Evaluation, us: boolean): string | undefined {
   const derivation = spec.derivation;
   if (!derivation) return undefined;
   const missing = () => {
     throw new Error("a number the derivation names is missing");
   };
-  const arg = (name: string) => {
+  const arg = (name: string, unit?: string) => {
     const r = ev.readings.find((x) => x.name === name);
+    if (r && typeof r.value === "string") return r.value;
     if (!r || typeof r.value !== "number") return missing();
     const p = spec.params.find((x) => x.name === name);
-    return formatQuantity(r.value, p?.kind === "quantity" ? DIMENSIONS[p.dim].base : "");
+    if (p?.kind === "quantity") return shown(r.value, p.dim, us, unit);
+    // A value whose dimension another argument sets (AFFINITY's value) has the result's dimension.
+    return p?.kind === "anyQuantity" ? shown(r.value, ev.dim, us, unit) : formatQuantity(r.value, "");
   };
   const stepValue = (symbol: string) => {
     const s = ev.steps.find((x) => x.symbol === symbol);
-    return s ? formatQuantity(s.value, DIMENSIONS[s.dim].base) : missing();
+    return s ? shown(s.value, s.dim, us) : missing();
   };
   try {
-    const result = typeof ev.base === "number" ? formatQuantity(ev.base, DIMENSIONS[ev.dim].base) : "";
-    return derivation({ arg, step: stepValue, result });
+    const result = typeof ev.base === "number" ? shown(ev.base, ev.dim, us) : "";
+    const has = (symbol: string) => ev.steps.some((x) => x.symbol === symbol);
+    return derivation({ arg, step: stepValue, has, result, g: us ? GRAVITY.us : GRAVITY.si, us });
   } catch {
     return undefined;
   }
@@ -161,13 +182,14 @@ export function callView(rec: CallRecord, site: CallSite | undefined, sheet: str
     return [describeArg(r, written, dim ? DIMENSIONS[dim].base || (dim === "efficiency" ? "(fraction)" : "") : "")];
   });
   const numeric = ev && typeof ev.value === "number" && typeof ev.base === "number";
+  const us = ev ? usesUsUnits(ev) : false;
   return {
     id: rec.id,
     purpose: spec.purpose,
     equation: spec.equation,
     args,
-    steps: ev ? ev.steps.map((s) => stepView(s, usesUsUnits(ev))) : [],
-    substituted: ev ? substitutedLine(spec, ev) : undefined,
+    steps: ev ? ev.steps.map((s) => stepView(s, us)) : [],
+    substituted: ev ? substitutedLine(spec, ev, us) : undefined,
     result: ev ? (typeof ev.value === "number" ? formatQuantity(ev.value, ev.unit) : formatValue(ev.value)) : undefined,
     resultBase: numeric ? formatQuantity(ev.base as number, DIMENSIONS[ev.dim].base) : undefined,
     assumptions: spec.assumptions,

@@ -15,7 +15,11 @@ export function curveScaleFactors(ratio: number): CalcResult<(column: string) =>
   if (!(Number.isFinite(ratio) && ratio > 0)) throw new CalcError("ratio", `expected a ratio greater than zero; got ${ratio}`);
   const warnings = ratio < 0.5 || ratio > 1.5 ? [`Ratio ${ratio} is far from 1: the affinity laws lose accuracy; confirm with the pump maker.`] : [];
   const factor = (column: string) => ((AFFINITY_KINDS as readonly string[]).includes(column) ? Math.pow(ratio, EXPONENT[column as AffinityKind]) : 1);
-  return ok(factor, warnings);
+  return ok(factor, warnings, [
+    step("r", "speed (or diameter) ratio", ratio, "ratio", "as given"),
+    step("r²", "factor on head and NPSHr", ratio * ratio, "ratio", "affinity: H ∝ r²"),
+    step("r³", "factor on power", ratio ** 3, "ratio", "affinity: P ∝ r³"),
+  ]);
 }
 
 /** Scales a value by r^n for its kind, where r is the speed (or impeller diameter) ratio. */
@@ -26,7 +30,10 @@ export function affinityScale(value: number, kind: AffinityKind, ratio: number):
   if (ratio < 0.5 || ratio > 1.5) {
     warnings.push(`Ratio ${ratio} is far from 1: the affinity laws lose accuracy (efficiency and NPSHr change); confirm with the pump maker.`);
   }
-  return ok(value * Math.pow(ratio, EXPONENT[kind]), warnings);
+  return ok(value * Math.pow(ratio, EXPONENT[kind]), warnings, [
+    step("n", `exponent for ${kind}`, EXPONENT[kind], "ratio", "affinity: flow ∝ r, head and NPSHr ∝ r², power ∝ r³"),
+    step("r^n", "affinity factor", Math.pow(ratio, EXPONENT[kind]), "ratio", "r raised to n"),
+  ]);
 }
 
 /**

@@ -4,7 +4,7 @@
  * the given inside diameter (Colebrook's rough-pipe limit, ε = 0.045 mm). Entrances and exits:
  * fixed K. L/D and K values as tabulated in Crane Technical Paper 410 (from memory).
  */
-import { CalcError, type CalcResult, ok, requirePositive } from "./_lib/result";
+import { CalcError, type CalcResult, ok, requirePositive, step } from "./_lib/result";
 
 const STEEL_ROUGHNESS = 0.045e-3;
 
@@ -44,7 +44,12 @@ export function fittingK(fitting: string, diameter: number): CalcResult {
   if (!entry) {
     throw new CalcError("fitting", `unknown fitting "${fitting}": expected one of ${Object.keys(FITTINGS).map((k) => `"${k}"`).join(", ")}`, "value");
   }
-  if (entry.k !== undefined) return ok(entry.k);
+  if (entry.k !== undefined) return ok(entry.k, [], [step("K", entry.note, entry.k, "ratio", "fixed K (Crane TP-410)")]);
   requirePositive("diameter", diameter, "an inside diameter greater than zero");
-  return ok(fullyTurbulentFriction(diameter) * entry.ld!);
+  const fT = fullyTurbulentFriction(diameter);
+  return ok(fT * entry.ld!, [], [
+    step("ε/D", "relative roughness of clean commercial steel", STEEL_ROUGHNESS / diameter, "ratio", "ε = 0.045 mm"),
+    step("f_T", "fully turbulent friction factor", fT, "ratio", "1/√f_T = −2·log10(ε/(3.7·D)), Colebrook's rough-pipe limit"),
+    step("L/D", `equivalent length in diameters: ${entry.note}`, entry.ld!, "ratio", "Crane TP-410 (from memory)"),
+  ]);
 }

@@ -74,7 +74,7 @@ export function frictionFactor(re: number, relativeRoughness: number, method: Fr
     warnings.push(`Relative roughness ${relativeRoughness} is beyond the Moody chart (ε/D ≤ 0.05); the friction factor is an extrapolation.`);
   }
   if (method !== "churchill" && re < LAMINAR_LIMIT) {
-    return ok(64 / re, warnings, [step("regime", "laminar (Re below 2000)", re, "ratio", "f = 64/Re (Hagen–Poiseuille)")]);
+    return ok(64 / re, warnings, [step("Re", "Reynolds number, laminar (below 2000)", re, "ratio", "as given; f = 64/Re (Hagen–Poiseuille)")]);
   }
   if (re < TURBULENT_LIMIT) {
     warnings.push(`Re = ${re.toPrecision(4)} is transitional (2000 to 4000): the flow may be laminar or turbulent and the friction factor is uncertain.`);

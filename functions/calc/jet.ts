@@ -57,7 +57,7 @@ export function nozzleFlow(diameter: number, head: number, dischargeCoefficient:
   requireNonNegative("head", head, "a head of zero or more");
   requireCoefficient("discharge_coefficient", dischargeCoefficient);
   return ok(dischargeCoefficient * pipeArea(diameter) * Math.sqrt(2 * g * head), [], [
-    step("A", "outlet area, m²", pipeArea(diameter), "ratio", "πD²/4"),
+    step("A", "outlet area", pipeArea(diameter), "area", "πD²/4"),
     step("√(2gh)", "ideal jet velocity", Math.sqrt(2 * g * head), "velocity", "g = 9.80665 m/s²"),
   ]);
 }

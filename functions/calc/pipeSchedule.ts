@@ -4,7 +4,7 @@
  * schedule, NPS 1/8 to 24. Values in inches as the standards tabulate them (transcribed from
  * memory of the standards' tables; the tests check well-known sizes).
  */
-import { CalcError, type CalcResult, ok } from "./_lib/result";
+import { CalcError, type CalcResult, ok, step } from "./_lib/result";
 
 const INCH = 0.0254;
 
@@ -75,5 +75,9 @@ export function pipeDimensions(nps: number | string, schedule: number | string):
 
 /** Inside diameter, m. */
 export function pipeInsideDiameter(nps: number | string, schedule: number | string): CalcResult {
-  return ok(pipeDimensions(nps, schedule).inside);
+  const d = pipeDimensions(nps, schedule);
+  return ok(d.inside, [], [
+    step("OD", "outside diameter", d.outside, "length", "ASME B36.10M / B36.19M table for the size"),
+    step("t", "nominal wall thickness", d.wall, "length", "ASME B36.10M / B36.19M table for the size and schedule"),
+  ]);
 }

@@ -6,7 +6,7 @@
  *  - "quadratic" / "cubic": a least-squares polynomial through all the points.
  * Flows outside the points are an error, never an extrapolation.
  */
-import { CalcError, quoted } from "./_lib/result";
+import { CalcError, quoted, step, type Step, type StepDimension } from "./_lib/result";
 import { evaluatePolynomial, fitPolynomial } from "./_lib/leastSquares";
 
 export const CURVE_FITS = ["pchip", "quadratic", "cubic"] as const;
@@ -62,13 +62,7 @@ function pchipEnd(h0: number, h1: number, m0: number, m1: number): number {
 
 /** Evaluates the cubic Hermite interpolant with slopes d at xq (inside [x0, xn]). */
 function hermite(x: readonly number[], y: readonly number[], d: readonly number[], xq: number): number {
-  let k = 0;
-  let hi = x.length - 1;
-  while (hi - k > 1) {
-    const mid = (k + hi) >> 1;
-    if (x[mid] <= xq) k = mid;
-    else hi = mid;
-  }
+  const k = bracket(x, xq);
   const h = x[k + 1] - x[k];
   const t = (xq - x[k]) / h;
   const t2 = t * t;
@@ -81,6 +75,24 @@ export interface Interpolant {
   min: number;
   max: number;
   at(flow: number): number;
+  /**
+   * How the value at a flow is obtained, as a reviewer checks it by hand: for PCHIP the two
+   * points either side, t, the slopes there and the straight line between the points (for
+   * comparison); for a least-squares fit its coefficients. `symbol` and `dim` name the column.
+   */
+  steps(flow: number, symbol: string, dim: StepDimension): Step[];
+}
+
+/** The index k of the interval [x_k, x_k+1] holding xq (the last one at the right end). */
+function bracket(x: readonly number[], xq: number): number {
+  let k = 0;
+  let hi = x.length - 1;
+  while (hi - k > 1) {
+    const mid = (k + hi) >> 1;
+    if (x[mid] <= xq) k = mid;
+    else hi = mid;
+  }
+  return k;
 }
 
 /** Builds the interpolant of a checked series by the chosen fit. */
@@ -90,14 +102,33 @@ export function interpolant(series: Series, fit: CurveFit = "pchip"): Interpolan
   const max = x[x.length - 1];
   if (fit === "pchip") {
     const d = pchipSlopes(x, y);
-    return { min, max, at: (q) => hermite(x, y, d, q) };
+    const steps = (q: number, symbol: string, dim: StepDimension): Step[] => {
+      const k = bracket(x, q);
+      const t = (q - x[k]) / (x[k + 1] - x[k]);
+      const per = `per m³/s (base units)`;
+      return [
+        step("Q_k", "curve point at or below the flow", x[k], "flow", `point ${k + 1} of ${x.length}`),
+        step("Q_k+1", "curve point above the flow", x[k + 1], "flow", `point ${k + 2} of ${x.length}`),
+        step(`${symbol}_k`, "value at Q_k", y[k], dim, "from the table"),
+        step(`${symbol}_k+1`, "value at Q_k+1", y[k + 1], dim, "from the table"),
+        step("t", "position between the points", t, "ratio", "t = (Q − Q_k)/(Q_k+1 − Q_k)"),
+        step("d_k", `slope at Q_k, ${per}`, d[k], "ratio", k === 0 ? "three-point end rule (SciPy PchipInterpolator)" : "weighted harmonic mean of the neighbouring secants (Fritsch–Butland)"),
+        step("d_k+1", `slope at Q_k+1, ${per}`, d[k + 1], "ratio", k + 1 === x.length - 1 ? "three-point end rule (SciPy PchipInterpolator)" : "weighted harmonic mean of the neighbouring secants (Fritsch–Butland)"),
+        step(`${symbol} (straight line)`, "straight line between the two points, for comparison", y[k] + t * (y[k + 1] - y[k]), dim, `${symbol}_k + t·(${symbol}_k+1 − ${symbol}_k)`),
+      ];
+    };
+    return { min, max, at: (q) => hermite(x, y, d, q), steps };
   }
   const degree = fit === "quadratic" ? 2 : 3;
   if (x.length < degree + 2) {
     throw new CalcError("fit", `a least-squares ${fit} needs at least ${degree + 2} points; the curve has ${x.length}`);
   }
   const poly = fitPolynomial(x, y, degree);
-  return { min, max, at: (q) => evaluatePolynomial(poly, q) };
+  const steps = (q: number, symbol: string): Step[] => [
+    step("s", "scaled flow", (q - poly.centre) / poly.scale, "ratio", `s = (Q − Q_c)/Q_s with Q_c = ${poly.centre} and Q_s = ${poly.scale} m³/s, the middle and half-width of the curve's flows`),
+    ...poly.coefficients.map((a, i) => step(`c${i}`, `coefficient of s^${i} in ${symbol}(s), base units`, a, "ratio", `least squares (${fit}) through the curve's ${x.length} points`)),
+  ];
+  return { min, max, at: (q) => evaluatePolynomial(poly, q), steps };
 }
 
 /** Relative slack at the ends of a curve, so a flow read from the last point itself is inside. */

@@ -11,21 +11,31 @@ import { curveInterpolant, type Impeller, type PumpCurve, valueAt } from "./pump
  * its head and efficiency columns.
  */
 export function pumpPowerAt(curve: PumpCurve, flow: number, density: number): CalcResult {
-  if (curve.power) return ok(valueAt("flow", "power", curveInterpolant("curve", curve, "power"), flow));
+  if (curve.power) {
+    const f = curveInterpolant("curve", curve, "power");
+    return ok(valueAt("flow", "power", f, flow), [], f.steps(flow, "P", "power"));
+  }
   const head = valueAt("flow", "head", curveInterpolant("curve", curve, "head"), flow);
   const efficiency = valueAt("flow", "efficiency", curveInterpolant("curve", curve, "efficiency"), flow);
   if (!(efficiency > 0)) throw new CalcError("flow", `the curve's efficiency is ${efficiency} at this flow: no power can be computed (add a Power column)`);
-  return ok(hydraulicPower(flow, head, density).value / efficiency);
+  const hydraulic = hydraulicPower(flow, head, density).value;
+  return ok(hydraulic / efficiency, [], [
+    step("H(Q)", "head on the curve at the flow", head, "length", "PCHIP through the head column"),
+    step("η(Q)", "efficiency on the curve at the flow", efficiency, "efficiency", "PCHIP through the efficiency column"),
+    step("P_h", "hydraulic power ρgQH", hydraulic, "power", "g = 9.80665 m/s²"),
+  ]);
 }
 
 /**
  * The factor each column of a curve is multiplied by for `count` identical pumps: in parallel
  * flows and power add, in series heads and power add; efficiency and NPSHr are each pump's own.
  */
-export function combineFactors(count: number, arrangement: "parallel" | "series"): (column: string) => number {
+export function combineFactors(count: number, arrangement: "parallel" | "series"): CalcResult<(column: string) => number> {
   if (!(Number.isInteger(count) && count >= 1 && count <= 20)) throw new CalcError("count", `expected a whole number of pumps from 1 to 20; got ${count}`);
   const added = arrangement === "parallel" ? ["flow", "power"] : ["head", "power"];
-  return (column) => (added.includes(column) ? count : 1);
+  return ok((column) => (added.includes(column) ? count : 1), [], [
+    step("n", "identical pumps running", count, "ratio", `${arrangement}: ${added.join(" and ")} × n at each point; the other columns are each pump's own`),
+  ]);
 }
 
 /** The impeller chosen for a duty, with its head, efficiency and NPSHr at the duty flow (where known). */

@@ -2,7 +2,7 @@
  * Typical absolute roughness of new pipe, m. Values as commonly tabulated after Moody (1944)
  * and in hydraulics texts (from memory); the real value depends on age, lining and water.
  */
-import { CalcError, type CalcResult, ok } from "./_lib/result";
+import { CalcError, type CalcResult, ok, step } from "./_lib/result";
 
 const MM = 1e-3;
 
@@ -45,5 +45,7 @@ export function roughnessOf(material: string): CalcResult {
   if (!name) {
     throw new CalcError("material", `unknown material "${material}": expected one of ${Object.keys(ROUGHNESS).map((k) => `"${k}"`).join(", ")}`, "value");
   }
-  return ok(ROUGHNESS[name][0], [`Typical new-pipe value (${ROUGHNESS[name][1]}); aged pipe can be several times rougher.`]);
+  return ok(ROUGHNESS[name][0], [`Typical new-pipe value (${ROUGHNESS[name][1]}); aged pipe can be several times rougher.`], [
+    step("ε", `typical roughness of new ${name}`, ROUGHNESS[name][0], "length", `table row "${name}": ${ROUGHNESS[name][1]}`),
+  ]);
 }

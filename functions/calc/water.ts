@@ -7,7 +7,7 @@
  *
  * Temperatures are in °C at this boundary (the project's convention) and in kelvin inside.
  */
-import { CalcError, type CalcResult, ok } from "./_lib/result";
+import { CalcError, type CalcResult, ok, type Step, step } from "./_lib/result";
 import { ZERO_CELSIUS } from "./_lib/constants";
 
 /** Specific gas constant of water used by IF97, J/(kg·K). */
@@ -41,25 +41,35 @@ const SAT_T_MIN_K = 273.15;
 const SAT_T_MAX_K = 647.096;
 const SAT_P_MIN_PA = 611.213;
 
-/** IF97 region 1 specific volume, m³/kg, at T in K and p in Pa (no range checks). */
-export function if97Region1SpecificVolume(temperatureK: number, pressurePa: number): number {
+/** IF97 region 1 at T in K and p in Pa: reduced pressure π, inverse reduced temperature τ, γ_π and the specific volume, m³/kg. */
+function if97Region1(temperatureK: number, pressurePa: number): { pi: number; tau: number; gammaPi: number; volume: number } {
   const pi = pressurePa / 16.53e6;
   const tau = 1386 / temperatureK;
   let gammaPi = 0;
   for (let i = 0; i < R1_N.length; i++) {
     gammaPi -= R1_N[i] * R1_I[i] * Math.pow(7.1 - pi, R1_I[i] - 1) * Math.pow(tau - 1.222, R1_J[i]);
   }
-  return (pi * gammaPi * R_IF97 * temperatureK) / pressurePa;
+  return { pi, tau, gammaPi, volume: (pi * gammaPi * R_IF97 * temperatureK) / pressurePa };
 }
 
-/** IF97 region 4 saturation pressure, Pa, at T in K (equation 30). */
-export function if97SaturationPressure(temperatureK: number): number {
+/** IF97 region 1 specific volume, m³/kg, at T in K and p in Pa (no range checks). */
+export function if97Region1SpecificVolume(temperatureK: number, pressurePa: number): number {
+  return if97Region1(temperatureK, pressurePa).volume;
+}
+
+/** IF97 region 4 (equation 30) at T in K: the transformed temperature ϑ, the quadratic's A, B, C, and the saturation pressure, Pa. */
+function if97Region4(temperatureK: number): { theta: number; A: number; B: number; C: number; pressure: number } {
   const [n1, n2, n3, n4, n5, n6, n7, n8, n9, n10] = N4;
   const theta = temperatureK + n9 / (temperatureK - n10);
   const A = theta * theta + n1 * theta + n2;
   const B = n3 * theta * theta + n4 * theta + n5;
   const C = n6 * theta * theta + n7 * theta + n8;
-  return Math.pow((2 * C) / (-B + Math.sqrt(B * B - 4 * A * C)), 4) * 1e6;
+  return { theta, A, B, C, pressure: Math.pow((2 * C) / (-B + Math.sqrt(B * B - 4 * A * C)), 4) * 1e6 };
+}
+
+/** IF97 region 4 saturation pressure, Pa, at T in K (equation 30). */
+export function if97SaturationPressure(temperatureK: number): number {
+  return if97Region4(temperatureK).pressure;
 }
 
 /** IF97 region 4 saturation temperature, K, at p in Pa (equation 31, the backward equation). */
@@ -73,8 +83,8 @@ export function if97SaturationTemperature(pressurePa: number): number {
   return (n10 + D - Math.sqrt((n10 + D) * (n10 + D) - 4 * (n9 + n10 * D))) / 2;
 }
 
-/** IAPWS 2008 viscosity, Pa·s, from T in K and density in kg/m³, critical enhancement μ2 = 1. */
-export function iapws2008Viscosity(temperatureK: number, density: number): number {
+/** IAPWS 2008 viscosity from T in K and density in kg/m³, critical enhancement μ2 = 1: T̄, ρ̄, μ̄0, μ̄1 and μ in Pa·s. */
+function iapws2008(temperatureK: number, density: number): { Tbar: number; rhoBar: number; mu0: number; mu1: number; viscosity: number } {
   const Tbar = temperatureK / 647.096;
   const rhoBar = density / 322.0;
   const H0 = [1.67752, 2.20462, 0.6366564, -0.241605];
@@ -97,7 +107,12 @@ export function iapws2008Viscosity(temperatureK: number, density: number): numbe
     sum += Math.pow(1 / Tbar - 1, i) * inner;
   }
   const mu1 = Math.exp(rhoBar * sum);
-  return mu0 * mu1 * 1e-6;
+  return { Tbar, rhoBar, mu0, mu1, viscosity: mu0 * mu1 * 1e-6 };
+}
+
+/** IAPWS 2008 viscosity, Pa·s, from T in K and density in kg/m³, critical enhancement μ2 = 1. */
+export function iapws2008Viscosity(temperatureK: number, density: number): number {
+  return iapws2008(temperatureK, density).viscosity;
 }
 
 /** Saturation (vapour) pressure of water, Pa, at a temperature in °C. */
@@ -106,7 +121,14 @@ export function saturationPressure(temperatureC: number): CalcResult {
   if (!(T >= SAT_T_MIN_K && T <= SAT_T_MAX_K)) {
     throw new CalcError("temperature", `expected 0 °C to 373.946 °C (the IF97 saturation line); got ${temperatureC} °C`);
   }
-  return ok(if97SaturationPressure(T));
+  const r = if97Region4(T);
+  return ok(r.pressure, [], [
+    step("T", "absolute temperature, K", T, "ratio", "T = t + 273.15"),
+    step("ϑ", "transformed temperature, K", r.theta, "ratio", "IAPWS-IF97 equation 29b, ϑ = T + n9/(T − n10)"),
+    step("A", "quadratic coefficient A", r.A, "ratio", "IAPWS-IF97 equation 30, A = ϑ² + n1·ϑ + n2"),
+    step("B", "quadratic coefficient B", r.B, "ratio", "IAPWS-IF97 equation 30, B = n3·ϑ² + n4·ϑ + n5"),
+    step("C", "quadratic coefficient C", r.C, "ratio", "IAPWS-IF97 equation 30, C = n6·ϑ² + n7·ϑ + n8"),
+  ]);
 }
 
 /** Checks that (T, p) is compressed or saturated liquid inside IF97 region 1; throws otherwise. */
@@ -128,20 +150,55 @@ function requireLiquid(temperatureC: number, pressurePa: number): void {
   }
 }
 
+/** The IF97 region 1 steps of a density: T, π, τ, γ_π and the specific volume. */
+function densitySteps(temperatureC: number, pressurePa: number): { density: number; steps: Step[] } {
+  const T = temperatureC + ZERO_CELSIUS;
+  const r = if97Region1(T, pressurePa);
+  return {
+    density: 1 / r.volume,
+    steps: [
+      step("T", "absolute temperature, K", T, "ratio", "T = t + 273.15"),
+      step("π", "reduced pressure", r.pi, "ratio", "IAPWS-IF97 region 1, π = p/16.53 MPa"),
+      step("τ", "inverse reduced temperature", r.tau, "ratio", "IAPWS-IF97 region 1, τ = 1386 K/T"),
+      step("γ_π", "∂γ/∂π of the region 1 Gibbs free energy", r.gammaPi, "ratio", "IAPWS-IF97 equation 7 with table 2, 34 terms"),
+      step("v", "specific volume, m³/kg", r.volume, "ratio", "IAPWS-IF97 table 3, v = π·γ_π·R·T/p with R = 461.526 J/(kg·K)"),
+    ],
+  };
+}
+
 /** Liquid water density, kg/m³, at temperature in °C and absolute pressure in Pa (IF97 region 1). */
 export function waterDensity(temperatureC: number, pressurePa: number): CalcResult {
   requireLiquid(temperatureC, pressurePa);
-  return ok(1 / if97Region1SpecificVolume(temperatureC + ZERO_CELSIUS, pressurePa));
+  const { density, steps } = densitySteps(temperatureC, pressurePa);
+  return ok(density, [], steps);
+}
+
+/** The IAPWS 2008 steps of a viscosity: ρ (IF97), T̄, ρ̄, μ̄0, μ̄1. */
+function viscositySteps(temperatureC: number, pressurePa: number): { viscosity: number; density: number; steps: Step[] } {
+  requireLiquid(temperatureC, pressurePa);
+  const { density } = densitySteps(temperatureC, pressurePa);
+  const r = iapws2008(temperatureC + ZERO_CELSIUS, density);
+  return {
+    viscosity: r.viscosity,
+    density,
+    steps: [
+      step("ρ", "density", density, "density", "IAPWS-IF97 region 1"),
+      step("T̄", "reduced temperature", r.Tbar, "ratio", "IAPWS 2008, T̄ = T/647.096 K"),
+      step("ρ̄", "reduced density", r.rhoBar, "ratio", "IAPWS 2008, ρ̄ = ρ/322 kg/m³"),
+      step("μ̄0", "dilute-gas viscosity, µPa·s", r.mu0, "ratio", "IAPWS 2008 equation 11, table 1"),
+      step("μ̄1", "residual factor", r.mu1, "ratio", "IAPWS 2008 equation 12, table 2; critical enhancement μ̄2 = 1 (industrial use)"),
+    ],
+  };
 }
 
 /** Liquid water dynamic viscosity, Pa·s (IAPWS 2008 with the IF97 density). */
 export function waterViscosity(temperatureC: number, pressurePa: number): CalcResult {
-  const rho = waterDensity(temperatureC, pressurePa).value;
-  return ok(iapws2008Viscosity(temperatureC + ZERO_CELSIUS, rho));
+  const { viscosity, steps } = viscositySteps(temperatureC, pressurePa);
+  return ok(viscosity, [], steps);
 }
 
 /** Liquid water kinematic viscosity, m²/s: dynamic viscosity over density. */
 export function waterKinematicViscosity(temperatureC: number, pressurePa: number): CalcResult {
-  const rho = waterDensity(temperatureC, pressurePa).value;
-  return ok(iapws2008Viscosity(temperatureC + ZERO_CELSIUS, rho) / rho);
+  const { viscosity, density, steps } = viscositySteps(temperatureC, pressurePa);
+  return ok(viscosity / density, [], [...steps, step("μ", "dynamic viscosity", viscosity, "viscosity", "IAPWS 2008, μ = μ̄0·μ̄1 µPa·s")]);
 }

@@ -35,6 +35,7 @@ export const specs: FunctionSpec[] = [
     ],
     result: { dim: dimOfKind, description: "Scaled value in the kind's base unit." },
     equation: String.raw`Q_2 = Q_1 r, \quad H_2 = H_1 r^2, \quad P_2 = P_1 r^3, \quad r = \frac{N_2}{N_1}\ \text{or}\ \frac{D_2}{D_1}`,
+    derivation: (n) => `x₂ = x₁·r^n = ${n.arg("value")}·${n.arg("ratio")}^${n.step("n")} = ${n.result} (${n.arg("kind")})`,
     assumptions: ["Efficiency unchanged by the change of speed or diameter.", "Diameter scaling holds only for small trims of the same impeller."],
     validity: ["Ratios far from 1 (below 0.5 or above 1.5) give a warning."],
     cautions: [DESIGN_AID],

@@ -13,6 +13,10 @@ export const specs: FunctionSpec[] = [
     ],
     result: { dim: "pressure", description: "Absolute pressure, Pa." },
     equation: String.raw`p = p_b\left[\frac{T_b}{T_b + L_b (H - H_b)}\right]^{\frac{g_0 M}{R^* L_b}}, \quad H = \frac{r_0 z}{r_0 + z}`,
+    derivation: (n) =>
+      n.step("L_b") === "0"
+        ? `p = p_b·exp(−(g0·M/R)·(H − H_b)/T_b) = ${n.step("p_b")}·exp(−${n.step("g0·M/R")}·(${n.step("H")} − ${n.step("H_b")})/${n.step("T_b")}) = ${n.result}`
+        : `p = p_b·[T_b/T]^((g0·M/R)/L_b) = ${n.step("p_b")}·[${n.step("T_b")}/${n.step("T")}]^(${n.step("g0·M/R")}/${n.step("L_b")}) = ${n.result}, T = T_b + L_b·(H − H_b)`,
     assumptions: [
       "Standard day: the real barometric pressure varies with weather by a few percent.",
       "Elevation is geometric; it is turned into geopotential height with r0 = 6 356 766 m.",

@@ -21,7 +21,7 @@ export const specs: FunctionSpec[] = [
     ],
     result: { dim: "ratio", description: "Darcy (Moody) friction factor; the Fanning factor is a quarter of it." },
     equation: String.raw`\frac{1}{\sqrt f} = -2\log_{10}\!\left(\frac{\varepsilon/D}{3.7} + \frac{2.51}{Re\sqrt f}\right); \quad f = \frac{64}{Re}\ (Re < 2000)`,
-    derivation: (n) => `f = ${n.result} for Re = ${n.step("Re")}, ε/D = ${n.step("ε/D")}`,
+    derivation: (n) => (n.has("ε/D") ? `f = ${n.result} for Re = ${n.step("Re")}, ε/D = ${n.step("ε/D")}` : `f = 64/Re = 64/${n.step("Re")} = ${n.result}`),
     assumptions: [
       "Fully developed flow of a Newtonian liquid in a full round pipe.",
       "Laminar below Re = 2000: f = 64/Re for every method but Churchill's, which covers all regimes itself.",

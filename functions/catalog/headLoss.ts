@@ -41,7 +41,11 @@ export const specs: FunctionSpec[] = [
     params: [flowParam, diameterParam, length, { name: "c_factor", kind: "quantity", dim: "ratio", description: "Hazen–Williams C, such as 130 for new steel." }, unitParam('"ft" or "m"')],
     result: { dim: "length", description: "Head loss, m of water." },
     equation: String.raw`h_f = \frac{10.67\, L\, Q^{1.852}}{C^{1.852} D^{4.8704}} \quad (\text{SI units})`,
-    derivation: (n) => `h = 10.67·L·Q^1.852/(C^1.852·D^4.8704) = 10.67·${n.arg("length")}·(${n.arg("flow")})^1.852/(${n.arg("c_factor")}^1.852·(${n.arg("diameter")})^4.8704) = ${n.result}`,
+    // In US units the constant becomes 10.67·0.3048^−4.8704·0.0283168^1.852 = 4.725, with Q in ft³/s and L, D in ft.
+    derivation: (n) => {
+      const k = n.us ? "4.725" : "10.67";
+      return `h = ${k}·L·Q^1.852/(C^1.852·D^4.8704) = ${k}·${n.arg("length")}·(${n.arg("flow", n.us ? "ft^3/s" : undefined)})^1.852/(${n.arg("c_factor")}^1.852·(${n.arg("diameter")})^4.8704) = ${n.result}`;
+    },
     assumptions: ["Water near room temperature, turbulent flow: the formula has no viscosity term."],
     validity: ["C outside 40–160, D below 50 mm or velocity above 3 m/s give warnings."],
     cautions: [],

@@ -13,7 +13,7 @@ export const specs: FunctionSpec[] = [
     params: [flowParam, head, densityParam, unitParam('"kW" or "hp"')],
     result: { dim: "power", description: "Power, W." },
     equation: String.raw`P_h = \rho\, g\, Q\, H`,
-    derivation: (n) => `P = ρ·g·Q·H = ${n.arg("density")}·9.80665 m/s²·${n.arg("flow")}·${n.arg("head")} = ${n.result}`,
+    derivation: (n) => `P = ρ·g·Q·H = ${n.arg("density")}·${n.g}·${n.arg("flow")}·${n.arg("head")} = ${n.result}`,
     assumptions: ["Standard gravity; density of the pumped liquid (water at 20 °C unless given)."],
     validity: ["Flow of zero or more; density greater than zero."],
     cautions: [DESIGN_AID],

@@ -3,7 +3,7 @@ import { operatingPoint } from "../calc/operatingPoint";
 import { systemHead } from "../calc/systemCurve";
 import { combineFactors, pumpPowerAt, selectImpeller } from "../calc/pumpSelection";
 import { curveScaleFactors } from "../calc/affinity";
-import { ok } from "../calc/_lib/result";
+import { ok, type StepDimension } from "../calc/_lib/result";
 import type { Table } from "../tables/table";
 import { CAVITATION_CAUTION, curveParam, DESIGN_AID, densityParam, PARABOLA_CURVE, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
 import { curveFromTable, impellersFromTable, spillTable, spillValue, systemLosses } from "./_tables";
@@ -42,6 +42,18 @@ const CURVE_US = [
 
 const curveOf = (curve: Table) => curveFromTable("curve", curve);
 
+/** Reads one column of a curve at the flow, with the interpolation's steps. */
+function readColumn(a: { flow: number; curve: Table; fit: (typeof CURVE_FITS)[number] }, column: "head" | "efficiency" | "npshr", symbol: string, dim: StepDimension) {
+  const f = curveInterpolant("curve", curveOf(a.curve), column, a.fit);
+  return ok(valueAt("flow", column === "npshr" ? "NPSHr" : column, f, a.flow), [], f.steps(a.flow, symbol, dim));
+}
+
+/** The derivation of a value read from a curve: PCHIP between the two points either side (with the straight line beside it), or the fitted polynomial. */
+const curveDerivation = (symbol: string) => (n: Parameters<NonNullable<FunctionSpec["derivation"]>>[0]) =>
+  n.has("t")
+    ? `${symbol}(Q) = h00(t)·${symbol}_k + h10(t)·ΔQ·d_k + h01(t)·${symbol}_k+1 + h11(t)·ΔQ·d_k+1 with t = ${n.step("t")} between (${n.step("Q_k")}, ${n.step(`${symbol}_k`)}) and (${n.step("Q_k+1")}, ${n.step(`${symbol}_k+1`)}): ${symbol} = ${n.result}; the straight line gives ${n.step(`${symbol} (straight line)`)}`
+    : `${symbol}(s) = Σ c_i·s^i at s = ${n.step("s")}: ${symbol} = ${n.result}`;
+
 export const specs: FunctionSpec[] = [
   defineSpec({
     id: "PUMP.HEAD",
@@ -50,12 +62,13 @@ export const specs: FunctionSpec[] = [
     params: [flowParam, curveParam, unitParam('"ft" or "m"'), fitParam],
     result: { dim: "length", description: "Head, m." },
     equation: PCHIP_EQUATION,
+    derivation: curveDerivation("H"),
     assumptions: CURVE_ASSUMPTIONS,
     validity: ["At least 3 points, no repeated flow; head may rise to one peak and then must fall; flows outside the curve are an error."],
     cautions: [DESIGN_AID],
     sources: [PCHIP_SOURCE],
     examples: [{ args: ["250 gpm", CURVE_US, "ft"], expect: 86.875, tolerance: 1e-12, source: `${SCIPY}: 86.875 ft` }],
-    compute: (a) => ok(valueAt("flow", "head", curveInterpolant("curve", curveOf(a.curve), "head", a.fit), a.flow)),
+    compute: (a) => readColumn(a, "head", "H", "length"),
   }),
   defineSpec({
     id: "PUMP.EFFICIENCY",
@@ -64,12 +77,13 @@ export const specs: FunctionSpec[] = [
     params: [flowParam, curveParam, fitParam],
     result: { dim: "ratio", description: "Efficiency as a fraction (0.76)." },
     equation: PCHIP_EQUATION,
+    derivation: curveDerivation("η"),
     assumptions: [...CURVE_ASSUMPTIONS, 'An efficiency column headed "Eff (%)" is read as percent; without "%" it must hold fractions.'],
     validity: ["Efficiencies from 0 to 1 (or 0 to 100 %)."],
     cautions: [DESIGN_AID],
     sources: [PCHIP_SOURCE],
     examples: [{ args: ["250 gpm", CURVE_US], expect: 0.748095238095238, tolerance: 1e-12, source: `${SCIPY}` }],
-    compute: (a) => ok(valueAt("flow", "efficiency", curveInterpolant("curve", curveOf(a.curve), "efficiency", a.fit), a.flow)),
+    compute: (a) => readColumn(a, "efficiency", "η", "efficiency"),
   }),
   defineSpec({
     id: "PUMP.NPSHR",
@@ -78,12 +92,13 @@ export const specs: FunctionSpec[] = [
     params: [flowParam, curveParam, unitParam('"ft" or "m"'), fitParam],
     result: { dim: "length", description: "NPSHr, m." },
     equation: PCHIP_EQUATION,
+    derivation: curveDerivation("NPSHr"),
     assumptions: [...CURVE_ASSUMPTIONS, "NPSHr is the maker's NPSH3 (3 % head drop)."],
     validity: ["Blank NPSHr cells are skipped; at least 3 points must remain."],
     cautions: [CAVITATION_CAUTION],
     sources: [PCHIP_SOURCE],
     examples: [{ args: ["250 gpm", CURVE_US, "ft"], expect: 9.33125, tolerance: 1e-12, source: `${SCIPY} (blank NPSHr at shutoff skipped): 9.33125 ft` }],
-    compute: (a) => ok(valueAt("flow", "NPSHr", curveInterpolant("curve", curveOf(a.curve), "npshr", a.fit), a.flow)),
+    compute: (a) => readColumn(a, "npshr", "NPSHr", "length"),
   }),
   defineSpec({
     id: "PUMP.POWER",
@@ -92,6 +107,7 @@ export const specs: FunctionSpec[] = [
     params: [flowParam, curveParam, densityParam, unitParam('"kW" or "hp"')],
     result: { dim: "power", description: "Shaft power, W." },
     equation: String.raw`P = \frac{\rho\, g\, Q\, H(Q)}{\eta(Q)} \quad \text{or} \quad P = P(Q) \text{ from the power column}`,
+    derivation: (n) => (n.has("P_h") ? `P = ρgQH/η = ${n.arg("density")}·${n.g}·${n.arg("flow")}·${n.step("H(Q)")}/${n.step("η(Q)")} = ${n.result}` : curveDerivation("P")(n)),
     assumptions: [...CURVE_ASSUMPTIONS, "A power column is used as given (it is for the maker's test liquid); otherwise power is computed with the given density."],
     validity: ["Needs a power column, or head and efficiency columns; efficiency above zero at the flow."],
     cautions: [DESIGN_AID, "Size the motor for the largest power on the curve, not only at the duty point."],
@@ -148,6 +164,7 @@ export const specs: FunctionSpec[] = [
     params: [curveParam, { name: "ratio", kind: "quantity", dim: "ratio", description: "Speed ratio N2/N1 (or impeller diameter ratio for small trims)." }],
     result: { dim: "flow", description: "The curve with flow × r, head and NPSHr × r², power × r³, efficiency unchanged; same columns, header and units.", spill: true },
     equation: String.raw`Q_2 = rQ_1,\quad H_2 = r^2 H_1,\quad NPSH_{r,2} = r^2 NPSH_{r,1},\quad P_2 = r^3 P_1,\quad \eta_2 = \eta_1`,
+    derivation: (n) => `Q₂ = r·Q₁, H₂ = r²·H₁, NPSHr₂ = r²·NPSHr₁, P₂ = r³·P₁ at every point, with r = ${n.step("r")}: r² = ${n.step("r²")}, r³ = ${n.step("r³")}`,
     assumptions: ["Efficiency unchanged; NPSHr scaled by r² (approximate: makers' data are better)."],
     validity: ["Ratios far from 1 warn."],
     cautions: [DESIGN_AID],
@@ -163,7 +180,7 @@ export const specs: FunctionSpec[] = [
       const t = a.curve;
       curveFromTable("curve", t);
       const scale = curveScaleFactors(a.ratio);
-      return ok(spillTable(t, (role, v) => v * scale.value(role)), scale.warnings);
+      return ok(spillTable(t, (role, v) => v * scale.value(role)), scale.warnings, scale.steps);
     },
   }),
   defineSpec({
@@ -177,6 +194,7 @@ export const specs: FunctionSpec[] = [
     ],
     result: { dim: "flow", description: "The combined curve; same columns, header and units.", spill: true },
     equation: String.raw`\text{parallel: } Q_n = nQ,\ P_n = nP; \quad \text{series: } H_n = nH,\ P_n = nP`,
+    derivation: (n) => `${n.arg("arrangement")} with n = ${n.step("n")}: ${n.arg("arrangement") === "parallel" ? "Q_n = n·Q" : "H_n = n·H"} and P_n = n·P at every point of the curve`,
     assumptions: ["Identical pumps at the same speed; NPSHr is each pump's at its own flow; efficiency unchanged.", "Parallel pumps share the same head; losses in their own branches are not included."],
     validity: ["count a whole number from 1 to 20."],
     cautions: [DESIGN_AID, "Check each pump alone can run safely when another trips (run-out, NPSH, motor power)."],
@@ -191,7 +209,7 @@ export const specs: FunctionSpec[] = [
     compute: (a) => {
       const factor = combineFactors(a.count, a.arrangement);
       curveFromTable("curve", a.curve);
-      return ok(spillTable(a.curve, (role, v) => v * factor(role)));
+      return ok(spillTable(a.curve, (role, v) => v * factor.value(role)), [], factor.steps);
     },
   }),
   defineSpec({

@@ -99,7 +99,8 @@ export interface FunctionSpec {
   equation: string;
   /**
    * The equation again with the numbers of one call put in, as a hand calculation writes it
-   * ("h_f = f·(L/D)·V²/2g = 0.0189·(30 m/0.1541 m)·0.0707 m = 0.256 m"), in base units.
+   * ("h_f = f·(L/D)·V²/2g = 0.0189·(30 m/0.1541 m)·0.0707 m = 0.256 m"), in base units, or in
+   * US customary units when the call's flow or a length was given in them.
    */
   derivation?: (n: DerivationNumbers) => string;
   assumptions: readonly string[];
@@ -120,14 +121,23 @@ export function numberArg(args: Args, name: string): number {
   return v;
 }
 
-/** The numbers of one call, formatted for a derivation line (base units, with the unit). */
+/**
+ * The numbers of one call, formatted for a derivation line with their units: US customary when
+ * the call's flow or a length was given in them, else base units.
+ */
 interface DerivationNumbers {
-  /** An argument's value ("30 m"). */
-  arg(name: string): string;
+  /** An argument's value ("30 m"), or in a unit named here ("0.0446 ft^3/s"). */
+  arg(name: string, unit?: string): string;
   /** An intermediate value by its symbol ("0.0189"). */
   step(symbol: string): string;
+  /** True when the call recorded an intermediate value of that symbol (for lines that depend on the method). */
+  has(symbol: string): boolean;
   /** The result ("0.256 m"). */
   result: string;
+  /** Standard gravity in the line's units ("9.80665 m/s²" or "32.174 ft/s²"). */
+  g: string;
+  /** True when the line is in US customary units (for equations with a dimensional constant). */
+  us: boolean;
 }
 
 /** Resolves a result dimension that may depend on the arguments. */

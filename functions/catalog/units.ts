@@ -1,5 +1,5 @@
-import { convertUnits } from "../units/quantity";
-import { ok } from "../calc/_lib/result";
+import { convertUnits, inSiBaseUnits } from "../units/quantity";
+import { ok, step } from "../calc/_lib/result";
 import { defineSpec, type FunctionSpec } from "./types";
 
 export const specs: FunctionSpec[] = [
@@ -14,6 +14,7 @@ export const specs: FunctionSpec[] = [
     ],
     result: { dim: "ratio", description: "The value in to_unit." },
     equation: String.raw`x_{\text{to}} = x_{\text{from}} \cdot \frac{k_{\text{from}}}{k_{\text{to}}} \quad (\text{offsets for }^\circ\text{C}, ^\circ\text{F})`,
+    derivation: (n) => `${n.arg("value")} ${n.arg("from_unit")} = ${n.step("x_SI")} in SI base units = ${n.result} ${n.arg("to_unit")}`,
     assumptions: ["US gallons (231 in³); water columns at 1000 kg/m³ and standard gravity (conventional)."],
     validity: ["Both units must measure the same dimension."],
     cautions: [],
@@ -24,6 +25,10 @@ export const specs: FunctionSpec[] = [
       { args: [212, "degF", "degC"], expect: 100, source: "NIST SP 811 B.9: t/°C = (t/°F − 32)/1.8" },
       { args: [1, "ftH2O", "kPa"], expect: 2.98906692, source: "NIST SP 811 B.8: foot of water (conventional) = 2.989067E+03 Pa" },
     ],
-    compute: (a) => ok(convertUnits(a.value, a.from_unit, a.to_unit)),
+    compute: (a) => {
+      const result = convertUnits(a.value, a.from_unit, a.to_unit);
+      const si = inSiBaseUnits(a.value, a.from_unit);
+      return ok(result, [], [step("x_SI", `the value in SI base units, ${si.unit}`, si.value, "ratio", "mathjs unit definitions (factors as NIST SP 811 lists them)")]);
+    },
   }),
 ];

@@ -19,6 +19,7 @@ export interface DimensionInfo {
 
 export const DIMENSIONS = {
   length: { base: "m", baseLabel: "m", noun: "a length", example: '"6 in"', plausible: [1e-7, 1e5] },
+  area: { base: "m^2", baseLabel: "m²", noun: "an area", example: '"12 in^2"' },
   flow: { base: "m^3/s", baseLabel: "m³/s", noun: "a volume flow", example: '"400 gpm"', plausible: [1e-8, 200] },
   velocity: { base: "m/s", baseLabel: "m/s", noun: "a velocity", example: '"8 ft/s"', plausible: [1e-5, 500] },
   pressure: { base: "Pa", baseLabel: "Pa", noun: "a pressure", example: '"35 psi"', plausible: [1, 1e9] },

@@ -175,3 +175,9 @@ export function convertUnits(value: number, fromUnit: string, toUnit: string): n
   }
   return quantity(value, normaliseUnitText(fromUnit)).toNumber(normaliseUnitText(toUnit));
 }
+
+/** A value given in a unit, in SI base units: the number and the SI unit ("kg / (m s^2)"), for a conversion's audit trail. */
+export function inSiBaseUnits(value: number, fromUnit: string): { value: number; unit: string } {
+  const si = quantity(value, normaliseUnitText(fromUnit)).toSI();
+  return { value: si.toNumber(), unit: si.formatUnits() };
+}

@@ -33,7 +33,9 @@ for name, c in CURVES.items():
     x = np.array(c["x"])
     y = np.array(c["y"])
     q = np.linspace(x[0], x[-1], 41)
-    entry = {"x": c["x"], "y": c["y"], "q": q.tolist(), "pchip": PchipInterpolator(x, y)(q).tolist()}
+    f = PchipInterpolator(x, y)
+    # slopes: the derivative at each point, which a reviewer needs to check a PCHIP value by hand.
+    entry = {"x": c["x"], "y": c["y"], "q": q.tolist(), "pchip": f(q).tolist(), "slopes": f.derivative()(x).tolist()}
     for degree, key in [(2, "quadratic"), (3, "cubic")]:
         if len(x) >= degree + 2:
             entry[key] = np.polyval(np.polyfit(x, y, degree), q).tolist()

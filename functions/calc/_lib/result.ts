@@ -1,5 +1,5 @@
 /** The kind of quantity an intermediate value is (as functions/units/dimensions.ts names them). */
-export type StepDimension = "length" | "flow" | "velocity" | "pressure" | "power" | "energy" | "density" | "viscosity" | "kinematicViscosity" | "temperature" | "rotationalSpeed" | "angle" | "modulus" | "time" | "ratio" | "efficiency";
+export type StepDimension = "length" | "area" | "flow" | "velocity" | "pressure" | "power" | "energy" | "density" | "viscosity" | "kinematicViscosity" | "temperature" | "rotationalSpeed" | "angle" | "modulus" | "time" | "ratio" | "efficiency";
 
 /** A named intermediate value of a calculation, as a hand calculation would write it down. */
 export interface Step {
