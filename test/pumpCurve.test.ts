@@ -145,6 +145,29 @@ describe("curve tables", () => {
   it("rejects a blank row inside the table", () => {
     expect(failure("PUMP.HEAD", 0.01, [[0, 10], [null, null], [0.01, 9], [0.02, 8]]).message).toMatch(/blank inside/);
   });
+  // The same invented curve in the layouts engineers' own workbooks use: each reads as "Flow (gpm)" does.
+  it.each([
+    ["a units row under the names", [["Flow", "Head", "Eff", "P"], ["gpm", "ft", "%", "bhp"]]],
+    ["name, comma, unit", [["Flow, gpm", "Head, ft", "Eff, %", "Power, bhp"]]],
+    ["name then unit", [["Q gpm", "H ft", "Eff. %", "P bhp"]]],
+    ["US gallons said so", [["Q (US gpm)", "TDH (ft)", "Eff.%", "P (bhp)"]]],
+  ])("reads the header as %s", (_, head) => {
+    const rows = [[0, 100, 0, 4], [100, 98, 55, 5], [200, 92, 72, 6.5], [300, 80, 76, 8]];
+    const table = [...head, ...rows];
+    expect(run("PUMP.HEAD", "150 gpm", table, "ft").value).toBeCloseTo(run("PUMP.HEAD", "150 gpm", US, "ft").value as number, 12);
+    expect(run("PUMP.EFFICIENCY", "200 gpm", table).value).toBeCloseTo(0.72, 12);
+    expect(run("PUMP.POWER", "200 gpm", table, null, "hp").value).toBeCloseTo(6.5, 12);
+  });
+  it("reads the imperial gallon only when the header says so: 100 UK gpm = 120.095 US gpm (4.54609 L vs 3.785411784 L, NIST SP 811)", () => {
+    const uk = [["Q (UK gpm)", "H (ft)"], [0, 100], [100, 98], [200, 92], [300, 80]];
+    const us = [["Q (gpm)", "H (ft)"], [0, 100], [120.09499255, 98], [240.1899851, 92], [360.28497765, 80]];
+    expect(run("PUMP.HEAD", "150 igpm", uk, "ft").value).toBeCloseTo(run("PUMP.HEAD", "180.1424888 gpm", us, "ft").value as number, 6);
+    expect(run("CONVERT", 100, "igpm", "gpm").value).toBeCloseTo(120.09499255, 6);
+  });
+  it("names the column whose unit cannot be read, and a names row and units row that disagree", () => {
+    expect(failure("PUMP.HEAD", 0.01, [["Flow, bananas", "Head (m)"], [0, 1], [1, 1], [2, 1]]).message).toMatch(/unknown unit "bananas"/);
+    expect(failure("PUMP.HEAD", 0.01, [["Flow (gpm)", "Head"], ["L/s", "m"], [0, 1], [1, 1], [2, 1]]).message).toMatch(/column "Flow \(gpm\)" names the unit gpm and the units row under it L\/s/);
+  });
   it("says which column is missing", () => {
     expect(failure("PUMP.NPSHR", 0.01, [[0, 10], [0.01, 9], [0.02, 8]]).message).toMatch(/no NPSHr column/);
   });

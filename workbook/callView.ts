@@ -81,11 +81,17 @@ function howWhy(r: ArgReading): { unit: string; why: string } {
   }
 }
 
+/** Which gallon a flow unit means, said every time: a bare gal or gpm is the US gallon. */
+function gallonNote(unit: string): string {
+  if (/^(?:UK|imp\.?|imperial)\s*g|^ig(?:al|pm)/i.test(unit.trim())) return " (imperial gallons, 4.54609 L)";
+  return /\bgal|gpm|MGD/i.test(unit) ? " (US gallons, 3.785 L)" : "";
+}
+
 function describeArg(r: ArgReading, written: string, baseUnit: string): ArgView {
   const { unit, why } = howWhy(r);
   if (r.how === "table") {
     const t = r.value as Table;
-    const cols = t.columns.map((c) => `${c.header ?? c.role} → ${c.role} in ${c.unit || DIMENSIONS[c.dim].baseLabel}`).join("; ");
+    const cols = t.columns.map((c) => `${c.header ?? c.role} → ${c.role} in ${c.unit || DIMENSIONS[c.dim].baseLabel}${gallonNote(c.unit)}${c.unitFrom === "units row" ? ", unit from the units row" : ""}`).join("; ");
     return { name: r.name, written, value: `${t.rows} rows`, unit: "", why, base: cols };
   }
   const raw = r.raw === null || r.raw === undefined ? undefined : Array.isArray(r.raw) ? "(range)" : typeof r.raw === "number" ? formatNumber(r.raw) : shortenQuantityText(String(r.raw));

@@ -94,7 +94,7 @@ function tableFindings(spec: FunctionSpec, evaluation: Evaluation, refs: readonl
     table.columns.forEach((column) => {
       if (!column.header || !column.unit) return;
       for (let k = 0; k < table.rows; k++) {
-        const row = origin.row + (table.hasHeader ? 1 : 0) + k;
+        const row = origin.row + table.headerRows + k;
         const col = origin.col + column.index;
         const chain = referenceChain(labels, sheet, row, col);
         if (chain.length < 2) continue;

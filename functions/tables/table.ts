@@ -57,30 +57,60 @@ interface TableColumn {
   labels: (string | null)[];
   /** Position of the column in the range (0 for the first). */
   index: number;
+  /** Where the unit was read: the header cell, the units row under it, or none (the base unit). */
+  unitFrom: UnitSource;
 }
+
+type UnitSource = "header" | "units row" | "base unit";
 
 export interface Table {
   kind: TableKind;
   hasHeader: boolean;
+  /** Rows above the data: 0, 1 (names) or 2 (names, then units). */
+  headerRows: number;
   rows: number;
   columns: TableColumn[];
 }
 
-const HEADER_CELL = /^\s*([^([]*?)\s*(?:[([]\s*([^)\]]*?)\s*[)\]])?\s*$/;
 const MAX_ROWS = 10000;
 
 function isBlank(v: RawArg): boolean {
   return v === null || v === undefined || (typeof v === "string" && v.trim() === "");
 }
 
-function splitHeader(cell: string): { name: string; unit: string } {
-  const m = HEADER_CELL.exec(cell);
-  return m ? { name: m[1], unit: (m[2] ?? "").trim() } : { name: cell.trim(), unit: "" };
+/** A column name as matched: trailing dots and spaces dropped ("Eff." is "Eff"). */
+const bareName = (name: string) => name.trim().replace(/[.\s]+$/, "");
+
+/**
+ * A header cell's name and unit, in any of the layouts engineers use: `Flow (gpm)`, `Head [ft]`,
+ * `Flow, gpm`, `Q gpm`, `Eff. %`, or a name alone. For the last two forms the name must be one
+ * the table knows, so that a unit is never guessed out of an unknown header.
+ */
+function splitHeader(cell: string, roles: readonly RoleSpec[]): { name: string; unit: string } {
+  const text = cell.trim();
+  const bracketed = /^(.*?)\s*[([]\s*([^)\]]*?)\s*[)\]]\s*$/.exec(text);
+  if (bracketed) return { name: bareName(bracketed[1]), unit: bracketed[2].trim() };
+  const comma = /^([^,]+?)\s*,\s*(.+)$/.exec(text);
+  if (comma) return { name: bareName(comma[1]), unit: comma[2].trim() };
+  if (roles.some((r) => r.names.test(bareName(text)))) return { name: bareName(text), unit: "" };
+  // "Q gpm", "NPSHr ft", "Shaft power kW", "Eff.%": a known name, then the unit.
+  for (const m of text.matchAll(/[\s.]+|(?=%)/g)) {
+    const name = bareName(text.slice(0, m.index));
+    const unit = text.slice(m.index! + m[0].length).trim();
+    if (name && unit && roles.some((r) => r.names.test(name))) return { name, unit };
+  }
+  return { name: bareName(text), unit: "" };
 }
 
 function isHeaderRow(row: readonly RawArg[], roles: RoleSpec[]): boolean {
   if (row.some((c) => typeof c === "number")) return false;
-  return row.some((c) => typeof c === "string" && roles.some((r) => r.names.test(splitHeader(c).name)));
+  return row.some((c) => typeof c === "string" && roles.some((r) => r.names.test(splitHeader(c, roles).name)));
+}
+
+/** A row of units under the names row (`gpm`, `ft`, `%`): text only, no numbers, at least one unit. */
+function isUnitsRow(row: readonly RawArg[] | undefined): boolean {
+  if (!row || row.every(isBlank)) return false;
+  return row.every((c) => isBlank(c) || (typeof c === "string" && parseNumberText(c) === undefined && !/\d\s*[A-Za-z%]/.test(c)));
 }
 
 /** Reads a worksheet range as a table of the given kind; `arg` names the argument in errors. */
@@ -93,21 +123,24 @@ export function readTable(arg: string, kind: TableKind, raw: RawArg): Table {
   const roles = TABLE_ROLES[kind];
   const width = grid[0].length;
   const hasHeader = isHeaderRow(grid[0], roles);
+  const unitsRow = hasHeader && isUnitsRow(grid[1]) ? grid[1] : undefined;
   // Which role each column plays.
-  const assigned: { spec: RoleSpec; header?: string; unit: string }[] = [];
+  const assigned: { spec: RoleSpec; header?: string; unit: string; unitFrom: UnitSource }[] = [];
   if (hasHeader) {
     grid[0].forEach((cell, j) => {
       if (isBlank(cell)) return;
       const text = String(cell);
-      const { name, unit } = splitHeader(text);
+      const { name, unit } = splitHeader(text, roles);
       const spec = roles.find((r) => r.names.test(name));
       if (!spec) throw new CalcError(arg, `header "${text}" (column ${j + 1}) names no column of a ${kind} table; expected ${roles.map((r) => r.label).join(", ")}`, "value");
       if (assigned.some((a) => a.spec === spec)) throw new CalcError(arg, `two columns are headed ${spec.label}`, "value");
-      assigned[j] = { spec, header: text, unit };
+      const below = unitsRow && !isBlank(unitsRow[j]) ? String(unitsRow[j]).trim().replace(/^[([]\s*(.*?)\s*[)\]]$/, "$1") : "";
+      if (unit && below && unit !== below) throw new CalcError(arg, `column "${text}" names the unit ${unit} and the units row under it ${below}: keep one`, "value");
+      assigned[j] = { spec, header: below ? `${text} (${below})` : text, unit: unit || below, unitFrom: unit ? "header" : below ? "units row" : "base unit" };
     });
   } else {
     if (width > roles.length) throw new CalcError(arg, `has ${width} columns; a ${kind} table without a header has at most ${roles.length} (${roles.map((r) => r.label).join(", ")})`, "value");
-    for (let j = 0; j < width; j++) assigned[j] = { spec: roles[j], unit: "" };
+    for (let j = 0; j < width; j++) assigned[j] = { spec: roles[j], unit: "", unitFrom: "base unit" };
   }
   for (const r of roles) {
     if (r.required && !assigned.some((a) => a && a.spec === r)) {
@@ -115,22 +148,23 @@ export function readTable(arg: string, kind: TableKind, raw: RawArg): Table {
     }
   }
   // Data rows, blank trailing rows dropped.
-  let body = grid.slice(hasHeader ? 1 : 0);
+  const headRows = (hasHeader ? 1 : 0) + (unitsRow ? 1 : 0);
+  let body = grid.slice(headRows);
   let last = body.length - 1;
   while (last >= 0 && body[last].every(isBlank)) last--;
   body = body.slice(0, last + 1);
   body.forEach((row, i) => {
-    if (row.every(isBlank)) throw new CalcError(arg, `row ${i + 1 + (hasHeader ? 1 : 0)} is blank inside the table`, "value");
+    if (row.every(isBlank)) throw new CalcError(arg, `row ${i + 1 + headRows} is blank inside the table`, "value");
   });
   const columns: TableColumn[] = [];
   assigned.forEach((a, j) => {
     if (!a) return;
-    columns.push({ ...readColumn(arg, a.spec, a.header, a.unit, body.map((row) => row[j]), hasHeader ? 2 : 1), index: j });
+    columns.push({ ...readColumn(arg, a.spec, a.header, a.unit, body.map((row) => row[j]), headRows + 1), index: j, unitFrom: a.unitFrom });
   });
-  return { kind, hasHeader, rows: body.length, columns };
+  return { kind, hasHeader, headerRows: headRows, rows: body.length, columns };
 }
 
-function readColumn(arg: string, spec: RoleSpec, header: string | undefined, unit: string, cells: RawArg[], firstRow: number): Omit<TableColumn, "index"> {
+function readColumn(arg: string, spec: RoleSpec, header: string | undefined, unit: string, cells: RawArg[], firstRow: number): Omit<TableColumn, "index" | "unitFrom"> {
   const label = header ? `"${header}"` : spec.label;
   const where = (i: number) => `row ${i + firstRow}, column ${label}`;
   const dimNoun = DIMENSIONS[spec.dim].noun;

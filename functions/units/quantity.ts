@@ -64,6 +64,10 @@ function describeUnitProblem(arg: string, text: string, dim: Dimension): CalcErr
 function normaliseUnitText(unit: string): string {
   return unit
     .trim()
+    // Gallons say which: "US gpm" is the US gallon (as a bare gpm is); "UK gpm" and "imp gpm" the imperial one.
+    .replace(/^US\s+(?=gal|gpm)/i, "")
+    .replace(/^(?:UK|imp\.?|imperial)\s*gpm$/i, "igpm")
+    .replace(/^(?:UK|imp\.?|imperial)\s*gal(?:lons?)?\b/i, "igal")
     .replace(/°\s*C\b/g, "degC")
     .replace(/°\s*F\b/g, "degF")
     .replace(/·/g, " ")
