@@ -590,3 +590,92 @@ export function surgePressure(wave_speed: any, velocity_change: any, density?: a
 export function crosscheck(hand: any, nappe: any, tolerance?: any): number {
   return run("CROSSCHECK", [hand, nappe, tolerance]) as number;
 }
+
+/**
+ * Best efficiency point of a pump curve and its preferred operating region; spills one labelled row.
+ * @customfunction PUMP.BEP
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param bep_flow The pump maker's best efficiency flow; fitted from the efficiency column when left out.
+ * @param por_low Lower end of the preferred operating region as a fraction of BEP flow (0.7 or "70%").
+ * @param por_high Upper end of the preferred operating region as a fraction of BEP flow (1.2).
+ * @param flow_unit Unit of the spilled flows, such as "gpm"; m³/s when left out.
+ * @param head_unit Unit of the spilled heads, such as "ft"; m when left out.
+ * @returns Header row, then BEP flow, BEP head, BEP efficiency (%), and the preferred region's lower and upper flows.
+ */
+export function pumpBep(curve: any[][], bep_flow?: any, por_low?: any, por_high?: any, flow_unit?: any, head_unit?: any): any[][] {
+  return run("PUMP.BEP", [curve, bep_flow, por_low, por_high, flow_unit, head_unit]) as any[][];
+}
+
+/**
+ * A duty flow as a fraction of the best efficiency flow: warns outside the preferred region, an error outside the allowable region or below the minimum flow.
+ * @customfunction PUMP.REGION
+ * @param flow Volume flow rate.
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param bep_flow The pump maker's best efficiency flow; fitted from the efficiency column when left out.
+ * @param por_low Lower end of the preferred operating region as a fraction of BEP flow (0.7 or "70%").
+ * @param por_high Upper end of the preferred operating region as a fraction of BEP flow (1.2).
+ * @param aor_low Lower flow of the allowable operating region (the maker's); the curve's first flow when left out.
+ * @param aor_high Upper flow of the allowable operating region (the maker's); the curve's last flow when left out.
+ * @param min_flow Minimum continuous stable flow from the pump maker, at the curve's speed.
+ * @returns Flow over BEP flow (0.85 is 85 % of BEP).
+ */
+export function pumpRegion(flow: any, curve: any[][], bep_flow?: any, por_low?: any, por_high?: any, aor_low?: any, aor_high?: any, min_flow?: any): number {
+  return run("PUMP.REGION", [flow, curve, bep_flow, por_low, por_high, aor_low, aor_high, min_flow]) as number;
+}
+
+/**
+ * The largest shaft power the pump can draw anywhere on its curve, to the end of the table, and the motor rating that covers it; spills one labelled row.
+ * @customfunction PUMP.MAXPOWER
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param density Liquid density; water at 20 °C when left out.
+ * @param ratio Speed ratio to the curve's speed (power scales as its cube).
+ * @param series "NEMA" (default) or "IEC".
+ * @param flow_unit Unit of the spilled flows, such as "gpm"; m³/s when left out.
+ * @param power_unit Unit of the spilled powers, such as "hp" or "kW"; W when left out.
+ * @returns Header row, then the largest shaft power, the flow where it occurs, and the next standard motor rating at or above it.
+ */
+export function pumpMaxpower(curve: any[][], density?: any, ratio?: any, series?: any, flow_unit?: any, power_unit?: any): any[][] {
+  return run("PUMP.MAXPOWER", [curve, density, ratio, series, flow_unit, power_unit]) as any[][];
+}
+
+/**
+ * The operating point, % of BEP, efficiency, shaft power, NPSHa against NPSHr and a verdict at every corner of an envelope of cases; spills a labelled table.
+ * @customfunction PUMP.ENVELOPE
+ * @param curve Pump curve range at the curve's impeller and speed: Flow, Head and optionally Eff, NPSHr, Power columns; a header such as "Flow (gpm)" sets each column's unit.
+ * @param cases One row per corner of the envelope, the design duty first: Case, Suction level, Suction pressure (gauge), Discharge level, Discharge pressure (gauge), Roughness (all pipes; blank for the segments' own), Temperature, Pumps (running in parallel), Speed (ratio to the curve's), Hours (per year).
+ * @param suction Suction line of each pump: Length, ID, Roughness, K.
+ * @param discharge Discharge line shared by the pumps running: Length, ID, Roughness, K.
+ * @param pump_level Elevation of the impeller eye on the levels' datum.
+ * @param atmosphere Atmospheric pressure at the site, absolute.
+ * @param min_margin Least NPSH margin ratio NPSHa/NPSHr accepted.
+ * @param motor Motor rating: a corner whose shaft power exceeds it fails.
+ * @param bep_flow The pump maker's best efficiency flow; fitted from the efficiency column when left out.
+ * @param min_flow Minimum continuous stable flow from the pump maker, at the curve's speed.
+ * @param flow_unit Unit of the spilled flows, such as "gpm"; m³/s when left out.
+ * @param head_unit Unit of the spilled heads, such as "ft"; m when left out.
+ * @param power_unit Unit of the spilled powers, such as "hp" or "kW"; W when left out.
+ * @returns Header row with units, then one row per case: Case, Flow, Flow per pump, Head, % of BEP, Eff (%), Shaft power per pump, NPSHa, NPSHr, NPSH margin, Energy (kWh per year, shaft, all pumps), Verdict.
+ */
+export function pumpEnvelope(curve: any[][], cases: any[][], suction: any[][], discharge: any[][], pump_level?: any, atmosphere?: any, min_margin?: any, motor?: any, bep_flow?: any, min_flow?: any, flow_unit?: any, head_unit?: any, power_unit?: any): any[][] {
+  return run("PUMP.ENVELOPE", [curve, cases, suction, discharge, pump_level, atmosphere, min_margin, motor, bep_flow, min_flow, flow_unit, head_unit, power_unit]) as any[][];
+}
+
+/**
+ * Every impeller of a family compared over an envelope of cases, with the recommended one and why each other lost; spills a labelled table.
+ * @customfunction PUMP.SHORTLIST
+ * @param family Impeller family: Impeller, Flow, Head, Eff and NPSHr columns, one row per point.
+ * @param cases One row per corner of the envelope, the design duty first: Case, Suction level, Suction pressure (gauge), Discharge level, Discharge pressure (gauge), Roughness (all pipes; blank for the segments' own), Temperature, Pumps (running in parallel), Speed (ratio to the curve's), Hours (per year).
+ * @param suction Suction line of each pump: Length, ID, Roughness, K.
+ * @param discharge Discharge line shared by the pumps running: Length, ID, Roughness, K.
+ * @param pump_level Elevation of the impeller eye on the levels' datum.
+ * @param atmosphere Atmospheric pressure at the site, absolute.
+ * @param min_margin Least NPSH margin ratio NPSHa/NPSHr accepted.
+ * @param series "NEMA" (default) or "IEC" motor ratings.
+ * @param flow_unit Unit of the spilled flows, such as "gpm"; m³/s when left out.
+ * @param head_unit Unit of the spilled heads, such as "ft"; m when left out.
+ * @param power_unit Unit of the spilled powers, such as "hp" or "kW"; W when left out.
+ * @returns Header row with units, then one row per impeller: Impeller, design Flow, Head, % of BEP, Eff (%), Shaft power, End-of-curve power, Motor, Worst NPSH margin, Energy (kWh/yr), Verdict.
+ */
+export function pumpShortlist(family: any[][], cases: any[][], suction: any[][], discharge: any[][], pump_level?: any, atmosphere?: any, min_margin?: any, series?: any, flow_unit?: any, head_unit?: any, power_unit?: any): any[][] {
+  return run("PUMP.SHORTLIST", [family, cases, suction, discharge, pump_level, atmosphere, min_margin, series, flow_unit, head_unit, power_unit]) as any[][];
+}

@@ -187,6 +187,11 @@ function readOne(p: Exclude<ParamSpec, { kind: "table" }>, raw: number | string 
  */
 function userUnits(readings: readonly ArgReading[], spec: FunctionSpec, args: Args): (text: string) => string {
   const units = new Map<Dimension, string>();
+  // A spilled table's own unit arguments first: its verdicts read in the units of its columns.
+  for (const [name, dim] of [["flow_unit", "flow"], ["head_unit", "length"], ["power_unit", "power"]] as const) {
+    const u = args[name];
+    if (typeof u === "string" && spec.params.some((p) => p.name === name)) units.set(dim, u);
+  }
   // Text quantities first; then the flow, head, NPSHr and power columns of tables (not an impeller's size or a pipe's bore).
   for (const r of readings) {
     const p = spec.params.find((x) => x.name === r.name);
@@ -231,7 +236,9 @@ export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evalua
   if (spec.result.spill || typeof result.value !== "number") {
     if (typeof result.value === "number") throw new Error(`${spec.id} is declared as spilling but returned a number`);
     for (const row of result.value) for (const cell of row) if (typeof cell === "number" && !Number.isFinite(cell)) throw new CalcError("result", "is not a finite number for these inputs", "num");
-    return { value: result.value, base: result.value, dim, unit: "", warnings: result.warnings, readings, steps: result.steps ?? [] };
+    // Text cells (a verdict) may quote quantities: in the user's units too.
+    const cells = result.value.map((row) => row.map((cell) => (typeof cell === "string" ? inUserUnits(cell) : cell)));
+    return { value: cells, base: cells, dim, unit: "", warnings: result.warnings, readings, steps: result.steps ?? [] };
   }
   let value = result.value;
   let unit: string = DIMENSIONS[dim].base;

@@ -2,6 +2,8 @@
 import { CalcError } from "../calc/_lib/result";
 import { checkHeadShape, checkSeries, type Impeller, type PumpCurve, type Series } from "../calc/pumpCurve";
 import { checkSegments, type PipeSegment, type SystemLosses } from "../calc/systemCurve";
+import type { EnvelopeCase } from "../calc/envelope";
+import { DEFAULT_TEMPERATURE_C } from "../calc/_lib/constants";
 import { column, inColumnUnit, type Table } from "../tables/table";
 import { DIMENSIONS } from "../units/dimensions";
 import { fromBase } from "../units/quantity";
@@ -113,4 +115,33 @@ export function spillHeader(name: string, unit: string | undefined, base: keyof 
 /** One value of a spilled result in the unit its argument asks for (the base unit when left out). */
 export function spillValue(arg: string, value: number, dim: keyof typeof DIMENSIONS, unit: string | undefined): number {
   return unit ? fromBase(arg, value, dim, unit) : value;
+}
+
+/** The cases of an envelope, one per row; blank optional cells take the usual values (open tanks, 20 °C, one pump at the curve's speed). */
+export function casesFromTable(arg: string, t: Table): EnvelopeCase[] {
+  const get = (role: string, i: number) => column(t, role)?.values[i] ?? undefined;
+  const cases = [...Array(t.rows).keys()].map((i) => {
+    const name = column(t, "case");
+    const label = name ? (name.labels[i] ?? (name.values[i] !== null ? String(name.values[i]) : `case ${i + 1}`)) : `case ${i + 1}`;
+    const c: EnvelopeCase = {
+      label,
+      suctionLevel: get("suctionLevel", i)!,
+      suctionPressure: get("suctionPressure", i) ?? 0,
+      dischargeLevel: get("dischargeLevel", i)!,
+      dischargePressure: get("dischargePressure", i) ?? 0,
+      roughness: get("roughness", i),
+      temperature: get("temperature", i) ?? DEFAULT_TEMPERATURE_C,
+      pumps: get("pumps", i) ?? 1,
+      speed: get("speed", i) ?? 1,
+      hours: get("hours", i),
+    };
+    const where = `case ${label} (row ${i + 1 + t.headerRows})`;
+    if (!(Number.isInteger(c.pumps) && c.pumps >= 1 && c.pumps <= 20)) throw new CalcError(arg, `${where}: pumps running must be a whole number from 1 to 20; got ${c.pumps}`, "value");
+    if (!(c.speed > 0.2 && c.speed <= 2)) throw new CalcError(arg, `${where}: speed is a ratio to the curve's speed (1 = the curve's), from above 0.2 to 2; got ${c.speed}`, "value");
+    if (c.roughness !== undefined && !(c.roughness >= 0)) throw new CalcError(arg, `${where}: roughness must be zero or more; got ${c.roughness}`, "value");
+    if (c.hours !== undefined && !(c.hours >= 0 && c.hours <= 8784)) throw new CalcError(arg, `${where}: hours per year must be from 0 to 8784; got ${c.hours}`, "value");
+    return c;
+  });
+  if (!cases.length) throw new CalcError(arg, "needs at least one case row", "value");
+  return cases;
 }

@@ -19,9 +19,10 @@ import { specs as npsh } from "./npsh";
 import { specs as jet } from "./jet";
 import { specs as surge } from "./surge";
 import { specs as crossCheck } from "./crossCheck";
+import { specs as envelope } from "./envelope";
 
 /** Every worksheet function's spec, in documentation order. */
-export const CATALOG: readonly FunctionSpec[] = [...units, ...water, ...atmosphere, ...hydrostatics, ...pipeFlow, ...friction, ...headLoss, ...pipe, ...systemCurve, ...pumpCurve, ...affinity, ...specificSpeed, ...power, ...motor, ...energy, ...npsh, ...jet, ...surge, ...crossCheck];
+export const CATALOG: readonly FunctionSpec[] = [...units, ...water, ...atmosphere, ...hydrostatics, ...pipeFlow, ...friction, ...headLoss, ...pipe, ...systemCurve, ...pumpCurve, ...affinity, ...specificSpeed, ...power, ...motor, ...energy, ...npsh, ...jet, ...surge, ...crossCheck, ...envelope];
 
 /** Specs by worksheet id (without the NAPPE. namespace). */
 export const CATALOG_BY_ID: ReadonlyMap<string, FunctionSpec> = new Map(CATALOG.map((s) => [s.id, s]));

@@ -11,7 +11,7 @@ import { parseNumberText, parseQuantity, toBase, fromBase } from "../units/quant
 /** A worksheet argument as Excel passes it: a number, text, a logical, empty, or a range of them. */
 export type RawArg = number | string | boolean | null | undefined | readonly (readonly RawArg[])[];
 
-const TABLE_KINDS = ["curve", "segments", "family"] as const;
+const TABLE_KINDS = ["curve", "segments", "family", "cases"] as const;
 export type TableKind = (typeof TABLE_KINDS)[number];
 
 interface RoleSpec {
@@ -40,6 +40,18 @@ const TABLE_ROLES: Record<TableKind, RoleSpec[]> = {
     { role: "diameter", dim: "length", required: true, names: /^(id|d|diameter|inside diameter|bore)$/i, label: "ID" },
     { role: "roughness", dim: "length", required: true, names: /^(roughness|rough|e|ε|eps|epsilon)$/i, label: "Roughness" },
     { role: "k", dim: "ratio", required: false, names: /^(k|sum k|σk|Σk|k total|minor)$/i, label: "K" },
+  ],
+  cases: [
+    { role: "case", dim: "ratio", required: false, names: /^(case|corner|name|condition)$/i, label: "Case", labels: true },
+    { role: "suctionLevel", dim: "length", required: true, names: /^(suction level|suction surface|suction elevation|suction el|low level|z_?s)$/i, label: "Suction level" },
+    { role: "suctionPressure", dim: "pressure", required: false, names: /^(suction pressure|suction gauge|p_?s)$/i, label: "Suction pressure" },
+    { role: "dischargeLevel", dim: "length", required: true, names: /^(discharge level|discharge elevation|discharge el|delivery level|outlet level|z_?d)$/i, label: "Discharge level" },
+    { role: "dischargePressure", dim: "pressure", required: false, names: /^(discharge pressure|delivery pressure|outlet pressure|p_?d)$/i, label: "Discharge pressure" },
+    { role: "roughness", dim: "length", required: false, names: /^(roughness|pipe roughness|ε|e|eps)$/i, label: "Roughness" },
+    { role: "temperature", dim: "temperature", required: false, names: /^(temperature|temp|water temperature|t)$/i, label: "Temperature" },
+    { role: "pumps", dim: "ratio", required: false, names: /^(pumps|pumps running|running|number of pumps)$/i, label: "Pumps" },
+    { role: "speed", dim: "ratio", required: false, names: /^(speed|speed ratio|relative speed)$/i, label: "Speed" },
+    { role: "hours", dim: "time", required: false, names: /^(hours|hours per year|operating hours|running hours|h\/yr)$/i, label: "Hours" },
   ],
   family: [{ role: "impeller", dim: "length", required: true, names: /^(impeller|imp|dia|diameter|d|trim|size)$/i, label: "Impeller", labels: true }, FLOW, HEAD, EFF, NPSHR, POWER],
 };

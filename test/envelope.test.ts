@@ -1,0 +1,116 @@
+/**
+ * The pump over its operating envelope, against independent solutions: every corner solved
+ * with SciPy (PCHIP, brentq, Colebrook) and the BEP from numpy.polyfit, in
+ * test/reference/envelope_reference.py; parallel pumps against hand-added flows at equal head;
+ * end-of-curve power against the table's own power column.
+ */
+import { describe, expect, it } from "vitest";
+import { relativeError, run } from "./helpers";
+import ref from "./reference/envelope_reference.json";
+
+const HP = 745.69987158227022; // W per mechanical horsepower (NIST SP 811)
+const curve = [["Flow (gpm)", "Head (ft)", "Eff (%)", "NPSHr (ft)"], ...ref.curve.map((r) => r.map((v) => (v === null ? "" : v)))];
+const segments = (rows: number[][]) => [["Length (m)", "ID (m)", "Roughness (m)", "K"], ...rows];
+const cases = [
+  ["Case", "Suction level (m)", "Discharge level (m)", "Roughness (m)", "Temperature (degC)", "Pumps", "Speed", "Hours"],
+  ...ref.cases.map(([label, zs, zd, rough, temp, n, r, hours]) => [label, zs, zd, rough ?? "", temp, n, r, hours]),
+] as (string | number)[][];
+const envelope = (...more: (string | number | null)[]) => run("PUMP.ENVELOPE", curve, cases, segments(ref.suction), segments(ref.discharge), ...more);
+type Row = (string | number)[];
+
+describe("best efficiency point", () => {
+  it("is the vertex of the least-squares parabola through the top efficiency point and its neighbours (numpy.polyfit)", () => {
+    const [, row] = run("PUMP.BEP", curve).value as Row[];
+    expect(relativeError(row[0] as number, ref.bep.flow)).toBeLessThan(1e-12);
+    expect(relativeError(row[2] as number, ref.bep.efficiency * 100)).toBeLessThan(1e-12);
+    expect(relativeError(row[1] as number, ref.bep.head)).toBeLessThan(1e-12); // SciPy PCHIP head at the BEP flow
+    expect(relativeError(row[3] as number, 0.7 * ref.bep.flow)).toBeLessThan(1e-12); // POR 70 %–120 %: common practice (ANSI/HI 9.6.3, from memory)
+  });
+  it("takes the maker's BEP flow and limits when given", () => {
+    const [, row] = run("PUMP.BEP", curve, "280 gpm", 0.8, 1.1, "gpm").value as Row[];
+    expect(row[0]).toBeCloseTo(280, 9);
+    expect(row[3]).toBeCloseTo(224, 9);
+    expect(row[4]).toBeCloseTo(308, 9);
+  });
+  it("warns outside the preferred region and refuses flows outside the allowable region or below the minimum flow", () => {
+    expect(run("PUMP.REGION", "150 gpm", curve).warnings.join(" ")).toMatch(/51 % of BEP is outside the preferred region \(70 % to 120 %\)/);
+    expect(run("PUMP.REGION", "250 gpm", curve).warnings).toEqual([]);
+    expect(() => run("PUMP.REGION", "150 gpm", curve, null, null, null, "180 gpm")).toThrow(/outside the allowable region \(180 gpm to 400 gpm\)/);
+    expect(() => run("PUMP.REGION", "90 gpm", curve, null, null, null, null, null, "100 gpm")).toThrow(/below the minimum continuous stable flow 100 gpm/);
+  });
+  it("needs an efficiency column, and says so", () => {
+    expect(() => run("PUMP.BEP", [["Flow (gpm)", "Head (ft)"], [0, 100], [200, 92], [400, 60]])).toThrow(/no efficiency column/);
+  });
+});
+
+describe("envelope corners", () => {
+  const table = envelope(null, null, null, null, null, null, "m^3/s", "m", "W").value as Row[];
+  const byLabel = (label: string) => table.find((r) => r[0] === label)!;
+  it.each(ref.corners.map((c) => [c.label, c] as const))("%s: flow, head, % BEP, efficiency, power, NPSHa, NPSHr and margin as SciPy solves them", (label, c) => {
+    const row = byLabel(label);
+    // Water in the reference is from 5-figure handbook tables (from memory), so agreement is about 1e-5.
+    const close = (got: Row[number], want: number) => expect(relativeError(got as number, want), `${label}: ${got} vs ${want}`).toBeLessThan(3e-5);
+    close(row[1], c.flow_total);
+    close(row[2], c.flow_per_pump);
+    close(row[3], c.head);
+    close(row[4], c.fraction_of_bep * 100);
+    close(row[5], c.efficiency * 100);
+    close(row[6], c.shaft_power);
+    close(row[7], c.npsha);
+    close(row[8], c.npshr);
+    close(row[9], c.margin);
+    close(row[10], c.energy_kwh);
+  });
+  it("gives each corner its verdict: a parallel pump far left of BEP warns, a deep lift fails on NPSH margin", () => {
+    expect(byLabel("design")[11]).toBe("ok");
+    expect(byLabel("two pumps")[11]).toMatch(/^warning: 61 % of BEP is outside the preferred region/);
+    expect(byLabel("deep lift")[11]).toMatch(/^fails: NPSH margin 0\.54 is below 1\.1/);
+    expect(envelope().warnings.join(" ")).toMatch(/1 of 5 corners fail: deep lift/);
+  });
+  it("with two pumps in parallel, each gives the head at its own flow and the flows add at equal head (hand check)", () => {
+    const two = byLabel("two pumps");
+    expect(two[1]).toBeCloseTo(2 * (two[2] as number), 12);
+    expect(relativeError(two[3] as number, run("PUMP.HEAD", two[2] as number, curve).value as number)).toBeLessThan(1e-12);
+    // The combined curve (flows doubled at each head) gives the same head at the total flow.
+    const combined = run("PUMP.COMBINE", curve, 2, "parallel").value as Row[];
+    expect(relativeError(run("PUMP.HEAD", two[1] as number, combined).value as number, two[3] as number)).toBeLessThan(1e-12);
+  });
+  it("a corner beyond the curve's end is a failing row that says so, not an error of the whole table", () => {
+    const high = [cases[0], cases[1], ["above shutoff", 0, 40, "", 15, 1, 1, 100]];
+    const rows = run("PUMP.ENVELOPE", curve, high, segments(ref.suction), segments(ref.discharge)).value as Row[];
+    expect(rows[1][11]).toBe("ok");
+    expect(rows[2][11]).toMatch(/^fails: the system needs more head than the pump gives anywhere on its curve/);
+    expect(rows[2][1]).toBe("");
+  });
+  it("fails a corner whose shaft power overloads the motor given", () => {
+    const rows = envelope(null, null, null, "7.5 hp", null, null, "gpm", "ft", "hp").value as Row[];
+    expect(rows[1][11]).toBe("fails: shaft power 7.97 hp overloads the 7.5 hp motor");
+    expect(rows[5][11]).toMatch(/^fails: NPSH margin 0\.54 is below 1\.1 \(NPSHa 4\.49\d* ft, NPSHr 8\.29\d* ft\)/);
+  });
+});
+
+describe("end-of-curve power and the selection table", () => {
+  it("the largest power of a curve with a power column is the table's largest (here its last point)", () => {
+    const withPower = [["Flow (m^3/h)", "Head (m)", "Power (kW)"], [0, 40, 5], [50, 38, 8], [100, 33, 11], [150, 25, 13]];
+    const [, row] = run("PUMP.MAXPOWER", withPower, null, null, "iec", "m^3/h", "kW").value as Row[];
+    expect(row[0]).toBeCloseTo(13, 9);
+    expect(row[1]).toBeCloseTo(150, 9);
+    expect(row[2]).toBe(15); // IEC 60072-1: 11 then 15 kW (from memory)
+  });
+  it("the selection table recommends the passing impeller with the best design efficiency and says why the other lost", () => {
+    const family = [
+      ["Impeller (mm)", "Flow (gpm)", "Head (ft)", "Eff (%)", "NPSHr (ft)"],
+      ...[230, 250].flatMap((d) => (d === 250 ? ref.curve : [[0, 86, 0, null], [100, 84, 53, 6], [200, 78, 70, 8], [300, 66, 73, 11], [400, 46, 66, 16]]).map((r) => [d, ...r.map((v) => (v === null ? "" : v))])),
+    ];
+    const rows = run("PUMP.SHORTLIST", family, cases, segments(ref.suction), segments(ref.discharge), null, null, null, "nema", "gpm", "ft", "hp").value as Row[];
+    // With the deep-lift case both fail on NPSH margin; nothing is recommended and both say why.
+    expect(rows[1][10]).toMatch(/^fails: deep lift: NPSH margin/);
+    expect(rows[2][10]).toMatch(/^fails: deep lift: NPSH margin/);
+    const fourCases = cases.slice(0, 5);
+    const ok = run("PUMP.SHORTLIST", family, fourCases, segments(ref.suction), segments(ref.discharge), null, null, null, "nema", "gpm", "ft", "hp");
+    const table = ok.value as Row[];
+    expect(table[2][10]).toMatch(/^recommended/);
+    expect(table[1][10]).toMatch(/^passes, but 72\.6 % at the design duty against 76\.0 % for 250$/);
+    expect(relativeError(table[2][6] as number, ref.end_of_curve_15C.power / HP)).toBeLessThan(2e-4); // water at 15 °C from the handbook (from memory)
+  });
+});
