@@ -114,3 +114,15 @@ describe("end-of-curve power and the selection table", () => {
     expect(relativeError(table[2][6] as number, ref.end_of_curve_15C.power / HP)).toBeLessThan(2e-4); // water at 15 °C from the handbook (from memory)
   });
 });
+
+describe("every duty against its BEP", () => {
+  it("PUMP.DUTY keeps its result and shape, and now records % of BEP and warns outside the preferred region", () => {
+    // Static head 60 ft with a small resistance: the duty sits far right of the BEP (292.6 gpm).
+    const ev = run("PUMP.DUTY", curve, "60 ft", 0, null, "gpm", "ft");
+    const [[q, h]] = ev.value as number[][];
+    expect(h).toBeCloseTo(60, 9);
+    expect(q).toBeGreaterThan(351); // beyond 120 % of BEP
+    expect(ev.steps.find((s) => s.symbol === "Q*/Q_BEP")!.value).toBeCloseTo(q / (ref.bep.flow / (3.785411784e-3 / 60)), 9);
+    expect(ev.warnings.join(" ")).toMatch(/1\d\d % of BEP is outside the preferred region \(70 % to 120 %\)/);
+  });
+});

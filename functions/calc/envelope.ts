@@ -108,6 +108,21 @@ export function regionOf(flow: number, bep: Bep, limits: OperatingLimits, head: 
   return { fraction, warnings, failures };
 }
 
+/**
+ * A duty on a curve against its BEP, for functions that keep their own results (PUMP.DUTY):
+ * the flow as a fraction of BEP flow as a step, and a warning outside the preferred region.
+ * Nothing when the curve has no efficiency column.
+ */
+export function dutyAgainstBep(curve: PumpCurve, flow: number): { warnings: string[]; steps: Step[] } {
+  if (!curve.efficiency) return { warnings: [], steps: [] };
+  const bep = bestEfficiencyPoint(curve);
+  const region = regionOf(flow, bep.value, { por: POR_DEFAULT }, curveInterpolant("curve", curve, "head"));
+  return {
+    warnings: [...bep.warnings, ...region.warnings.map((w) => `${w} (common practice, ANSI/HI 9.6.3): see NAPPE.PUMP.ENVELOPE for every operating case.`)],
+    steps: [step("Q_BEP", "best efficiency flow", bep.value.flow, "flow", "vertex of the least-squares parabola through the efficiency points around the top one"), step("Q*/Q_BEP", "duty flow as a fraction of BEP flow", region.fraction, "ratio", "preferred region 0.7 to 1.2 (common practice)")],
+  };
+}
+
 /** The largest shaft power on the whole curve, to the end of the table (at speed ratio r), and the flow where it occurs. */
 export function endOfCurvePower(curve: PumpCurve, density: number, r = 1): CalcResult<{ power: number; flow: number }> {
   const head = curveInterpolant("curve", curve, "head");

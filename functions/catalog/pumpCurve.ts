@@ -3,6 +3,7 @@ import { operatingPoint } from "../calc/operatingPoint";
 import { systemHead } from "../calc/systemCurve";
 import { combineFactors, pumpPowerAt, selectImpeller } from "../calc/pumpSelection";
 import { curveScaleFactors } from "../calc/affinity";
+import { dutyAgainstBep } from "../calc/envelope";
 import { ok, type StepDimension } from "../calc/_lib/result";
 import type { Table } from "../tables/table";
 import { CAVITATION_CAUTION, curveParam, DESIGN_AID, densityParam, PARABOLA_CURVE, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
@@ -150,11 +151,13 @@ export const specs: FunctionSpec[] = [
       },
     ],
     compute: (a) => {
-      const head = curveInterpolant("curve", curveOf(a.curve), "head");
+      const curve = curveOf(a.curve);
+      const head = curveInterpolant("curve", curve, "head");
       const losses = systemLosses(a.system, a.kinematic_viscosity);
       const p = operatingPoint(head, (q) => systemHead(q, a.static_head, losses).value);
       const sys = systemHead(p.value.flow, a.static_head, losses);
-      return ok([[spillValue("flow_unit", p.value.flow, "flow", a.flow_unit), spillValue("head_unit", p.value.head, "length", a.head_unit)]], [...p.warnings, ...sys.warnings], [...(p.steps ?? []), ...(sys.steps ?? [])]);
+      const bep = dutyAgainstBep(curve, p.value.flow);
+      return ok([[spillValue("flow_unit", p.value.flow, "flow", a.flow_unit), spillValue("head_unit", p.value.head, "length", a.head_unit)]], [...p.warnings, ...sys.warnings, ...bep.warnings], [...(p.steps ?? []), ...(sys.steps ?? []), ...bep.steps]);
     },
   }),
   defineSpec({
