@@ -176,6 +176,9 @@ function layout(): ExcelJS.Workbook {
   const curve = [header.slice(1), ...family().filter((r) => r[0] === 265).map((r) => r.slice(1))];
   curve.forEach((row, i) => row.forEach((v, j) => (pump.getCell(3 + i, 8 + j).value = v === "" ? null : v)));
 
+  const envelope = book.addWorksheet("Envelope");
+  envelopeSheet(envelope);
+
   for (const ws of [summary, inputs, calc, pump]) {
     ws.getColumn(1).width = ws === pump ? 14 : 44;
     for (let c = 2; c <= 11; c++) ws.getColumn(c).width = 14;
@@ -191,6 +194,48 @@ function layout(): ExcelJS.Workbook {
   printSetup(calc, `A1:K${2 + CALC.length}`, "landscape");
   printSetup(pump, "A1:K21", "landscape", "3:3");
   return book;
+}
+
+/**
+ * The pump over its operating envelope: the reservoir low and high, aged pipe, a cold spring
+ * and a second pump running. The suction and discharge lines are those of the Calc sheet, with
+ * the suction length's unit joined to it here.
+ */
+function envelopeSheet(ws: ExcelJS.Worksheet): void {
+  title(ws, "Operating envelope of the 265 mm impeller, and the impellers compared over it");
+  const put = (address: string, value: ExcelJS.CellValue, bold = false) => {
+    ws.getCell(address).value = value;
+    if (bold) ws.getCell(address).font = { bold: true };
+  };
+  put("A3", "Cases: the design duty first", true);
+  const cases: (string | number | null)[][] = [
+    ["Case", "Suction level (m)", "Discharge level (m)", "Discharge pressure (bar)", "Roughness (m)", "Temperature (degC)", "Pumps", "Speed", "Hours"],
+    ["design: summer, new pipe", -3.2, 38, 4.8, null, 28, 1, 1, 1400],
+    ["reservoir low, aged pipe", -4.5, 38, 4.8, 0.0005, 28, 1, 1, 300],
+    ["reservoir high, cold spring", -1, 38, 4.8, null, 12, 1, 1, 400],
+    ["second pump on", -3.2, 38, 4.8, null, 28, 2, 1, 200],
+  ];
+  cases.forEach((row, i) => row.forEach((v, j) => (ws.getCell(4 + i, 1 + j).value = v)));
+  put("A10", "Suction line of each pump", true);
+  const suction = [["Length (m)", "ID (m)", "Roughness (m)", "K"], [{ formula: 'Inputs!B14&" ft"' }, { formula: "Calc!B16" }, { formula: "Calc!B18" }, { formula: "Calc!B19" }]];
+  suction.forEach((row, i) => row.forEach((v, j) => (ws.getCell(11 + i, 1 + j).value = v as ExcelJS.CellValue)));
+  put("F10", "Discharge line", true);
+  const discharge = [["Length (m)", "ID (m)", "Roughness (m)", "K"], [{ formula: "Inputs!B15" }, { formula: "Calc!B17" }, { formula: "Calc!B18" }, { formula: "Calc!B20" }]];
+  discharge.forEach((row, i) => row.forEach((v, j) => (ws.getCell(11 + i, 6 + j).value = v as ExcelJS.CellValue)));
+  const spill = (address: string, formula: string, ref: string) => (ws.getCell(address).value = { formula, shareType: "array", ref } as ExcelJS.CellFormulaValue);
+  put("A14", "Best efficiency point and preferred operating region (70 %–120 % of BEP, common practice)", true);
+  spill("A15", 'NAPPE.PUMP.BEP(Pump!H3:K9, , , , "m^3/h", "m")', "A15:E16");
+  put("A18", "Every case on the 265 mm impeller (site atmosphere from Calc!B4)", true);
+  spill("A19", 'NAPPE.PUMP.ENVELOPE(Pump!H3:K9, A4:I8, A11:D12, F11:I12, , Calc!B4&" kPa", , , , , "m^3/h", "m", "kW")', "A19:L23");
+  put("A25", "Largest power on the curve (end of curve) and the motor that never overloads", true);
+  spill("A26", 'NAPPE.PUMP.MAXPOWER(Pump!H3:K9, Calc!B5, , "IEC", "m^3/h", "kW")', "A26:C27");
+  put("A29", "The impellers compared over every case; the design case must deliver the duty flow (Calc!B11)", true);
+  spill("A30", 'NAPPE.PUMP.SHORTLIST(Pump!A3:E21, A4:I8, A11:D12, F11:I12, , Calc!B4&" kPa", , "IEC", "m^3/h", "m", "kW", Calc!B11&" m^3/h")', "A30:K33");
+  ws.getColumn(1).width = 28;
+  for (let c = 2; c <= 10; c++) ws.getColumn(c).width = 12;
+  ws.getColumn(11).width = 60;
+  ws.getColumn(12).width = 60;
+  printSetup(ws, "A1:L33", "landscape");
 }
 
 /**

@@ -674,8 +674,9 @@ export function pumpEnvelope(curve: any[][], cases: any[][], suction: any[][], d
  * @param flow_unit Unit of the spilled flows, such as "gpm"; m³/s when left out.
  * @param head_unit Unit of the spilled heads, such as "ft"; m when left out.
  * @param power_unit Unit of the spilled powers, such as "hp" or "kW"; W when left out.
+ * @param duty_flow Flow the design case must deliver; a candidate delivering less fails.
  * @returns Header row with units, then one row per impeller: Impeller, design Flow, Head, % of BEP, Eff (%), Shaft power, End-of-curve power, Motor, Worst NPSH margin, Energy (kWh/yr), Verdict.
  */
-export function pumpShortlist(family: any[][], cases: any[][], suction: any[][], discharge: any[][], pump_level?: any, atmosphere?: any, min_margin?: any, series?: any, flow_unit?: any, head_unit?: any, power_unit?: any): any[][] {
-  return run("PUMP.SHORTLIST", [family, cases, suction, discharge, pump_level, atmosphere, min_margin, series, flow_unit, head_unit, power_unit]) as any[][];
+export function pumpShortlist(family: any[][], cases: any[][], suction: any[][], discharge: any[][], pump_level?: any, atmosphere?: any, min_margin?: any, series?: any, flow_unit?: any, head_unit?: any, power_unit?: any, duty_flow?: any): any[][] {
+  return run("PUMP.SHORTLIST", [family, cases, suction, discharge, pump_level, atmosphere, min_margin, series, flow_unit, head_unit, power_unit, duty_flow]) as any[][];
 }

@@ -112,6 +112,10 @@ describe("end-of-curve power and the selection table", () => {
     expect(table[2][10]).toMatch(/^recommended/);
     expect(table[1][10]).toMatch(/^passes, but 72\.6 % at the design duty against 76\.0 % for 250$/);
     expect(relativeError(table[2][6] as number, ref.end_of_curve_15C.power / HP)).toBeLessThan(2e-4); // water at 15 °C from the handbook (from memory)
+    // Asked to deliver 280 gpm at the design case, the smaller impeller (266.6 gpm there) fails and says by how much.
+    const duty = run("PUMP.SHORTLIST", family, fourCases, segments(ref.suction), segments(ref.discharge), null, null, null, "nema", "gpm", "ft", "hp", "280 gpm").value as Row[];
+    expect(duty[1][10]).toMatch(/^fails: design: delivers 266\.6\d* gpm, short of the duty 280 gpm$/);
+    expect(duty[2][10]).toMatch(/^recommended/);
   });
 });
 

@@ -309,7 +309,8 @@ export interface Candidate {
 }
 
 /**
- * Every impeller of a family over the envelope. The first case is the design duty. Each
+ * Every impeller of a family over the envelope. The first case is the design duty; with a duty
+ * flow, a candidate whose design case delivers less fails. Each
  * candidate's motor is the next standard rating covering both the end-of-curve power (at the
  * highest speed in the cases) and every corner. The recommended candidate passes every check
  * at every corner and has the best efficiency at the design duty; the verdict of every other
@@ -322,6 +323,7 @@ export function selectOverEnvelope(
   system: EnvelopeSystem,
   minMargin: number,
   motorFor: (power: number) => number,
+  dutyFlow?: number,
 ): CalcResult<Candidate[]> {
   checkLimits(limits);
   if (!cases.length) throw new CalcError("cases", "needs at least one case (the first is the design duty)", "value");
@@ -343,6 +345,11 @@ export function selectOverEnvelope(
     const margins = corners.map((c) => c.margin).filter((m): m is number => m !== undefined);
     const energies = corners.map((c) => c.energy).filter((x): x is number => x !== undefined);
     const failing = corners.filter((c) => c.status === "fails");
+    const reasons = failing.map((c) => `${c.label}: ${c.reasons[0]}`);
+    const design = corners[0];
+    if (dutyFlow !== undefined && design.flowTotal !== undefined && design.flowTotal < dutyFlow * (1 - 1e-9)) {
+      reasons.unshift(`${design.label}: delivers ${quoted(design.flowTotal, "flow")}, short of the duty ${quoted(dutyFlow, "flow")}`);
+    }
     return {
       label: imp.label,
       design: corners[0],
@@ -352,8 +359,8 @@ export function selectOverEnvelope(
       motor,
       worstMargin: margins.length ? Math.min(...margins) : undefined,
       energy: energies.length ? energies.reduce((a, b) => a + b, 0) : undefined,
-      passes: failing.length === 0,
-      verdict: failing.length ? `fails: ${failing.map((c) => `${c.label}: ${c.reasons[0]}`).join("; ")}` : "",
+      passes: reasons.length === 0,
+      verdict: reasons.length ? `fails: ${reasons.join("; ")}` : "",
     };
   });
   const passing = candidates.filter((c) => c.passes);

@@ -240,12 +240,13 @@ export const specs: FunctionSpec[] = [
       flowUnit,
       headUnit,
       powerUnit,
+      { name: "duty_flow", kind: "quantity", dim: "flow", optional: true, description: "Flow the design case must deliver; a candidate delivering less fails." },
     ],
     result: { dim: "flow", description: "Header row with units, then one row per impeller: Impeller, design Flow, Head, % of BEP, Eff (%), Shaft power, End-of-curve power, Motor, Worst NPSH margin, Energy (kWh/yr), Verdict.", spill: true },
     equation: String.raw`D^* = \arg\max_{D\ \text{passing every case}} \eta_D(Q_{design})`,
     derivation: (n) => (n.has("η_design") ? `recommended: the candidate passing every check at every case with the best design-duty efficiency, ${n.step("η_design")}` : "no candidate passes every check at every case"),
     assumptions: [
-      "The first case is the design duty; every case is checked (operating region, NPSH margin, beyond-curve corners).",
+      "The first case is the design duty; every case is checked (operating region, NPSH margin, beyond-curve corners); with a duty flow, the design case must deliver it.",
       "Each candidate's motor is the next standard rating covering both its end-of-curve power (at the highest speed in the cases) and every corner, so it never overloads.",
       "PUMP.SELECT keeps its simple rule beside this: the smallest impeller reaching one duty point.",
     ],
@@ -286,6 +287,7 @@ export const specs: FunctionSpec[] = [
         { suction: segmentsFromTable("suction", a.suction), discharge: segmentsFromTable("discharge", a.discharge), pumpLevel: a.pump_level, atmosphere: a.atmosphere },
         a.min_margin,
         motorFor,
+        a.duty_flow,
       );
       const f = (v: number | undefined) => (v === undefined ? "" : spillValue("flow_unit", v, "flow", a.flow_unit));
       const p = (v: number | undefined) => (v === undefined ? "" : spillValue("power_unit", v, "power", a.power_unit));

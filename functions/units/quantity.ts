@@ -182,6 +182,9 @@ export function convertUnits(value: number, fromUnit: string, toUnit: string): n
 
 /** A value given in a unit, in SI base units: the number and the SI unit ("kg / (m s^2)"), for a conversion's audit trail. */
 export function inSiBaseUnits(value: number, fromUnit: string): { value: number; unit: string } {
-  const si = quantity(value, normaliseUnitText(fromUnit)).toSI();
-  return { value: si.toNumber(), unit: si.formatUnits() };
+  // mathjs keeps every unit's value in SI base units; its dimensions are powers of kg, m, s, A, K, cd, mol, rad, bit.
+  const q = quantity(value, normaliseUnitText(fromUnit)) as MathUnit & { value: number; dimensions: number[] };
+  const names = ["kg", "m", "s", "A", "K", "cd", "mol", "rad", "bit"];
+  const unit = q.dimensions.flatMap((p, i) => (p === 0 ? [] : [p === 1 ? names[i] : `${names[i]}^${p}`])).join(" ");
+  return { value: q.value, unit };
 }
