@@ -63,8 +63,6 @@ export default async (env, argv) => {
     plugins: [
       // No code generation from strings in any shipped bundle (see taskpane/stubs).
       new webpack.NormalModuleReplacementPlugin(/chevrotain[\\/]lib(_esm)?[\\/]src[\\/]generate[\\/]generate_public\.js$/, path.join(root, "taskpane/stubs/chevrotainNoCodegen.js")),
-      // mathjs's unit factory defines BigNumber, Complex and Fraction classes Nappe never uses (see the stub).
-      new webpack.NormalModuleReplacementPlugin(/^(decimal\.js|complex\.js|fraction\.js)$/, path.join(root, "taskpane/stubs/numbersOnly.mjs")),
       new CustomFunctionsMetadataPlugin({ output: "functions.json", input: "./functions/functions.ts" }),
       new HtmlWebpackPlugin({ filename: "functions.html", template: "./functions/functions.html", chunks: ["functions"] }),
       new HtmlWebpackPlugin({ filename: "taskpane.html", template: "./taskpane/taskpane.html", chunks: ["taskpane"] }),

@@ -232,9 +232,11 @@ function envelopeSheet(ws: ExcelJS.Worksheet): void {
   put("A29", "The impellers compared over every case; the design case must deliver the duty flow (Calc!B11)", true);
   spill("A30", 'NAPPE.PUMP.SHORTLIST(Pump!A3:E21, A4:I8, A11:D12, F11:I12, , Calc!B4&" kPa", , "IEC", "m^3/h", "m", "kW", Calc!B11&" m^3/h")', "A30:K33");
   ws.getColumn(1).width = 28;
-  for (let c = 2; c <= 10; c++) ws.getColumn(c).width = 12;
-  ws.getColumn(11).width = 60;
-  ws.getColumn(12).width = 60;
+  for (let c = 2; c <= 11; c++) ws.getColumn(c).width = 15;
+  // The envelope's verdicts are in L; the selection table's (in K) run on into the empty L beside them.
+  ws.getColumn(12).width = 90;
+  ws.getRow(4).alignment = { wrapText: true, vertical: "top" };
+  ws.getRow(4).height = 30;
   printSetup(ws, "A1:L33", "landscape");
 }
 

@@ -176,11 +176,11 @@ describe("workbook check and audit sheet", () => {
     const host = new MemoryHost(await demo());
     const progress: number[] = [];
     const check = await checkWorkbook(host, (d) => progress.push(d));
-    expect(check.rows.length).toBe(30);
-    expect(check.counts.ok + check.counts.warning + check.counts.error).toBe(30);
+    expect(check.rows.length).toBe(34);
+    expect(check.counts.ok + check.counts.warning + check.counts.error).toBe(34);
     expect(check.counts.error).toBe(0);
     expect(check.rows.find((r) => r.address === "B21")).toMatchObject({ status: "warning", formula: '=NAPPE.HEADLOSS(B11&" m^3/h", B16, Inputs!B14, B18, B6)' });
-    expect(progress[progress.length - 1]).toBe(30);
+    expect(progress[progress.length - 1]).toBe(34);
   });
   it("writes the audit sheet from the same audit model, replacing only that sheet", async () => {
     const host = new MemoryHost(await demo());

@@ -98,7 +98,9 @@ interface RegionVerdict {
 /** A flow (at speed ratio r) against the BEP and regions of the curve at its own speed. */
 export function regionOf(flow: number, bep: Bep, limits: OperatingLimits, head: Interpolant, r = 1): RegionVerdict {
   const fraction = flow / (r * bep.flow);
-  const pct = (x: number) => `${Math.round(x * 100)} %`;
+  // Whole percent, unless that would round onto a limit (69.6 % is not "70 %" of a 70 % limit).
+  const limitsPct = [...limits.por].map((x) => Math.round(x * 100));
+  const pct = (x: number) => (limitsPct.includes(Math.round(x * 100)) && Math.abs(x * 100 - Math.round(x * 100)) > 1e-9 ? `${(x * 100).toFixed(1)} %` : `${Math.round(x * 100)} %`);
   const warnings: string[] = [];
   const failures: string[] = [];
   const [aorLo, aorHi] = limits.aor ?? [head.min, head.max];
@@ -289,6 +291,8 @@ export function envelope(curve: PumpCurve, limits: OperatingLimits, cases: reado
   const warnings = [...bep.warnings];
   const failing = corners.filter((c) => c.status === "fails");
   if (failing.length) warnings.push(`${failing.length} of ${corners.length} corners fail: ${failing.map((c) => `${c.label} (${c.reasons[0]})`).join("; ")}.`);
+  const warning = corners.filter((c) => c.status === "warning");
+  if (warning.length) warnings.push(`${warning.length} of ${corners.length} corners warn: ${warning.map((c) => `${c.label} (${c.reasons[0]})`).join("; ")}.`);
   return ok({ bep: bep.value, corners }, warnings, steps);
 }
 
