@@ -1,4 +1,4 @@
-/** Draws ChartData with Chart.js (MIT): curves, efficiency on a second axis, the operating point. */
+/** Draws ChartData with Chart.js (MIT): curves, efficiency on a second axis, the operating point; NPSH in a second panel. */
 import { Chart, Legend, LinearScale, LineElement, PointElement, ScatterController, Tooltip } from "chart.js";
 import type { ChartData } from "./chartData";
 
@@ -6,7 +6,7 @@ Chart.register(ScatterController, LineElement, PointElement, LinearScale, Legend
 
 const COLOURS = ["#0e5463", "#c2571a", "#6a4c93", "#2a9d8f", "#8a1c1c", "#4a6670"];
 
-/** A chart element that follows its container's width. */
+/** A chart element that follows its container's width: head and efficiency, then NPSH in a panel of its own. */
 export function drawChart(data: ChartData): HTMLElement {
   const box = document.createElement("div");
   box.className = "chart";
@@ -14,45 +14,74 @@ export function drawChart(data: ChartData): HTMLElement {
   box.setAttribute("aria-label", `${data.title}: head against flow${data.operatingPoint ? `, operating point ${data.operatingPoint.x.toPrecision(4)} ${data.flowUnit}, ${data.operatingPoint.y.toPrecision(4)} ${data.headUnit}` : ""}`);
   if (data.operatingPoint) box.dataset.operatingPoint = `${data.operatingPoint.x},${data.operatingPoint.y}`;
   box.dataset.series = data.series.map((s) => s.name).join("|");
-  const canvas = document.createElement("canvas");
-  box.append(canvas);
-  // A curve's points and its line share a colour; the system curve and operating point have their own.
-  const palette = new Map<string, string>([["System curve", "#c2571a"], ["Operating point", "#d62828"]]);
+  // A case's system curve, operating point and NPSHa share a colour, as a curve's points and line do.
+  const palette = new Map<string, string>([["System curve", "#c2571a"], ["Operating point", "#d62828"], ["BEP", "#2b2d42"], ["Preferred region (70–120 % of BEP)", "#8d99ae"]]);
   const others = COLOURS.filter((c) => c !== "#c2571a");
   const colourOf = (name: string) => {
-    const key = name.replace(/ \(points\)$/, "");
-    if (!palette.has(key)) palette.set(key, others[(palette.size - 2) % others.length]);
+    const key = name.replace(/ \(points\)$/, "").replace(/^(System|Point|NPSHa): /, "");
+    if (!palette.has(key)) palette.set(key, others[palette.size % others.length]);
     return palette.get(key)!;
   };
-  const datasets = data.series.map((s) => {
-    const c = colourOf(s.name);
-    return {
-      label: s.name,
-      data: s.points,
-      yAxisID: s.axis === "efficiency" ? "y2" : "y",
-      showLine: s.style === "line" || s.style === "dashed",
-      borderDash: s.style === "dashed" ? [5, 4] : [],
-      borderColor: c,
-      backgroundColor: c,
-      pointRadius: s.style === "marker" ? 6 : s.style === "points" ? 3 : 0,
-      pointStyle: s.style === "marker" ? ("rectRot" as const) : ("circle" as const),
-      borderWidth: 2,
-    };
-  });
-  new Chart(canvas, {
+  const datasets = (axes: readonly string[]) =>
+    data.series
+      .filter((s) => axes.includes(s.axis))
+      .map((s) => {
+        const c = colourOf(s.name);
+        return {
+          label: s.name,
+          data: s.points,
+          yAxisID: s.axis === "efficiency" ? "y2" : "y",
+          showLine: s.style === "line" || s.style === "dashed",
+          borderDash: s.style === "dashed" ? [5, 4] : [],
+          borderColor: c,
+          backgroundColor: c,
+          pointRadius: s.style === "marker" ? 6 : s.style === "points" ? 3 : 0,
+          pointStyle: s.style === "marker" ? ("rectRot" as const) : ("circle" as const),
+          borderWidth: 2,
+        };
+      });
+  const legend = { position: "bottom" as const, labels: { boxWidth: 12, font: { size: 10 }, filter: (item: { text: string }) => !item.text.endsWith("(points)") } };
+  const main = document.createElement("canvas");
+  box.append(main);
+  new Chart(main, {
     type: "scatter",
-    data: { datasets },
+    data: { datasets: datasets(["head", "efficiency"]) },
     options: {
       responsive: true,
       maintainAspectRatio: false,
       animation: false,
-      plugins: { legend: { position: "bottom", labels: { boxWidth: 12, font: { size: 10 }, filter: (item) => !item.text.endsWith("(points)") } } },
+      plugins: { legend },
       scales: {
         x: { type: "linear", title: { display: true, text: `Flow (${data.flowUnit})` } },
-        y: { type: "linear", position: "left", title: { display: true, text: `Head (${data.headUnit})` } },
+        y: { type: "linear", position: "left", min: 0, title: { display: true, text: `Head (${data.headUnit})` } },
         ...(data.efficiencyUnit ? { y2: { type: "linear" as const, position: "right" as const, title: { display: true, text: `Efficiency (${data.efficiencyUnit})` }, grid: { drawOnChartArea: false } } } : {}),
       },
     },
   });
+  if (data.series.some((s) => s.axis === "npsh")) {
+    const panel = document.createElement("div");
+    panel.className = "chart npsh-panel";
+    panel.setAttribute("role", "img");
+    panel.setAttribute("aria-label", `NPSH available and required against flow${data.npshFlowLabel ? " per pump" : ""}, on a scale of their own`);
+    const canvas = document.createElement("canvas");
+    panel.append(canvas);
+    const wrap = document.createElement("div");
+    wrap.append(box, panel);
+    new Chart(canvas, {
+      type: "scatter",
+      data: { datasets: datasets(["npsh"]) },
+      options: {
+        responsive: true,
+        maintainAspectRatio: false,
+        animation: false,
+        plugins: { legend },
+        scales: {
+          x: { type: "linear", title: { display: true, text: `${data.npshFlowLabel ?? "Flow"} (${data.flowUnit})` } },
+          y: { type: "linear", position: "left", min: 0, title: { display: true, text: `NPSH (${data.headUnit})` } },
+        },
+      },
+    });
+    return wrap;
+  }
   return box;
 }

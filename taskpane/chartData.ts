@@ -1,12 +1,17 @@
 /**
  * Chart data for pump and system functions (pure): the pump curve's points and its evaluated
- * curve, efficiency on a second axis, NPSHr, the system curve, the operating point, and the
- * scaled or trimmed curve, in the units of the curve table's headers.
+ * curve, efficiency on a second axis, the best efficiency point and the preferred operating
+ * region, the system curve, the operating point, and the scaled or trimmed curve, in the units
+ * of the curve table's headers. NPSHr and NPSHa go to a panel of their own, so a margin of a few
+ * metres reads beside a head of a hundred. For an envelope: every case's system curve, pump
+ * curve (for the pumps running and the speed) and operating point, and each case's NPSHa.
  */
 import { interpolant, type PumpCurve } from "../functions/calc/pumpCurve";
+import { bestEfficiencyPoint, caseModel, POR_DEFAULT } from "../functions/calc/envelope";
+import { operatingPoint as crossing } from "../functions/calc/operatingPoint";
 import { systemHead } from "../functions/calc/systemCurve";
 import { column, type Table } from "../functions/tables/table";
-import { curveFromTable, impellersFromTable, systemLosses } from "../functions/catalog/_tables";
+import { casesFromTable, curveFromTable, impellersFromTable, segmentsFromTable, systemLosses } from "../functions/catalog/_tables";
 import type { Args } from "../functions/catalog/types";
 import { DIMENSIONS } from "../functions/units/dimensions";
 import { fromBase, toBase } from "../functions/units/quantity";
@@ -21,8 +26,8 @@ interface ChartSeries {
   name: string;
   /** "points": markers only; "line": a smooth line; "marker": one highlighted point. */
   style: "points" | "line" | "dashed" | "marker";
-  /** Which y axis: head (left) or efficiency (right). */
-  axis: "head" | "efficiency";
+  /** Which y axis: head (left) or efficiency (right) of the main panel, or the NPSH panel. */
+  axis: "head" | "efficiency" | "npsh";
   points: Point[];
 }
 
@@ -31,6 +36,8 @@ export interface ChartData {
   flowUnit: string;
   headUnit: string;
   efficiencyUnit?: string;
+  /** How the NPSH panel's flow axis reads: "Flow per pump" for an envelope of several pumps. */
+  npshFlowLabel?: string;
   series: ChartSeries[];
   operatingPoint?: Point;
 }
@@ -81,9 +88,56 @@ function curveSeries(curve: PumpCurve, conv: ReturnType<typeof toUnits>, label: 
     const e = interpolant(curve.efficiency);
     out.push({ name: "Efficiency", style: "line", axis: "efficiency", points: sample(e.min, e.max, 60, (q) => e.at(q)).map((p) => ({ x: conv.q(p.x * r), y: conv.e(p.y) })) });
   }
+  if (withExtras && curve.efficiency) out.push(...bepSeries(curve, conv, r));
   if (withExtras && curve.npshr) {
     const n = interpolant(curve.npshr);
-    out.push({ name: "NPSHr", style: "dashed", axis: "head", points: sample(n.min, n.max, 40, (q) => n.at(q)).map((p) => ({ x: conv.q(p.x * r), y: conv.h(p.y * r * r) })) });
+    out.push({ name: "NPSHr", style: "dashed", axis: "npsh", points: sample(n.min, n.max, 40, (q) => n.at(q)).map((p) => ({ x: conv.q(p.x * r), y: conv.h(p.y * r * r) })) });
+  }
+  return out;
+}
+
+/** The BEP marker and the preferred region (70 %–120 % of BEP flow, common practice) drawn as a box up to the shutoff head. */
+function bepSeries(curve: PumpCurve, conv: ReturnType<typeof toUnits>, r = 1): ChartSeries[] {
+  let bep;
+  try {
+    bep = bestEfficiencyPoint(curve).value;
+  } catch {
+    return [];
+  }
+  const top = conv.h(Math.max(...curve.head.y) * r * r * 1.05);
+  const [lo, hi] = POR_DEFAULT.map((f) => conv.q(f * bep.flow * r));
+  return [
+    { name: "BEP", style: "marker", axis: "head", points: [{ x: conv.q(bep.flow * r), y: conv.h(bep.head * r * r) }] },
+    { name: "Preferred region (70–120 % of BEP)", style: "dashed", axis: "head", points: [{ x: lo, y: 0 }, { x: lo, y: top }, { x: hi, y: top }, { x: hi, y: 0 }] },
+  ];
+}
+
+/** An envelope's cases drawn against the total flow: each case's pump curve and system curve, its operating point, and NPSHa against NPSHr per pump. */
+function envelopeSeries(a: Args, curve: PumpCurve, conv: ReturnType<typeof toUnits>): ChartSeries[] {
+  const system = { suction: segmentsFromTable("suction", a.suction as Table), discharge: segmentsFromTable("discharge", a.discharge as Table), pumpLevel: a.pump_level as number, atmosphere: a.atmosphere as number };
+  const out: ChartSeries[] = [];
+  const drawn = new Set<string>();
+  for (const c of casesFromTable("cases", a.cases as Table)) {
+    const m = caseModel(curve, c, system);
+    const n = c.pumps;
+    const key = `${n}×${c.speed}`;
+    if (!drawn.has(key) && (n !== 1 || c.speed !== 1)) {
+      drawn.add(key);
+      const name = `${n > 1 ? `${n} pumps in parallel` : "1 pump"}${c.speed !== 1 ? ` at ${Math.round(c.speed * 100)} % speed` : ""}`;
+      out.push({ name, style: "line", axis: "head", points: sample(m.pump.min, m.pump.max, 40, (q) => m.pump.at(q)).map((p) => ({ x: conv.q(n * p.x), y: conv.h(p.y) })) });
+    }
+    // The system curve up to a little above the pump's shutoff head: beyond it nothing can run.
+    const ceiling = 1.15 * m.pump.at(m.pump.min);
+    const sys = sample(0, m.pump.max, 40, (q) => m.systemAt(q));
+    const shown = sys.slice(0, Math.max(2, sys.findIndex((p) => p.y > ceiling) + 1 || sys.length));
+    out.push({ name: `System: ${c.label}`, style: "line", axis: "head", points: shown.map((p) => ({ x: conv.q(n * p.x), y: conv.h(p.y) })) });
+    out.push({ name: `NPSHa: ${c.label}`, style: "line", axis: "npsh", points: sample(0, m.pump.max, 30, (q) => m.npshaAt(q)).map((p) => ({ x: conv.q(p.x), y: conv.h(p.y) })) });
+    try {
+      const q = crossing(m.pump, m.systemAt).value.flow;
+      out.push({ name: `Point: ${c.label}`, style: "marker", axis: "head", points: [{ x: conv.q(n * q), y: conv.h(m.pump.at(q)) }] });
+    } catch {
+      // A case with no crossing has no point; its row in the table says why.
+    }
   }
   return out;
 }
@@ -149,12 +203,14 @@ export function chartFor(records: readonly CallRecord[]): ChartData | undefined 
     }
     if (rec.id === "SYSTEM.HEAD") operatingPoint = { x: conv.q(a.flow as number), y: conv.h(recBaseResult(rec)) };
   }
+  if (rec.id === "PUMP.ENVELOPE") series.push(...envelopeSeries(a, curveFromTable("curve", a.curve as Table), conv));
   if (operatingPoint) series.push({ name: "Operating point", style: "marker", axis: "head", points: [operatingPoint] });
   return {
     title: `NAPPE.${rec.id}`,
     flowUnit: units.flow,
     headUnit: units.head,
     efficiencyUnit: series.some((s) => s.axis === "efficiency") ? units.efficiency || "fraction" : undefined,
+    npshFlowLabel: rec.id === "PUMP.ENVELOPE" ? "Flow per pump" : undefined,
     series,
     operatingPoint,
   };
@@ -167,13 +223,14 @@ function recBaseResult(rec: CallRecord): number {
   return ev.unit && ev.unit !== DIMENSIONS[ev.dim].base ? toBase("chart", v, ev.dim, ev.unit) : v;
 }
 
-/** Adds the workbook's NPSHa (base units, m) as a level line against the NPSHr curve. */
+/** Adds the workbook's NPSHa (base units, m) as a level line against the NPSHr curve, in the NPSH panel. */
 export function withNpsha(chart: ChartData, npshaBase: number, source: string): ChartData {
   const npshr = chart.series.find((x) => x.name === "NPSHr");
-  if (!npshr) return chart;
+  // An envelope draws each case's own NPSHa curve; the workbook's single value would mislead there.
+  if (!npshr || chart.series.some((x) => x.name.startsWith("NPSHa: "))) return chart;
   const head = chart.headUnit === DIMENSIONS.length.base ? npshaBase : fromBase("chart", npshaBase, "length", chart.headUnit);
   const xs = chart.series.flatMap((x) => x.points.map((p) => p.x));
-  const line: ChartSeries = { name: `NPSHa (${source})`, style: "dashed", axis: "head", points: [{ x: Math.min(...xs), y: head }, { x: Math.max(...xs), y: head }] };
+  const line: ChartSeries = { name: `NPSHa (${source})`, style: "dashed", axis: "npsh", points: [{ x: Math.min(...xs), y: head }, { x: Math.max(...xs), y: head }] };
   const at = chart.series.findIndex((x) => x.name === "NPSHr");
   return { ...chart, series: [...chart.series.slice(0, at + 1), line, ...chart.series.slice(at + 1)] };
 }

@@ -189,20 +189,24 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
   it("draws the pump and system curves with the operating point for a duty-point cell", async () => {
     await page.getByRole("tab", { name: "This cell" }).click();
     await selectCell(page, "Calc", "B28");
-    const chart = page.locator(".cell-view .chart");
+    const chart = page.locator(".cell-view .chart").first();
     await chart.waitFor();
     const op = (await chart.getAttribute("data-operating-point"))!.split(",").map(Number);
     expect(op[0]).toBeCloseTo(87.4559, 3);
     expect(op[1]).toBeCloseTo(102.3, 3);
-    expect(await chart.getAttribute("data-series")).toMatch(/^Pump curve \(points\)\|Pump curve\|Efficiency\|NPSHr\|NPSHa \(Calc!B36\)\|System curve\|Operating point$/);
-    // Something was drawn: the canvas has many non-blank pixels.
-    const inked = await chart.locator("canvas").evaluate((c: HTMLCanvasElement) => {
-      const d = c.getContext("2d")!.getImageData(0, 0, c.width, c.height).data;
-      let n = 0;
-      for (let i = 3; i < d.length; i += 4) if (d[i] > 0) n++;
-      return n;
-    });
-    expect(inked).toBeGreaterThan(2000);
+    expect(await chart.getAttribute("data-series")).toBe("Pump curve (points)|Pump curve|Efficiency|BEP|Preferred region (70–120 % of BEP)|NPSHr|NPSHa (Calc!B36)|System curve|Operating point");
+    // Something was drawn in both panels: head and efficiency, then NPSH on a scale of its own.
+    const ink = (canvas: Locator) =>
+      canvas.evaluate((c: HTMLCanvasElement) => {
+        const d = c.getContext("2d")!.getImageData(0, 0, c.width, c.height).data;
+        let n = 0;
+        for (let i = 3; i < d.length; i += 4) if (d[i] > 0) n++;
+        return n;
+      });
+    expect(await ink(chart.locator("canvas"))).toBeGreaterThan(2000);
+    const npsh = page.locator(".cell-view .npsh-panel");
+    expect(await npsh.getAttribute("aria-label")).toMatch(/^NPSH available and required against flow, on a scale of their own$/);
+    expect(await ink(npsh.locator("canvas"))).toBeGreaterThan(1000);
     await chart.scrollIntoViewIfNeeded();
     await page.screenshot({ path: join(shots, "pane-duty-chart.png") });
   });
@@ -226,7 +230,7 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
     errors.length = 0;
     await page.goto(preview.url, { waitUntil: "networkidle" });
     await selectCell(page, "Calc", "B28");
-    await page.locator(".cell-view .chart").waitFor();
+    await page.locator(".cell-view .chart").first().waitFor();
     expect(requests.length).toBeGreaterThan(0);
     expect(requests.filter((u) => !u.startsWith("http://127.0.0.1:"))).toEqual([]);
     expect(errors).toEqual([]);

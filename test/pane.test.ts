@@ -137,7 +137,12 @@ describe("chart data", () => {
     const { outcome } = await analyseCell(host, "Calc", "B28");
     const chart = chartFor(outcome!.calls)!;
     expect([chart.flowUnit, chart.headUnit, chart.efficiencyUnit]).toEqual(["m^3/h", "m", "%"]);
-    expect(chart.series.map((s) => s.name)).toEqual(["Pump curve (points)", "Pump curve", "Efficiency", "NPSHr", "System curve", "Operating point"]);
+    expect(chart.series.map((s) => s.name)).toEqual(["Pump curve (points)", "Pump curve", "Efficiency", "BEP", "Preferred region (70–120 % of BEP)", "NPSHr", "System curve", "Operating point"]);
+    // NPSH has a panel of its own, so a margin of a few metres reads beside a hundred metres of head.
+    expect(chart.series.filter((s) => s.axis === "npsh").map((s) => s.name)).toEqual(["NPSHr"]);
+    // The BEP is PUMP.BEP's (Envelope!A16: 109.449 m³/h); the region's sides are 70 % and 120 % of it (common practice).
+    expect(chart.series.find((s) => s.name === "BEP")!.points[0].x).toBeCloseTo(109.449, 3);
+    expect(chart.series.find((s) => s.name.startsWith("Preferred"))!.points.map((p) => p.x)).toEqual([0.7, 0.7, 1.2, 1.2].map((f) => expect.closeTo(f * 109.449, 2)));
     // With the workbook's NPSHa (Calc!B36) drawn against NPSHr in the cell view.
     const drawn = (await explainCell(host, "Calc", "B28")).chart!;
     const npsha = drawn.series.find((s) => s.name === "NPSHa (Calc!B36)")!;
@@ -155,6 +160,22 @@ describe("chart data", () => {
     expect(Math.abs(onLine("Pump curve") - chart.operatingPoint!.y)).toBeLessThan(0.05);
     // Table points are in the header's units (Pump!H4:I4: 0 m³/h, 114.7 m for the 265 mm impeller).
     expect(chart.series[0].points[0]).toEqual({ x: 0, y: 114.7 });
+  });
+  it("draws an envelope: each case's system curve and operating point, the parallel curve, and each case's NPSHa falling with flow", async () => {
+    const host = new MemoryHost(await demo());
+    const chart = chartFor((await analyseCell(host, "Envelope", "A19")).outcome!.calls)!;
+    const names = chart.series.map((s) => s.name);
+    expect(names).toContain("2 pumps in parallel");
+    for (const c of ["design: summer, new pipe", "reservoir low, aged pipe", "reservoir high, cold spring", "second pump on"]) {
+      expect(names).toContain(`System: ${c}`);
+      expect(names).toContain(`Point: ${c}`);
+      const npsha = chart.series.find((s) => s.name === `NPSHa: ${c}`)!;
+      expect(npsha.axis).toBe("npsh");
+      expect(npsha.points[npsha.points.length - 1].y).toBeLessThan(npsha.points[0].y); // suction losses grow with flow
+    }
+    // The second pump's point sits at the total flow the envelope table gives (Envelope!B23: 116.624 m³/h).
+    expect(chart.series.find((s) => s.name === "Point: second pump on")!.points[0].x).toBeCloseTo(116.624, 2);
+    expect(chart.npshFlowLabel).toBe("Flow per pump");
   });
   it("draws the trimmed curve through the duty point for TRIM", async () => {
     const host = new MemoryHost(await demo());

@@ -215,21 +215,46 @@ export interface Corner {
 
 const withRoughness = (segments: readonly PipeSegment[], roughness?: number) => (roughness === undefined ? segments : segments.map((s) => ({ ...s, roughness })));
 
-/** The operating point and the checks at one corner of the envelope. */
-export function envelopeCorner(curve: PumpCurve, bep: Bep, limits: OperatingLimits, c: EnvelopeCase, system: EnvelopeSystem, minMargin: number, motor?: number): Corner {
-  const reasons: string[] = [];
+/** One case as curves of the flow per pump: the water, the pump at the case's speed, the system head and NPSHa. */
+export interface CaseModel {
+  density: number;
+  /** Head of one pump at the case's speed, at its own flow. */
+  pump: Interpolant;
+  /** System head when each of the pumps running delivers `q`. */
+  systemAt(q: number): number;
+  /** NPSH available at a pump delivering `q` (its suction losses grow with its flow). */
+  npshaAt(q: number): number;
+}
+
+export function caseModel(curve: PumpCurve, c: EnvelopeCase, system: EnvelopeSystem): CaseModel {
   const rho = waterDensity(c.temperature, system.atmosphere).value;
   const nu = waterKinematicViscosity(c.temperature, system.atmosphere).value;
   const pv = saturationPressure(c.temperature).value;
+  const rhoG = rho * STANDARD_GRAVITY;
+  const r = c.speed;
+  const suction = { segments: withRoughness(system.suction, c.roughness), kinematicViscosity: nu };
+  const discharge = { segments: withRoughness(system.discharge, c.roughness), kinematicViscosity: nu };
+  const staticHead = c.dischargeLevel - c.suctionLevel + (c.dischargePressure - c.suctionPressure) / rhoG;
+  const head = curveInterpolant("curve", curve, "head");
+  return {
+    density: rho,
+    pump: { min: head.min * r, max: head.max * r, at: (q) => r * r * head.at(q / r), steps: () => [] },
+    systemAt: (q) => staticHead + systemHead(q, 0, suction).value + systemHead(c.pumps * q, 0, discharge).value,
+    npshaAt: (q) => (system.atmosphere + c.suctionPressure - pv) / rhoG + (c.suctionLevel - system.pumpLevel) - systemHead(q, 0, suction).value,
+  };
+}
+
+/** The operating point and the checks at one corner of the envelope. */
+export function envelopeCorner(curve: PumpCurve, bep: Bep, limits: OperatingLimits, c: EnvelopeCase, system: EnvelopeSystem, minMargin: number, motor?: number): Corner {
+  const reasons: string[] = [];
+  const model = caseModel(curve, c, system);
+  const rho = model.density;
   const g = STANDARD_GRAVITY;
   const r = c.speed;
   const n = c.pumps;
-  const suction = { segments: withRoughness(system.suction, c.roughness), kinematicViscosity: nu };
-  const discharge = { segments: withRoughness(system.discharge, c.roughness), kinematicViscosity: nu };
-  const staticHead = c.dischargeLevel - c.suctionLevel + (c.dischargePressure - c.suctionPressure) / (rho * g);
   const head = curveInterpolant("curve", curve, "head");
-  const pump: Interpolant = { min: head.min * r, max: head.max * r, at: (q) => r * r * head.at(q / r), steps: () => [] };
-  const systemAt = (q: number) => staticHead + systemHead(q, 0, suction).value + systemHead(n * q, 0, discharge).value;
+  const pump = model.pump;
+  const systemAt = model.systemAt;
   let q: number;
   try {
     q = operatingPoint(pump, systemAt).value.flow;
@@ -243,7 +268,7 @@ export function envelopeCorner(curve: PumpCurve, bep: Bep, limits: OperatingLimi
   const efficiency = curve.efficiency ? curveInterpolant("curve", curve, "efficiency").at(q / r) : undefined;
   const power = shaftPowerFunction(curve, rho)(q / r);
   const shaftPower = power === undefined ? undefined : curve.power ? power * r ** 3 : (rho * g * q * h) / efficiency!;
-  const npsha = (system.atmosphere + c.suctionPressure - pv) / (rho * g) + (c.suctionLevel - system.pumpLevel) - systemHead(q, 0, suction).value;
+  const npsha = model.npshaAt(q);
   let npshr: number | undefined;
   let margin: number | undefined;
   if (curve.npshr) {
