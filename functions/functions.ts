@@ -654,10 +654,12 @@ export function pumpMaxpower(curve: any[][], density?: any, ratio?: any, series?
  * @param flow_unit Unit of the spilled flows, such as "gpm"; m³/s when left out.
  * @param head_unit Unit of the spilled heads, such as "ft"; m when left out.
  * @param power_unit Unit of the spilled powers, such as "hp" or "kW"; W when left out.
+ * @param por_low Lower end of the preferred operating region as a fraction of BEP flow (0.7 or "70%").
+ * @param por_high Upper end of the preferred operating region as a fraction of BEP flow (1.2).
  * @returns Header row with units, then one row per case: Case, Flow, Flow per pump, Head, % of BEP, Eff (%), Shaft power per pump, NPSHa, NPSHr, NPSH margin, Energy (kWh per year, shaft, all pumps), Verdict.
  */
-export function pumpEnvelope(curve: any[][], cases: any[][], suction: any[][], discharge: any[][], pump_level?: any, atmosphere?: any, min_margin?: any, motor?: any, bep_flow?: any, min_flow?: any, flow_unit?: any, head_unit?: any, power_unit?: any): any[][] {
-  return run("PUMP.ENVELOPE", [curve, cases, suction, discharge, pump_level, atmosphere, min_margin, motor, bep_flow, min_flow, flow_unit, head_unit, power_unit]) as any[][];
+export function pumpEnvelope(curve: any[][], cases: any[][], suction: any[][], discharge: any[][], pump_level?: any, atmosphere?: any, min_margin?: any, motor?: any, bep_flow?: any, min_flow?: any, flow_unit?: any, head_unit?: any, power_unit?: any, por_low?: any, por_high?: any): any[][] {
+  return run("PUMP.ENVELOPE", [curve, cases, suction, discharge, pump_level, atmosphere, min_margin, motor, bep_flow, min_flow, flow_unit, head_unit, power_unit, por_low, por_high]) as any[][];
 }
 
 /**

@@ -75,6 +75,10 @@ describe("envelope corners", () => {
     const combined = run("PUMP.COMBINE", curve, 2, "parallel").value as Row[];
     expect(relativeError(run("PUMP.HEAD", two[1] as number, combined).value as number, two[3] as number)).toBeLessThan(1e-12);
   });
+  it("takes the pump maker's own preferred region: at 60 %–130 % the parallel corner is inside it", () => {
+    const rows = envelope(null, null, null, null, null, null, null, null, null, 0.6, 1.3).value as Row[];
+    expect(rows[3][11]).toBe("ok");
+  });
   it("a corner beyond the curve's end is a failing row that says so, not an error of the whole table", () => {
     const high = [cases[0], cases[1], ["above shutoff", 0, 40, "", 15, 1, 1, 100]];
     const rows = run("PUMP.ENVELOPE", curve, high, segments(ref.suction), segments(ref.discharge)).value as Row[];

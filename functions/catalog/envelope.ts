@@ -182,6 +182,8 @@ export const specs: FunctionSpec[] = [
       flowUnit,
       headUnit,
       powerUnit,
+      porLow,
+      porHigh,
     ],
     result: { dim: "flow", description: "Header row with units, then one row per case: Case, Flow, Flow per pump, Head, % of BEP, Eff (%), Shaft power per pump, NPSHa, NPSHr, NPSH margin, Energy (kWh per year, shaft, all pumps), Verdict.", spill: true },
     equation: String.raw`r^2 H_c\!\left(\tfrac{q}{r}\right) = z_d - z_s + \frac{p_d - p_s}{\rho g} + h_s(q) + h_d(nq), \quad NPSHa = \frac{p_{atm} + p_s - p_v}{\rho g} + z_s - z_{eye} - h_s(q)`,
@@ -209,7 +211,7 @@ export const specs: FunctionSpec[] = [
       const curve = curveFromTable("curve", a.curve);
       const result = envelope(
         curve,
-        limitsOf({ por_low: POR_DEFAULT[0], por_high: POR_DEFAULT[1], min_flow: a.min_flow }),
+        limitsOf({ por_low: a.por_low, por_high: a.por_high, min_flow: a.min_flow }),
         casesFromTable("cases", a.cases),
         { suction: segmentsFromTable("suction", a.suction), discharge: segmentsFromTable("discharge", a.discharge), pumpLevel: a.pump_level, atmosphere: a.atmosphere },
         a.min_margin,
