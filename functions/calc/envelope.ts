@@ -18,7 +18,7 @@ export const POR_DEFAULT = [0.7, 1.2] as const;
 /** The least NPSH margin ratio ANSI/HI 9.6.1 suggests for any service (from memory). */
 export const MIN_MARGIN_DEFAULT = 1.1;
 
-export interface Bep {
+interface Bep {
   flow: number;
   head: number;
   efficiency: number;
@@ -183,7 +183,7 @@ export interface EnvelopeCase {
   hours?: number;
 }
 
-export interface EnvelopeSystem {
+interface EnvelopeSystem {
   /** Suction line of each pump, from the suction surface to its inlet. */
   suction: readonly PipeSegment[];
   /** Discharge line shared by the pumps running. */
@@ -216,7 +216,7 @@ export interface Corner {
 const withRoughness = (segments: readonly PipeSegment[], roughness?: number) => (roughness === undefined ? segments : segments.map((s) => ({ ...s, roughness })));
 
 /** One case as curves of the flow per pump: the water, the pump at the case's speed, the system head and NPSHa. */
-export interface CaseModel {
+interface CaseModel {
   density: number;
   /** Head of one pump at the case's speed, at its own flow. */
   pump: Interpolant;
@@ -245,7 +245,7 @@ export function caseModel(curve: PumpCurve, c: EnvelopeCase, system: EnvelopeSys
 }
 
 /** The operating point and the checks at one corner of the envelope. */
-export function envelopeCorner(curve: PumpCurve, bep: Bep, limits: OperatingLimits, c: EnvelopeCase, system: EnvelopeSystem, minMargin: number, motor?: number): Corner {
+function envelopeCorner(curve: PumpCurve, bep: Bep, limits: OperatingLimits, c: EnvelopeCase, system: EnvelopeSystem, minMargin: number, motor?: number): Corner {
   const reasons: string[] = [];
   const model = caseModel(curve, c, system);
   const rho = model.density;
@@ -322,7 +322,7 @@ export function envelope(curve: PumpCurve, limits: OperatingLimits, cases: reado
 }
 
 /** One candidate of a selection: its impeller, its corners, and the figures the table compares. */
-export interface Candidate {
+interface Candidate {
   label: string;
   /** Why the candidate cannot be judged at all (no efficiency column, ...). */
   failure?: string;
