@@ -4,6 +4,7 @@
  *
  *  - exact Colebrook (Clamond 2009 plus one Newton step) against Swamee–Jain (target: at most 1.3× its cost)
  *  - a worksheet call with text quantities against bare numbers (target: at most 1.5×)
+ *  - one PUMP.DUTY call (two-segment system) against one HEADLOSS call (target: at most 10×)
  *  - 10 000 HEADLOSS calls through the binding layer
  *  - headless recalculation of a generated workbook with 5 000 NAPPE formulas: time, peak memory
  *  - built bundle sizes, minified and gzipped (run npm run build first)
@@ -49,6 +50,14 @@ const text: RawArg[] = ["317.006 gpm", "6.067 in", "984.252 ft", "0.0018110 in",
 const bareNs = timePerCall(20000, 9, () => (sink += evaluate(headloss, bare).value as number));
 const textNs = timePerCall(20000, 9, () => (sink += evaluate(headloss, text).value as number));
 res.text_vs_bare_numbers = { bare_ns: bareNs, text_ns: textNs, ratio: textNs / bareNs, target: "≤ 1.5" };
+
+// 2b. Curve work: one PUMP.DUTY call with a two-segment system against one HEADLOSS call (target ≤ 10×).
+const duty = CATALOG_BY_ID.get("PUMP.DUTY")!;
+const curveTable: RawArg = [["Flow (m^3/h)", "Head (m)"], [0, 114.7], [28.4, 113.8], [56.8, 110.2], [85.2, 103], [113.6, 92.3], [141.9, 78]];
+const segments: RawArg = [["Length (m)", "ID (m)", "Roughness (m)", "K"], [9.144, 0.154051, 4.5e-5, 6.68], [420, 0.128194, 4.5e-5, 4.52]];
+const dutyArgs: RawArg[] = [curveTable, 90.33, segments, 8.4e-7, "m^3/h", "m"];
+const dutyNs = timePerCall(2000, 9, () => (sink += (evaluate(duty, dutyArgs).value as number[][])[0][0]));
+res.curve_work = { pump_duty_ns: dutyNs, headloss_ns: bareNs, ratio: dutyNs / bareNs, target: "≤ 10", how: "crossing bracketed on the curve's own points, then Brent's method" };
 
 // 3. 10 000 HEADLOSS calls through the built binding (the same wrapper Excel calls).
 const bundle = join(root, "dist/functions.js");

@@ -10,7 +10,7 @@ import { STANDARD_GRAVITY } from "./_lib/constants";
 import { evaluatePolynomial, fitPolynomial } from "./_lib/leastSquares";
 import { operatingPoint } from "./operatingPoint";
 import { curveInterpolant, type Interpolant, type PumpCurve, valueAt } from "./pumpCurve";
-import { type PipeSegment, systemHead } from "./systemCurve";
+import { type PipeSegment, systemHead, systemHeadAt } from "./systemCurve";
 import { saturationPressure, waterDensity, waterKinematicViscosity } from "./water";
 
 /** Preferred operating region as fractions of BEP flow: 70 %–120 %, as commonly cited from ANSI/HI 9.6.3 (common practice, from memory). */
@@ -236,11 +236,14 @@ export function caseModel(curve: PumpCurve, c: EnvelopeCase, system: EnvelopeSys
   const discharge = { segments: withRoughness(system.discharge, c.roughness), kinematicViscosity: nu };
   const staticHead = c.dischargeLevel - c.suctionLevel + (c.dischargePressure - c.suctionPressure) / rhoG;
   const head = curveInterpolant("curve", curve, "head");
+  // Checked once with their messages; the curves below are evaluated many times.
+  systemHead(head.max, 0, suction);
+  systemHead(head.max, 0, discharge);
   return {
     density: rho,
-    pump: { min: head.min * r, max: head.max * r, at: (q) => r * r * head.at(q / r), steps: () => [] },
-    systemAt: (q) => staticHead + systemHead(q, 0, suction).value + systemHead(c.pumps * q, 0, discharge).value,
-    npshaAt: (q) => (system.atmosphere + c.suctionPressure - pv) / rhoG + (c.suctionLevel - system.pumpLevel) - systemHead(q, 0, suction).value,
+    pump: { min: head.min * r, max: head.max * r, at: (q) => r * r * head.at(q / r), grid: head.grid.map((q) => q * r), steps: () => [] },
+    systemAt: (q) => staticHead + systemHeadAt(q, 0, suction) + systemHeadAt(c.pumps * q, 0, discharge),
+    npshaAt: (q) => (system.atmosphere + c.suctionPressure - pv) / rhoG + (c.suctionLevel - system.pumpLevel) - systemHeadAt(q, 0, suction),
   };
 }
 

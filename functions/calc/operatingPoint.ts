@@ -1,6 +1,6 @@
 /** The operating point: where the pump's head curve meets the system curve. */
 import { CalcError, type CalcResult, ok, step, quoted } from "./_lib/result";
-import { allRoots } from "./_lib/solve";
+import { rootsOnGrid } from "./_lib/solve";
 import type { Interpolant } from "./pumpCurve";
 
 interface OperatingPoint {
@@ -9,13 +9,14 @@ interface OperatingPoint {
 }
 
 /**
- * Solves pump(Q) = system(Q) on the pump curve's flow range (Brent's method on every sign
- * change found in 400 steps). Where a drooping curve crosses twice, the higher flow is the
+ * Solves pump(Q) = system(Q) on the pump curve's flow range: Brent's method on every sign
+ * change between the curve's own points (intervals the pump curve rises over are split, since a
+ * rising system curve can cross a falling PCHIP interval only once). Where a drooping curve crosses twice, the higher flow is the
  * stable point and is returned with a warning.
  */
 export function operatingPoint(pump: Interpolant, systemAt: (flow: number) => number): CalcResult<OperatingPoint> {
   const diff = (q: number) => pump.at(q) - systemAt(q);
-  const roots = allRoots(diff, pump.min, pump.max, 400);
+  const roots = rootsOnGrid(diff, pump.grid);
   if (!roots.length) {
     if (diff(pump.min) < 0) {
       throw new CalcError(

@@ -76,6 +76,12 @@ export interface Interpolant {
   max: number;
   at(flow: number): number;
   /**
+   * Flows at which to look for a crossing with another curve: the table's own points, with
+   * intervals the curve rises over (or a least-squares fit's) split further, since only on a
+   * falling PCHIP interval can a rising system curve cross at most once.
+   */
+  grid: number[];
+  /**
    * How the value at a flow is obtained, as a reviewer checks it by hand: for PCHIP the two
    * points either side, t, the slopes there and the straight line between the points (for
    * comparison); for a least-squares fit its coefficients. `symbol` and `dim` name the column.
@@ -117,7 +123,7 @@ export function interpolant(series: Series, fit: CurveFit = "pchip"): Interpolan
         step(`${symbol} (straight line)`, "straight line between the two points, for comparison", y[k] + t * (y[k + 1] - y[k]), dim, `${symbol}_k + t·(${symbol}_k+1 − ${symbol}_k)`),
       ];
     };
-    return { min, max, at: (q) => hermite(x, y, d, q), steps };
+    return { min, max, at: (q) => hermite(x, y, d, q), grid: crossingGrid(x, (k) => y[k + 1] > y[k]), steps };
   }
   const degree = fit === "quadratic" ? 2 : 3;
   if (x.length < degree + 2) {
@@ -128,7 +134,17 @@ export function interpolant(series: Series, fit: CurveFit = "pchip"): Interpolan
     step("s", "scaled flow", (q - poly.centre) / poly.scale, "ratio", `s = (Q − Q_c)/Q_s with Q_c = ${poly.centre} and Q_s = ${poly.scale} m³/s, the middle and half-width of the curve's flows`),
     ...poly.coefficients.map((a, i) => step(`c${i}`, `coefficient of s^${i} in ${symbol}(s), base units`, a, "ratio", `least squares (${fit}) through the curve's ${x.length} points`)),
   ];
-  return { min, max, at: (q) => evaluatePolynomial(poly, q), steps };
+  return { min, max, at: (q) => evaluatePolynomial(poly, q), grid: crossingGrid(x, () => true), steps };
+}
+
+/** The table's flows, with each interval for which `split(k)` holds cut into eight. */
+function crossingGrid(x: readonly number[], split: (k: number) => boolean): number[] {
+  const grid = [x[0]];
+  for (let k = 0; k < x.length - 1; k++) {
+    const parts = split(k) ? 8 : 1;
+    for (let j = 1; j <= parts; j++) grid.push(j === parts ? x[k + 1] : x[k] + ((x[k + 1] - x[k]) * j) / parts);
+  }
+  return grid;
 }
 
 /** Relative slack at the ends of a curve, so a flow read from the last point itself is inside. */

@@ -3,7 +3,7 @@
  * H = Hs + Σ (f·L/D + ΣK)·V²/2g (Darcy–Weisbach with Colebrook), or H = Hs + k·Q².
  */
 import { type CalcResult, CalcError, ok, requireFinite, requireNonNegative, step, type Step } from "./_lib/result";
-import { frictionFactor } from "./friction";
+import { colebrookFriction, frictionFactor } from "./friction";
 import { velocityHead } from "./headLoss";
 import { pipeArea } from "./pipeFlow";
 
@@ -55,6 +55,23 @@ function segmentLosses(flow: number, segments: readonly PipeSegment[], kinematic
     );
   });
   return ok(total, [...warnings], steps);
+}
+
+/**
+ * System head at a flow, m, and nothing else: for root finding, where every evaluation counts
+ * (no steps, no warnings; the same numbers as systemHead).
+ */
+export function systemHeadAt(flow: number, staticHead: number, losses: SystemLosses): number {
+  if ("k" in losses) return staticHead + losses.k * flow * flow;
+  let total = staticHead;
+  if (flow === 0) return total;
+  for (const s of losses.segments) {
+    const v = flow / pipeArea(s.diameter);
+    const re = (v * s.diameter) / losses.kinematicViscosity;
+    const f = re < 2000 ? 64 / re : colebrookFriction(re, s.roughness / s.diameter);
+    total += ((f * s.length) / s.diameter + s.k) * velocityHead(v);
+  }
+  return total;
 }
 
 /** System head at a flow, m. */

@@ -1,6 +1,6 @@
 import { CURVE_FITS, curveInterpolant, valueAt } from "../calc/pumpCurve";
 import { operatingPoint } from "../calc/operatingPoint";
-import { systemHead } from "../calc/systemCurve";
+import { systemHead, systemHeadAt } from "../calc/systemCurve";
 import { combineFactors, pumpPowerAt, selectImpeller } from "../calc/pumpSelection";
 import { curveScaleFactors } from "../calc/affinity";
 import { dutyAgainstBep } from "../calc/envelope";
@@ -154,7 +154,8 @@ export const specs: FunctionSpec[] = [
       const curve = curveOf(a.curve);
       const head = curveInterpolant("curve", curve, "head");
       const losses = systemLosses(a.system, a.kinematic_viscosity);
-      const p = operatingPoint(head, (q) => systemHead(q, a.static_head, losses).value);
+      systemHead(head.max, a.static_head, losses); // checks the system's values once, with their messages
+      const p = operatingPoint(head, (q) => systemHeadAt(q, a.static_head, losses));
       const sys = systemHead(p.value.flow, a.static_head, losses);
       const bep = dutyAgainstBep(curve, p.value.flow);
       return ok([[spillValue("flow_unit", p.value.flow, "flow", a.flow_unit), spillValue("head_unit", p.value.head, "length", a.head_unit)]], [...p.warnings, ...sys.warnings, ...bep.warnings], [...(p.steps ?? []), ...(sys.steps ?? []), ...bep.steps]);

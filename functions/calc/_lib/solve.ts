@@ -68,12 +68,17 @@ function brentRoot(f: (x: number) => number, a: number, b: number, maxIterations
  * Brent's method. Returns the roots in increasing order.
  */
 export function allRoots(f: (x: number) => number, a: number, b: number, samples = 200): number[] {
+  return rootsOnGrid(f, Array.from({ length: samples + 1 }, (_, i) => a + ((b - a) * i) / samples));
+}
+
+/** Every sign change of f between consecutive points of an increasing grid, refined by Brent's method. */
+export function rootsOnGrid(f: (x: number) => number, grid: readonly number[]): number[] {
   const roots: number[] = [];
-  let x0 = a;
-  let f0 = f(a);
-  if (f0 === 0) roots.push(a);
-  for (let i = 1; i <= samples; i++) {
-    const x1 = a + ((b - a) * i) / samples;
+  let x0 = grid[0];
+  let f0 = f(x0);
+  if (f0 === 0) roots.push(x0);
+  for (let i = 1; i < grid.length; i++) {
+    const x1 = grid[i];
     const f1 = f(x1);
     if (f1 === 0) roots.push(x1);
     else if (f0 !== 0 && f0 * f1 < 0) roots.push(brentRoot(f, x0, x1));
