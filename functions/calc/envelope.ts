@@ -10,7 +10,7 @@ import { STANDARD_GRAVITY } from "./_lib/constants";
 import { evaluatePolynomial, fitPolynomial } from "./_lib/leastSquares";
 import { operatingPoint } from "./operatingPoint";
 import { curveInterpolant, type Interpolant, type PumpCurve, valueAt } from "./pumpCurve";
-import { type PipeSegment, systemHead, systemHeadAt } from "./systemCurve";
+import { checkSystem, type PipeSegment, systemHeadAt } from "./systemCurve";
 import { saturationPressure, waterDensity, waterKinematicViscosity } from "./water";
 
 /** Preferred operating region as fractions of BEP flow: 70 %–120 %, as commonly cited from ANSI/HI 9.6.3 (common practice, from memory). */
@@ -237,8 +237,8 @@ export function caseModel(curve: PumpCurve, c: EnvelopeCase, system: EnvelopeSys
   const staticHead = c.dischargeLevel - c.suctionLevel + (c.dischargePressure - c.suctionPressure) / rhoG;
   const head = curveInterpolant("curve", curve, "head");
   // Checked once with their messages; the curves below are evaluated many times.
-  systemHead(head.max, 0, suction);
-  systemHead(head.max, 0, discharge);
+  checkSystem(0, suction);
+  checkSystem(0, discharge);
   return {
     density: rho,
     pump: { min: head.min * r, max: head.max * r, at: (q) => r * r * head.at(q / r), grid: head.grid.map((q) => q * r), steps: () => [] },

@@ -101,8 +101,19 @@ function bracket(x: readonly number[], xq: number): number {
   return k;
 }
 
+/** Interpolants already built, by series and fit (a curve's series never change once checked). */
+const interpolants = new WeakMap<Series, Map<CurveFit, Interpolant>>();
+
 /** Builds the interpolant of a checked series by the chosen fit. */
 export function interpolant(series: Series, fit: CurveFit = "pchip"): Interpolant {
+  let byFit = interpolants.get(series);
+  if (!byFit) interpolants.set(series, (byFit = new Map()));
+  let f = byFit.get(fit);
+  if (!f) byFit.set(fit, (f = buildInterpolant(series, fit)));
+  return f;
+}
+
+function buildInterpolant(series: Series, fit: CurveFit): Interpolant {
   const { x, y } = series;
   const min = x[0];
   const max = x[x.length - 1];

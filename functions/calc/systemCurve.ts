@@ -30,11 +30,18 @@ export function checkSegments(arg: string, segments: readonly PipeSegment[]): vo
   });
 }
 
+/** Checks a system's static head and losses, with the messages systemHead gives. */
+export function checkSystem(staticHead: number, losses: SystemLosses): void {
+  requireFinite("static_head", staticHead);
+  if ("k" in losses) {
+    if (!(losses.k >= 0)) throw new CalcError("system", `expected a resistance k of zero or more (H = Hs + k·Q², k in s²/m⁵); got ${losses.k}`);
+  } else if (!(losses.kinematicViscosity > 0 && Number.isFinite(losses.kinematicViscosity))) {
+    throw new CalcError("kinematic_viscosity", `expected a kinematic viscosity greater than zero; got ${losses.kinematicViscosity}`);
+  }
+}
+
 /** Sum of friction and minor losses of the segments at a flow, m. */
 function segmentLosses(flow: number, segments: readonly PipeSegment[], kinematicViscosity: number): CalcResult {
-  if (!(kinematicViscosity > 0 && Number.isFinite(kinematicViscosity))) {
-    throw new CalcError("kinematic_viscosity", `expected a kinematic viscosity greater than zero; got ${kinematicViscosity}`);
-  }
   const warnings = new Set<string>();
   let total = 0;
   if (flow === 0) return ok(0);
@@ -59,7 +66,7 @@ function segmentLosses(flow: number, segments: readonly PipeSegment[], kinematic
 
 /**
  * System head at a flow, m, and nothing else: for root finding, where every evaluation counts
- * (no steps, no warnings; the same numbers as systemHead).
+ * (no checks, steps or warnings: call checkSystem first; the same numbers as systemHead).
  */
 export function systemHeadAt(flow: number, staticHead: number, losses: SystemLosses): number {
   if ("k" in losses) return staticHead + losses.k * flow * flow;
@@ -77,9 +84,8 @@ export function systemHeadAt(flow: number, staticHead: number, losses: SystemLos
 /** System head at a flow, m. */
 export function systemHead(flow: number, staticHead: number, losses: SystemLosses): CalcResult {
   requireNonNegative("flow", flow, "a flow of zero or more");
-  requireFinite("static_head", staticHead);
+  checkSystem(staticHead, losses);
   if ("k" in losses) {
-    if (!(losses.k >= 0)) throw new CalcError("system", `expected a resistance k of zero or more (H = Hs + k·Q², k in s²/m⁵); got ${losses.k}`);
     return ok(staticHead + losses.k * flow * flow, [], [step("H_s", "static head", staticHead, "length", "as given"), step("kQ²", "losses", losses.k * flow * flow, "length", "resistance k times the flow squared")]);
   }
   const loss = segmentLosses(flow, losses.segments, losses.kinematicViscosity);

@@ -43,8 +43,15 @@ function curveFromRows(arg: string, t: Table, rows: number[]): PumpCurve {
   return { head, efficiency: seriesOf(arg, t, rows, "efficiency"), npshr: seriesOf(arg, t, rows, "npshr"), power: seriesOf(arg, t, rows, "power") };
 }
 
+/** Curves already built from a table (tables are read once per content, see readTable). */
+const curves = new WeakMap<Table, Map<string, PumpCurve>>();
+
 export function curveFromTable(arg: string, t: Table): PumpCurve {
-  return curveFromRows(arg, t, [...Array(t.rows).keys()]);
+  let byArg = curves.get(t);
+  if (!byArg) curves.set(t, (byArg = new Map()));
+  let curve = byArg.get(arg);
+  if (!curve) byArg.set(arg, (curve = curveFromRows(arg, t, [...Array(t.rows).keys()])));
+  return curve;
 }
 
 

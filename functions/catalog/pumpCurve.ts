@@ -1,6 +1,6 @@
 import { CURVE_FITS, curveInterpolant, valueAt } from "../calc/pumpCurve";
 import { operatingPoint } from "../calc/operatingPoint";
-import { systemHead, systemHeadAt } from "../calc/systemCurve";
+import { checkSystem, systemHead, systemHeadAt } from "../calc/systemCurve";
 import { combineFactors, pumpPowerAt, selectImpeller } from "../calc/pumpSelection";
 import { curveScaleFactors } from "../calc/affinity";
 import { dutyAgainstBep } from "../calc/envelope";
@@ -154,7 +154,7 @@ export const specs: FunctionSpec[] = [
       const curve = curveOf(a.curve);
       const head = curveInterpolant("curve", curve, "head");
       const losses = systemLosses(a.system, a.kinematic_viscosity);
-      systemHead(head.max, a.static_head, losses); // checks the system's values once, with their messages
+      checkSystem(a.static_head, losses);
       const p = operatingPoint(head, (q) => systemHeadAt(q, a.static_head, losses));
       const sys = systemHead(p.value.flow, a.static_head, losses);
       const bep = dutyAgainstBep(curve, p.value.flow);

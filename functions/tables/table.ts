@@ -125,8 +125,30 @@ function isUnitsRow(row: readonly RawArg[] | undefined): boolean {
   return row.every((c) => isBlank(c) || (typeof c === "string" && parseNumberText(c) === undefined && !/\d\s*[A-Za-z%]/.test(c)));
 }
 
+/**
+ * Tables already read, by argument, kind and content: a workbook passes the same curve or pipe
+ * table to many formulas, and Excel hands each call a fresh copy. Tables are never changed
+ * after reading, so one read serves every call. Bounded; the oldest entry goes first.
+ */
+const tableCache = new Map<string, Table>();
+const TABLE_CACHE_LIMIT = 200;
+/** Ranges above this many cells are read every time (their key would cost as much as reading). */
+const CACHED_CELLS = 5000;
+
 /** Reads a worksheet range as a table of the given kind; `arg` names the argument in errors. */
 export function readTable(arg: string, kind: TableKind, raw: RawArg): Table {
+  const cells = Array.isArray(raw) ? raw.length * ((raw[0] as unknown[] | undefined)?.length ?? 0) : 0;
+  if (!cells || cells > CACHED_CELLS) return readTableUncached(arg, kind, raw);
+  const key = `${arg}\u0000${kind}\u0000${JSON.stringify(raw)}`;
+  const hit = tableCache.get(key);
+  if (hit) return hit;
+  const table = readTableUncached(arg, kind, raw);
+  if (tableCache.size >= TABLE_CACHE_LIMIT) tableCache.delete(tableCache.keys().next().value!);
+  tableCache.set(key, table);
+  return table;
+}
+
+function readTableUncached(arg: string, kind: TableKind, raw: RawArg): Table {
   if (!Array.isArray(raw) || !raw.length || !Array.isArray(raw[0])) {
     throw new CalcError(arg, `expected a range of cells (a ${kind} table), got a single value`, "value");
   }
