@@ -178,13 +178,21 @@ interface CellAnalysis {
 
 const NO_LABELS: LabelSource = { labelsNear: () => [], numberFormat: () => undefined };
 
+/**
+ * What the analyses of one workbook check share, so that it is found once: the workbook's NPSHa
+ * (drawn on every pump cell's chart).
+ */
+interface AnalysisCache {
+  npsha?: Promise<{ value: number; cell: string } | undefined>;
+}
+
 /** Explains the cell at sheet!address. */
 export async function explainCell(port: HostPort, sheet: string, address: string): Promise<CellExplanation> {
   return (await analyseCell(port, sheet, address)).explanation;
 }
 
 /** Evaluates the cell's formula over a snapshot of its precedents and explains every NAPPE call. */
-export async function analyseCell(port: HostPort, sheet: string, address: string): Promise<CellAnalysis> {
+export async function analyseCell(port: HostPort, sheet: string, address: string, shared: AnalysisCache = {}): Promise<CellAnalysis> {
   const cell = await port.cell(sheet, address);
   const base = { sheet, address, value: formatValue(cell.value), calls: [] as CallExplanation[] };
   if (!cell.formula) {
@@ -217,7 +225,7 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
   try {
     chart = chartFor(computed.calls);
     if (chart?.series.some((x) => x.name === "NPSHr")) {
-      const npsha = await workbookNpsha(port);
+      const npsha = await (shared.npsha ??= workbookNpsha(port));
       if (npsha) chart = withNpsha(chart, npsha.value, npsha.cell);
     }
   } catch {

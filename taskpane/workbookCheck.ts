@@ -1,5 +1,5 @@
 /**
- * The whole-workbook check (pure): every NAPPE formula analysed through the HostPort, with
+ * The whole-workbook check (pure): every NAPPE formula analysed from one read of the workbook, with
  * status and counts, yielding to the page between cells so long scans stay responsive; and the
  * audit sheet built from the same audit model as the headless report.
  */
@@ -9,6 +9,7 @@ import type { LabelSource } from "../workbook/unitCheck";
 import { displayFormula } from "../workbook/storedForm";
 import { analyseCell } from "./explain";
 import type { HostPort } from "./host/port";
+import { MemoryHost } from "./host/memory";
 
 interface CheckRow {
   sheet: string;
@@ -36,15 +37,22 @@ function mergeLabels(sources: LabelSource[]): LabelSource {
   };
 }
 
+/**
+ * Checks every NAPPE formula. The workbook is read once (every sheet's used range and the
+ * defined names, through workbookSnapshot) and analysed in memory with the same engine the
+ * in-memory host uses: the round trips to Excel do not grow with the number of formulas.
+ */
 export async function checkWorkbook(port: HostPort, onProgress?: (done: number, total: number) => void, yieldEvery = 25): Promise<WorkbookCheck> {
-  const cells = await port.nappeFormulaCells();
+  const local = new MemoryHost(await port.workbookSnapshot(), { recalculate: false });
+  const cells = await local.nappeFormulaCells();
   const rows: CheckRow[] = [];
   const outcomes: CellOutcome[] = [];
   const labels: LabelSource[] = [];
   const counts: Record<Status, number> = { ok: 0, warning: 0, error: 0 };
+  const shared = {};
   for (let i = 0; i < cells.length; i++) {
     const c = cells[i];
-    const analysis = await analyseCell(port, c.sheet, c.address);
+    const analysis = await analyseCell(local, c.sheet, c.address, shared);
     const unitWarnings = analysis.explanation.calls.flatMap((x) => x.unitWarnings.map((w) => `Unit check: ${w.message}`));
     let status: Status = analysis.outcome?.status ?? "error";
     if (status === "ok" && unitWarnings.length) status = "warning";

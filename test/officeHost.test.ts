@@ -6,6 +6,8 @@
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { addressOf, parseAddress } from "../workbook/address";
 import { OfficeHost } from "../taskpane/host/office";
+import { checkWorkbook } from "../taskpane/workbookCheck";
+import { run } from "./helpers";
 
 type Cell = { formula?: string; value: unknown; format?: string };
 class FakeSheet {
@@ -33,7 +35,7 @@ class FakeSheet {
     const maxR = Math.max(...keys.map((k) => k.row));
     const maxC = Math.max(...keys.map((k) => k.col));
     const r = new FakeRange(this, 1, 1, maxR, maxC);
-    return Object.assign(r, { isNullObject: false, rowIndex: 0, columnIndex: 0 });
+    return Object.assign(r, { isNullObject: false, rowIndex: 0, columnIndex: 0, rowCount: maxR, columnCount: maxC });
   }
   activate() {}
   delete() {
@@ -82,7 +84,7 @@ class FakeRange {
     }));
   }
 }
-const fake = { sheets: [] as FakeSheet[], active: { sheet: "Calc", address: "B2" }, selected: undefined as undefined | { sheet: string; address: string }, handlers: [] as (() => void)[] };
+const fake = { sheets: [] as FakeSheet[], active: { sheet: "Calc", address: "B2" }, selected: undefined as undefined | { sheet: string; address: string }, handlers: [] as (() => void)[], syncs: 0 };
 
 function install() {
   const sheetByName = (n: string) => fake.sheets.find((s) => s.name === n && !s.deleted)!;
@@ -105,7 +107,8 @@ function install() {
         },
       },
     },
-    sync: async () => {},
+    // Every sync is one round trip to Excel.
+    sync: async () => void fake.syncs++,
   };
   (globalThis as Record<string, unknown>).Excel = { run: async (f: (c: typeof context) => unknown) => f(context), PageOrientation: { landscape: "Landscape" } };
   const calc = new FakeSheet("Calc");
@@ -147,6 +150,42 @@ describe("Office.js adapter (against a stand-in for Excel's API)", () => {
   it("selects a cell", async () => {
     await new OfficeHost().select("Calc", "B3");
     expect(fake.selected).toEqual({ sheet: "Calc", address: "B3" });
+  });
+  it("checks the whole workbook in round trips that do not grow with the number of formulas", async () => {
+    // 20 sheets, each with its inputs, a pump curve with NPSHr, and `perSheet` NAPPE formulas; one NPSHA.
+    const build = (perSheet: number) => {
+      fake.sheets = Array.from({ length: 20 }, (_, k) => {
+        const ws = new FakeSheet(`Pumps ${k + 1}`);
+        [["Flow (gpm)", "Head (ft)", "NPSHr (ft)"], [0, 100, ""], [100, 98, 6], [200, 92, 8], [300, 80, 11], [400, 60, 16]].forEach((row, i) => row.forEach((v, j) => ws.cells.set(addressOf(i + 1, j + 1), { value: v })));
+        ws.cells.set("E1", { value: "Flow (gpm)" });
+        ws.cells.set("F1", { value: 250 });
+        for (let i = 0; i < perSheet; i++) ws.cells.set(addressOf(i + 2, 6), { formula: `NAPPE.PUMP.NPSHR(F1&" gpm", A1:C6, "ft")`, value: 9.33125 }); // SciPy PCHIP at 250 gpm (test/reference/examples_reference.json)
+        return ws;
+      });
+      fake.sheets[0].cells.set("H1", { formula: "NAPPE.NPSHA(101325, -2, 0.5, 20)", value: run("NPSHA", 101325, -2, 0.5, 20).value });
+    };
+    const syncsFor = async (perSheet: number) => {
+      build(perSheet);
+      fake.syncs = 0;
+      const check = await checkWorkbook(new OfficeHost());
+      expect(check.rows).toHaveLength(20 * perSheet + 1);
+      expect(check.rows.filter((r) => r.status === "error").map((r) => `${r.sheet}!${r.address} ${r.note}`)).toEqual([]);
+      return fake.syncs;
+    };
+    const few = await syncsFor(1);
+    const many = await syncsFor(20);
+    // Sheets and names, then the used ranges' extents, then one read of every cell (2 + 1 chunk).
+    expect(few).toBe(3);
+    expect(many).toBe(3);
+  });
+  it("reads a large used range in chunks, each under the per-request cell budget", async () => {
+    const big = new FakeSheet("Big");
+    for (let r = 1; r <= 30000; r++) big.cells.set(addressOf(r, 1), { value: r }), big.cells.set(addressOf(r, 2), { value: r * 2 });
+    fake.sheets = [big];
+    fake.syncs = 0;
+    const model = await new OfficeHost().workbookSnapshot();
+    expect(model.sheets[0].cells.size).toBe(60000);
+    expect(fake.syncs).toBe(2 + 2); // 60 000 cells at 40 000 a request
   });
   it("writes the audit sheet as text with a frozen header row, replacing an older one", async () => {
     const host = new OfficeHost();

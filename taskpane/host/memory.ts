@@ -13,9 +13,10 @@ export class MemoryHost implements HostPort {
   private readonly selectionHandlers: (() => void)[] = [];
   private readonly changeHandlers: (() => void)[] = [];
 
-  constructor(readonly workbook: WorkbookModel) {
+  /** `recalculate: false` keeps the values as given: for a snapshot read from Excel, analysed in memory. */
+  constructor(readonly workbook: WorkbookModel, options: { recalculate?: boolean } = {}) {
     this.current = { sheet: workbook.sheets[0]?.name ?? "Sheet1", address: "A1" };
-    this.recalculate();
+    if (options.recalculate !== false) this.recalculate();
   }
 
   /** Recomputes every formula's value in place. */
@@ -119,6 +120,10 @@ export class MemoryHost implements HostPort {
       if (onProgress && (i % 500 === 0 || i === all.length - 1)) onProgress(i + 1, all.length);
     });
     return out;
+  }
+
+  async workbookSnapshot(): Promise<WorkbookModel> {
+    return this.workbook;
   }
 
   async definedNames(): Promise<DefinedName[]> {

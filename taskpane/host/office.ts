@@ -3,7 +3,7 @@
  * JavaScript API. Kept thin; everything it returns is plain data for the pure pane logic.
  */
 import { addressOf, parseAddress } from "../../workbook/address";
-import type { CellValue, DefinedName } from "../../workbook/model";
+import { cellKey, type CellModel, type CellValue, type DefinedName, type WorkbookModel } from "../../workbook/model";
 import type { CellAddress, CellSnapshot, FormulaCell, HostPort } from "./port";
 import { hasNappeCall } from "../../workbook/storedForm";
 
@@ -23,6 +23,13 @@ function snapshot(formula: unknown, value: unknown, format: unknown): CellSnapsh
 function localAddress(address: string): string {
   return address.includes("!") ? address.slice(address.lastIndexOf("!") + 1) : address;
 }
+
+/**
+ * Cells read per round trip by workbookSnapshot. A cell's value, formula and number format come
+ * to some tens of bytes in the response, so 40 000 cells stay well under Excel on the web's
+ * documented 5 MB payload limit.
+ */
+const READ_CELLS = 40000;
 
 export class OfficeHost implements HostPort {
   async selection(): Promise<CellAddress> {
@@ -107,6 +114,70 @@ export class OfficeHost implements HostPort {
         onProgress?.(s + 1, sheets.items.length);
       }
       return out;
+    });
+  }
+
+  /**
+   * Two round trips to learn the sheets, names and used ranges, then the cells in chunks of
+   * rows queued together, one more round trip per READ_CELLS cells: a response stays well under
+   * Excel on the web's payload limit (5 MB per request, documented), whatever the workbook holds.
+   */
+  async workbookSnapshot(): Promise<WorkbookModel> {
+    return Excel.run(async (context) => {
+      const sheets = context.workbook.worksheets;
+      sheets.load("items/name");
+      const book = context.workbook.names;
+      book.load("items/name,items/formula");
+      await context.sync();
+      const used = sheets.items.map((ws) => {
+        const range = ws.getUsedRangeOrNullObject(true);
+        range.load("rowIndex,columnIndex,rowCount,columnCount");
+        const names = ws.names;
+        names.load("items/name,items/formula");
+        return { ws, range, names };
+      });
+      await context.sync();
+      const model: WorkbookModel = { sheets: [], names: [] };
+      const refersTo = (formula: unknown) => String(formula).replace(/^=/, "");
+      model.names!.push(...book.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula) })));
+      const pending: { sheet: string; cells: Map<string, CellModel>; row0: number; col0: number; range: Excel.Range }[] = [];
+      let queued = 0;
+      const flush = async () => {
+        if (!pending.length) return;
+        await context.sync();
+        for (const p of pending.splice(0)) {
+          const { formulas, values, numberFormat } = p.range;
+          formulas.forEach((row, i) =>
+            row.forEach((f, j) => {
+              const value = plain(values[i][j]);
+              const formula = typeof f === "string" && f.startsWith("=") ? f.slice(1) : undefined;
+              const format = numberFormat[i][j];
+              if (formula === undefined && (value === null || value === "")) return;
+              const r = p.row0 + i + 1;
+              const c = p.col0 + j + 1;
+              p.cells.set(cellKey(r, c), { sheet: p.sheet, address: addressOf(r, c), row: r, col: c, value, formula, numFmt: typeof format === "string" && format !== "General" ? format : undefined });
+            }),
+          );
+        }
+        queued = 0;
+      };
+      for (const { ws, range, names } of used) {
+        const cells = new Map<string, CellModel>();
+        model.sheets.push({ name: ws.name, cells });
+        model.names!.push(...names.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula), sheet: ws.name })));
+        if (range.isNullObject) continue;
+        const rowsPerChunk = Math.max(1, Math.floor(READ_CELLS / Math.max(1, range.columnCount)));
+        for (let r0 = 0; r0 < range.rowCount; r0 += rowsPerChunk) {
+          const rows = Math.min(rowsPerChunk, range.rowCount - r0);
+          if (queued + rows * range.columnCount > READ_CELLS) await flush();
+          const chunk = ws.getRangeByIndexes(range.rowIndex + r0, range.columnIndex, rows, range.columnCount);
+          chunk.load("values,formulas,numberFormat");
+          pending.push({ sheet: ws.name, cells, row0: range.rowIndex + r0, col0: range.columnIndex, range: chunk });
+          queued += rows * range.columnCount;
+        }
+      }
+      await flush();
+      return model;
     });
   }
 

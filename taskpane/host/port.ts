@@ -3,7 +3,7 @@
  * Office.js in Excel (office.ts) and an in-memory workbook read from .xlsx (memory.ts) for the
  * preview page and tests. All pane logic talks to this interface only.
  */
-import type { CellValue, DefinedName } from "../../workbook/model";
+import type { CellValue, DefinedName, WorkbookModel } from "../../workbook/model";
 
 export interface CellSnapshot {
   /** Formula without the leading "=", when the cell has one. */
@@ -40,6 +40,12 @@ export interface HostPort {
   setValue(sheet: string, address: string, value: string | number): Promise<void>;
   /** The workbook's defined names, workbook-scoped and sheet-scoped. */
   definedNames(): Promise<DefinedName[]>;
+  /**
+   * Every sheet's used range (values, formulas, number formats) and the defined names, read in
+   * as few round trips as the host allows, as a workbook model to analyse in memory. The values
+   * are the host's own (nothing is recalculated).
+   */
+  workbookSnapshot(): Promise<WorkbookModel>;
   /** Every formula cell in the workbook that calls a NAPPE function. */
   nappeFormulaCells(onProgress?: (done: number, total: number) => void): Promise<FormulaCell[]>;
   /** Selects a cell (and shows its sheet). */
