@@ -7,6 +7,7 @@
  *  - one PUMP.DUTY call (two-segment system) against one HEADLOSS call (target: at most 10×)
  *  - 10 000 HEADLOSS calls through the binding layer
  *  - headless recalculation of a generated workbook with 5 000 NAPPE formulas: time, peak memory
+ *  - the pane's whole-workbook check of 1 000 NAPPE formulas in the preview (target: under 1 s)
  *  - built bundle sizes, minified and gzipped (run npm run build first)
  */
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
@@ -99,6 +100,24 @@ res.recalc_5000_nappe_formulas = {
   peak_rss_mb: peak / 2 ** 20,
   rss_growth_mb: (peak - rssBefore) / 2 ** 20,
 };
+
+// 4b. The pane's whole-workbook check of 1 000 NAPPE formulas in the preview (in-memory host): time to analyse.
+{
+  const { MemoryHost } = await import("../taskpane/host/memory");
+  const { checkWorkbook } = await import("../taskpane/workbookCheck");
+  const b = new ExcelJS.Workbook();
+  const sheet = b.addWorksheet("Check");
+  sheet.getCell("A1").value = "Flow (gpm)";
+  for (let r = 1; r <= 500; r++) {
+    sheet.getCell(r, 2).value = 100 + r;
+    sheet.getCell(r, 3).value = { formula: `NAPPE.VELOCITY(B${r}&" gpm", "6 in", "ft/s")` };
+    sheet.getCell(r, 4).value = { formula: `NAPPE.HEADLOSS(B${r}&" gpm", "6 in", "300 ft", "0.0018 in", , "ft")` };
+  }
+  const host = new MemoryHost(fromExcelJS(b));
+  const t = process.hrtime.bigint();
+  const check = await checkWorkbook(host);
+  res.pane_check_1000_formulas = { formulas: check.rows.length, ms: Number(process.hrtime.bigint() - t) / 1e6, target: "< 1000 ms" };
+}
 
 // 5. Bundle sizes.
 const sizes: Record<string, { bytes: number; gzip: number }> = {};

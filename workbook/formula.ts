@@ -63,9 +63,12 @@ export interface PrecedentRef {
 
 const { DepParser } = FormulaParser as unknown as { DepParser: new () => { parse(f: string, pos: { sheet: string; row: number; col: number }): PrecedentRef[] } };
 
+/** One dependency parser, made on first use: making one costs far more than a parse, and parse starts afresh each time. */
+let depParser: InstanceType<typeof DepParser> | undefined;
+
 /** The cells and ranges a formula reads directly, from the library's dependency parser. */
 export function directPrecedents(formula: string, position: { sheet: string; row: number; col: number }): PrecedentRef[] {
-  return new DepParser().parse(formula, position);
+  return [...(depParser ??= new DepParser()).parse(formula, position)];
 }
 
 interface ArgSite {

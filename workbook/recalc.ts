@@ -115,6 +115,9 @@ function keyText(key: string): string {
   return `${key.slice(0, bang)}!${addressOf(r, c)}`;
 }
 
+/** The formula parsers of every Recalculation, one per nesting depth (see parserAt). */
+const SHARED_PARSERS: { parser: EvaluatingParser; route: { to?: Recalculation } }[] = [];
+
 export class Recalculation {
   private readonly memo = new Map<string, Computed>();
   private readonly visiting: string[] = [];
@@ -122,7 +125,6 @@ export class Recalculation {
   private readonly calls: CallRecord[][] = [];
   /** Formula cells whose failed results the formula being computed has read. */
   private readonly failedReads: string[][] = [];
-  private readonly parsers: EvaluatingParser[] = [];
   /** Formula cells of each sheet, for ordering ranges. */
   private readonly formulaCells = new Map<string, CellModel[]>();
   private computedCount = 0;
@@ -148,29 +150,33 @@ export class Recalculation {
    * formula's references may need other formulas computed while it is being parsed.
    */
   private parserAt(depth: number): EvaluatingParser {
-    while (this.parsers.length <= depth) {
+    // Making a parser costs far more than a parse (the pane analyses cells one by one, each with
+    // a new Recalculation), so the parsers are shared: each depth's callbacks go to the
+    // Recalculation that last took that depth. Parsing is synchronous, so none is shared at once.
+    while (SHARED_PARSERS.length <= depth) {
+      const route: { to?: Recalculation } = {};
       const functions: Record<string, (...args: FunctionArg[]) => unknown> = {};
       // Both forms a NAPPE call takes: dotted as typed, and as Excel stores it (_xldudf_NAPPE_X_Y).
       for (const spec of CATALOG) {
-        const call = (...args: FunctionArg[]) => this.callNappe(spec.id, args);
+        const call = (...args: FunctionArg[]) => route.to!.callNappe(spec.id, args);
         functions[`NAPPE.${spec.id}`] = call;
         functions[`${UDF_PREFIX}NAPPE_${spec.id.replace(/\./g, "_")}`.toUpperCase()] = call;
       }
       Object.assign(functions, EXTRA_FUNCTIONS, {
-        ANCHORARRAY: (arg: FunctionArg) => this.spillOf(arg),
-        SINGLE: (arg: FunctionArg) => this.implicitIntersection(arg),
+        ANCHORARRAY: (arg: FunctionArg) => route.to!.spillOf(arg),
+        SINGLE: (arg: FunctionArg) => route.to!.implicitIntersection(arg),
       });
-      this.parsers.push(
-        evaluatingParser({
-          functions,
-          // References on our functions' arguments let the audit say where each input came from.
-          keepReferences: [...Object.keys(functions).filter((n) => n.startsWith("NAPPE.") || n.startsWith("_XLDUDF_")), "ANCHORARRAY", "SINGLE"],
-          onCell: (ref) => this.scalarAt(ref.sheet, ref.row, ref.col),
-          onRange: (ref) => this.rangeValues(ref),
-        }),
-      );
+      const parser = evaluatingParser({
+        functions,
+        // References on our functions' arguments let the audit say where each input came from.
+        keepReferences: [...Object.keys(functions).filter((n) => n.startsWith("NAPPE.") || n.startsWith("_XLDUDF_")), "ANCHORARRAY", "SINGLE"],
+        onCell: (ref) => route.to!.scalarAt(ref.sheet, ref.row, ref.col),
+        onRange: (ref) => route.to!.rangeValues(ref),
+      });
+      SHARED_PARSERS.push({ parser, route });
     }
-    return this.parsers[depth];
+    SHARED_PARSERS[depth].route.to = this;
+    return SHARED_PARSERS[depth].parser;
   }
 
   private callNappe(id: string, args: FunctionArg[]): unknown {
