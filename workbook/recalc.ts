@@ -251,13 +251,29 @@ export class Recalculation {
       lastRow = Math.min(lastRow, Math.max(maxR, ref.from.row));
       lastCol = Math.min(lastCol, Math.max(maxC, ref.from.col));
     }
+    // A range read once is read again from here (200 formulas over the same column read it once):
+    // every value in it is final once read, formulas included (they are computed on the way).
+    const key = `${ref.sheet}!${ref.from.row}:${ref.from.col}:${lastRow}:${lastCol}`;
+    const known = this.ranges.get(key);
+    if (known) return known;
     const rows: CellValue[][] = [];
     for (let r = ref.from.row; r <= lastRow; r++) {
       const row: CellValue[] = [];
       for (let c = ref.from.col; c <= lastCol; c++) row.push(this.scalarAt(ref.sheet, r, c));
       rows.push(row);
     }
+    if (!this.visiting.some((k) => this.inRange(k, ref.sheet, ref.from, lastRow, lastCol))) this.ranges.set(key, rows);
     return rows;
+  }
+
+  private readonly ranges = new Map<string, CellValue[][]>();
+
+  /** True when the cell of a visiting key lies in the range (its value is not final yet). */
+  private inRange(visitingKey: string, sheet: string, from: { row: number; col: number }, lastRow: number, lastCol: number): boolean {
+    const bang = visitingKey.lastIndexOf("!");
+    if (visitingKey.slice(0, bang).toLowerCase() !== sheet.toLowerCase()) return false;
+    const [r, c] = visitingKey.slice(bang + 1).split(":").map(Number);
+    return r >= from.row && r <= lastRow && c >= from.col && c <= lastCol;
   }
 
   private readonly extents = new Map<string, { maxR: number; maxC: number }>();
