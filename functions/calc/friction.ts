@@ -55,9 +55,10 @@ export function colebrookFriction(re: number, relativeRoughness: number): number
   let x = F / 1.151292546497022842; // 1/√f = 2F/ln10
   const a = relativeRoughness / 3.7;
   const b = 2.51 / re;
+  const twoOverLn10 = 0.868588963806503655; // 2/ln10
   for (let i = 0; i < 50; i++) {
     const inner = a + b * x;
-    const step = (x + 2 * Math.log10(inner)) / (1 + (2 * b) / (inner * Math.LN10));
+    const step = (x + twoOverLn10 * Math.log(inner)) / (1 + (twoOverLn10 * b) / inner);
     x -= step;
     // Newton converges quadratically: after a step below 1e-9·x the error is below 1e-18·x.
     if (Math.abs(step) <= 1e-9 * x) return 1 / (x * x);
