@@ -18,7 +18,7 @@ import { displayFormula, hasNappeCall, resolveNames } from "../workbook/storedFo
 import type { LabelSource, UnitFinding } from "../workbook/unitCheck";
 import { type ChartData, chartFor, withNpsha } from "./chartData";
 import { toBase } from "../functions/units/quantity";
-import type { HostPort } from "./host/port";
+import type { CellSnapshot, HostPort } from "./host/port";
 
 interface UnitWarning {
   message: string;
@@ -54,6 +54,27 @@ export interface CellExplanation {
 }
 
 
+/** The cells a label may sit in: up to three to the left on the same row, then the one above. */
+function labelRequests(sheet: string, row: number, col: number): { sheet: string; range: string }[] {
+  const out: { sheet: string; range: string }[] = [];
+  if (col > 1) out.push({ sheet, range: `${addressOf(row, Math.max(1, col - 3))}:${addressOf(row, col - 1)}` });
+  if (row > 1) out.push({ sheet, range: addressOf(row - 1, col) });
+  return out;
+}
+
+/** The labels read by labelRequests: the nearest text to the left, then the text above (as HostPort.labelsNear). */
+function labelsFrom(reads: CellSnapshot[][][], hasLeft: boolean): string[] {
+  const text = (v: CellValue) => (typeof v === "string" && v.trim() && !/^#/.test(v) ? v : undefined);
+  const found: string[] = [];
+  const left = hasLeft ? reads[0]?.[0] ?? [] : [];
+  const nearest = [...left].reverse().map((c) => text(c.value)).find(Boolean);
+  if (nearest) found.push(nearest);
+  const above = reads[hasLeft ? 1 : 0]?.[0]?.[0];
+  const t = above ? text(above.value) : undefined;
+  if (t) found.push(t);
+  return found;
+}
+
 /** Reads the formula's direct precedents from the host into a small workbook model. */
 async function snapshot(port: HostPort, sheet: string, address: string, formula: string): Promise<{ wb: WorkbookModel; labels: Map<string, string[]>; formats: Map<string, string | undefined>; formulas: Map<string, string> }> {
   const target = parseAddress(address);
@@ -79,12 +100,22 @@ async function snapshot(port: HostPort, sheet: string, address: string, formula:
   // Precedents' own formulas, for the unit check to follow plain references (=Inputs!B14) to the input they copy.
   const formulas = new Map<string, string>();
   const follow: { sheet: string; address: string; formula: string }[] = [];
-  for (const ref of refs) {
+  // Every precedent range, and the label cells of every single-cell precedent, in one read.
+  const wanted = refs.filter((ref) => {
     const from = ref.from ?? { row: ref.row!, col: ref.col! };
     const to = ref.to ?? from;
-    if (to.row - from.row > 5000 || to.col - from.col > 100) continue;
-    const rangeText = `${addressOf(from.row, from.col)}:${addressOf(to.row, to.col)}`;
-    const cells = await port.range(ref.sheet, rangeText);
+    return to.row - from.row <= 5000 && to.col - from.col <= 100;
+  });
+  const requests = wanted.flatMap((ref) => {
+    const from = ref.from ?? { row: ref.row!, col: ref.col! };
+    const to = ref.to ?? from;
+    return [{ sheet: ref.sheet, range: `${addressOf(from.row, from.col)}:${addressOf(to.row, to.col)}` }, ...(ref.from ? [] : labelRequests(ref.sheet, from.row, from.col))];
+  });
+  const answers = await port.ranges(requests);
+  let next = 0;
+  for (const ref of wanted) {
+    const from = ref.from ?? { row: ref.row!, col: ref.col! };
+    const cells = answers[next++];
     cells.forEach((row, i) =>
       row.forEach((c, j) => {
         const r = from.row + i;
@@ -100,25 +131,41 @@ async function snapshot(port: HostPort, sheet: string, address: string, formula:
     );
     if (!ref.from) {
       const a = addressOf(from.row, from.col);
-      labels.set(`${ref.sheet}!${a}`, await port.labelsNear(ref.sheet, a));
+      const count = labelRequests(ref.sheet, from.row, from.col).length;
+      labels.set(`${ref.sheet}!${a}`, labelsFrom(answers.slice(next, next + count), from.col > 1));
+      next += count;
       formats.set(`${ref.sheet}!${a}`, cells[0]?.[0]?.numberFormat);
     }
   }
-  // Up to three plain references deep: the labels and formats of the cells they copy.
+  // Up to three plain references deep: the cells they copy with their labels, one read per depth.
   for (let depth = 0; depth < 3 && follow.length; depth++) {
-    const next = follow.splice(0);
-    for (const f of next) {
+    const targets = new Map<string, { sheet: string; address: string }>();
+    for (const f of follow.splice(0)) {
       const m = /^\s*((?:'(?:[^']|'')+'|[A-Za-z_][A-Za-z0-9_.]*)!)?\$?([A-Za-z]{1,3})\$?(\d+)\s*$/.exec(f.formula);
       if (!m) continue;
       const t = splitReference(`${m[1] ?? ""}${m[2]}${m[3]}`, f.sheet);
       const key = `${t.sheet}!${t.address.toUpperCase()}`;
-      if (labels.has(key)) continue;
-      labels.set(key, await port.labelsNear(t.sheet, t.address.toUpperCase()));
-      const target = await port.cell(t.sheet, t.address.toUpperCase());
-      formats.set(key, target.numberFormat);
-      if (target.formula) {
-        formulas.set(key, target.formula);
-        follow.push({ sheet: t.sheet, address: t.address.toUpperCase(), formula: target.formula });
+      if (!labels.has(key) && !targets.has(key)) targets.set(key, { sheet: t.sheet, address: t.address.toUpperCase() });
+    }
+    if (!targets.size) break;
+    const list = [...targets.entries()];
+    const reads = await port.ranges(
+      list.flatMap(([, t]) => {
+        const { row, col } = parseAddress(t.address);
+        return [{ sheet: t.sheet, range: t.address }, ...labelRequests(t.sheet, row, col)];
+      }),
+    );
+    let k = 0;
+    for (const [key, t] of list) {
+      const { row, col } = parseAddress(t.address);
+      const cell = reads[k++][0][0];
+      const count = labelRequests(t.sheet, row, col).length;
+      labels.set(key, labelsFrom(reads.slice(k, k + count), col > 1));
+      k += count;
+      formats.set(key, cell.numberFormat);
+      if (cell.formula) {
+        formulas.set(key, cell.formula);
+        follow.push({ sheet: t.sheet, address: t.address, formula: cell.formula });
       }
     }
   }

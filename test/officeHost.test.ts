@@ -7,6 +7,7 @@ import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { addressOf, parseAddress } from "../workbook/address";
 import { OfficeHost } from "../taskpane/host/office";
 import { checkWorkbook } from "../taskpane/workbookCheck";
+import { explainCell } from "../taskpane/explain";
 import { run } from "./helpers";
 
 type Cell = { formula?: string; value: unknown; format?: string };
@@ -177,6 +178,26 @@ describe("Office.js adapter (against a stand-in for Excel's API)", () => {
     // Sheets and names, then the used ranges' extents, then one read of every cell (2 + 1 chunk).
     expect(few).toBe(3);
     expect(many).toBe(3);
+  });
+  it("explains a cell in round trips that do not grow with its precedents: the cell, the names, then every precedent and label at once", async () => {
+    const calc = fake.sheets[0];
+    [["Flow (gpm)", 400], ["Bore (in)", 4], ["Length (ft)", 300], ["Roughness (in)", 0.0018]].forEach(([label, v], i) => {
+      calc.cells.set(addressOf(10 + i, 1), { value: label });
+      calc.cells.set(addressOf(10 + i, 2), { value: v });
+    });
+    calc.cells.set("C20", { formula: 'NAPPE.HEADLOSS(B10&" gpm", B11&" in", B12&" ft", B13&" in", , "ft")', value: 0 });
+    const tripsFor = async (address: string) => {
+      fake.syncs = 0;
+      const e = await explainCell(new OfficeHost(), "Calc", address);
+      expect(e.calls.length).toBe(1);
+      return fake.syncs;
+    };
+    const one = await tripsFor("B2"); // one precedent, labelled
+    const four = await tripsFor("C20"); // four precedents, each labelled
+    expect(one).toBe(4);
+    expect(four).toBe(4);
+    // The labels were read in that one batch: the unit check still sees "Flow (gpm)" beside B1.
+    expect((await explainCell(new OfficeHost(), "Calc", "B2")).calls[0].unitWarnings).toEqual([]);
   });
   it("reads a large used range in chunks, each under the per-request cell budget", async () => {
     const big = new FakeSheet("Big");

@@ -82,6 +82,10 @@ export class MemoryHost implements HostPort {
     return rows;
   }
 
+  async ranges(requests: readonly { sheet: string; range: string }[]): Promise<CellSnapshot[][][]> {
+    return Promise.all(requests.map((r) => this.range(r.sheet, r.range)));
+  }
+
   async labelsNear(sheet: string, address: string): Promise<string[]> {
     const { row, col } = parseAddress(address);
     return labelSource(this.workbook).labelsNear(sheet, row, col);

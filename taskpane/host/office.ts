@@ -63,6 +63,22 @@ export class OfficeHost implements HostPort {
     });
   }
 
+  async ranges(requests: readonly { sheet: string; range: string }[]): Promise<CellSnapshot[][][]> {
+    if (!requests.length) return [];
+    return Excel.run(async (context) => {
+      const loaded = requests.map((q) => {
+        const r = context.workbook.worksheets.getItem(q.sheet).getRange(q.range);
+        r.load("formulas, values, numberFormat");
+        return r;
+      });
+      await context.sync();
+      return loaded.map((r) => {
+        const { formulas, values, numberFormat } = r;
+        return values.map((row, i) => row.map((v, j) => snapshot(formulas[i][j], v, numberFormat[i][j])));
+      });
+    });
+  }
+
   async labelsNear(sheet: string, address: string): Promise<string[]> {
     const { row, col } = parseAddress(address);
     const found: string[] = [];

@@ -32,6 +32,8 @@ export interface HostPort {
   cell(sheet: string, address: string): Promise<CellSnapshot>;
   /** Values, formulas and number formats of a rectangular range ("A1:D8"). */
   range(sheet: string, range: string): Promise<CellSnapshot[][]>;
+  /** Several ranges read together (one round trip where the host batches), in the order asked. */
+  ranges(requests: readonly { sheet: string; range: string }[]): Promise<CellSnapshot[][][]>;
   /** Text of the nearest label cells: to the left on the same row, then above. */
   labelsNear(sheet: string, address: string): Promise<string[]>;
   /** Writes a formula (without "=") into one cell. */
