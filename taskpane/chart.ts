@@ -43,21 +43,20 @@ export function drawChart(data: ChartData): HTMLElement {
   const legend = { position: "bottom" as const, labels: { boxWidth: 12, font: { size: 10 }, filter: (item: { text: string }) => !item.text.endsWith("(points)") } };
   const main = document.createElement("canvas");
   box.append(main);
-  new Chart(main, {
-    type: "scatter",
-    data: { datasets: datasets(["head", "efficiency"]) },
-    options: {
-      responsive: true,
-      maintainAspectRatio: false,
-      animation: false,
-      plugins: { legend },
-      scales: {
-        x: { type: "linear", title: { display: true, text: `Flow (${data.flowUnit})` } },
-        y: { type: "linear", position: "left", min: 0, title: { display: true, text: `Head (${data.headUnit})` } },
-        ...(data.efficiencyUnit ? { y2: { type: "linear" as const, position: "right" as const, title: { display: true, text: `Efficiency (${data.efficiencyUnit})` }, grid: { drawOnChartArea: false } } } : {}),
+  // One panel: a scatter chart whose y axis starts at zero, titled in the data's units.
+  const panelChart = (canvas: HTMLCanvasElement, axes: readonly string[], xTitle: string, yTitle: string, extra = {}) =>
+    new Chart(canvas, {
+      type: "scatter",
+      data: { datasets: datasets(axes) },
+      options: {
+        responsive: true,
+        maintainAspectRatio: false,
+        animation: false,
+        plugins: { legend },
+        scales: { x: { type: "linear", title: { display: true, text: xTitle } }, y: { type: "linear", position: "left", min: 0, title: { display: true, text: yTitle } }, ...extra },
       },
-    },
-  });
+    });
+  panelChart(main, ["head", "efficiency"], `Flow (${data.flowUnit})`, `Head (${data.headUnit})`, data.efficiencyUnit ? { y2: { type: "linear" as const, position: "right" as const, title: { display: true, text: `Efficiency (${data.efficiencyUnit})` }, grid: { drawOnChartArea: false } } } : {});
   if (data.series.some((s) => s.axis === "npsh")) {
     const panel = document.createElement("div");
     panel.className = "chart npsh-panel";
@@ -67,20 +66,7 @@ export function drawChart(data: ChartData): HTMLElement {
     panel.append(canvas);
     const wrap = document.createElement("div");
     wrap.append(box, panel);
-    new Chart(canvas, {
-      type: "scatter",
-      data: { datasets: datasets(["npsh"]) },
-      options: {
-        responsive: true,
-        maintainAspectRatio: false,
-        animation: false,
-        plugins: { legend },
-        scales: {
-          x: { type: "linear", title: { display: true, text: `${data.npshFlowLabel ?? "Flow"} (${data.flowUnit})` } },
-          y: { type: "linear", position: "left", min: 0, title: { display: true, text: `NPSH (${data.headUnit})` } },
-        },
-      },
-    });
+    panelChart(canvas, ["npsh"], `${data.npshFlowLabel ?? "Flow"} (${data.flowUnit})`, `NPSH (${data.headUnit})`);
     return wrap;
   }
   return box;

@@ -62,3 +62,13 @@ export const curveParam = {
 
 /** Invented example curve on the parabola H = 52 − 12000·Q² (m, m³/s), for hand-checkable examples. */
 export const PARABOLA_CURVE = [0, 0.01, 0.02, 0.03, 0.04, 0.05].map((q) => [q, 52 - 12000 * q * q]);
+
+/** Invented test curve (US units) for the examples of the pump functions: not any maker's pump. */
+export const EXAMPLE_CURVE_US = [
+  ["Flow (gpm)", "Head (ft)", "Eff (%)", "NPSHr (ft)"],
+  [0, 100, 0, ""],
+  [100, 98, 55, 6],
+  [200, 92, 72, 8],
+  [300, 80, 76, 11],
+  [400, 60, 70, 16],
+];

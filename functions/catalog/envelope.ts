@@ -3,7 +3,7 @@ import { curveInterpolant } from "../calc/pumpCurve";
 import { MOTOR_SERIES, motorSize } from "../calc/motor";
 import { CalcError, ok } from "../calc/_lib/result";
 import { STANDARD_ATMOSPHERE } from "../calc/_lib/constants";
-import { CAVITATION_CAUTION, curveParam, DESIGN_AID, densityParam, flowParam } from "./_shared";
+import { CAVITATION_CAUTION, curveParam, DESIGN_AID, densityParam, EXAMPLE_CURVE_US, flowParam } from "./_shared";
 import { casesFromTable, curveFromTable, impellersFromTable, segmentsFromTable, spillHeader, spillValue } from "./_tables";
 import { type Cell, defineSpec, type FunctionSpec, type QuantityParam, type TableParam, type UnitParam } from "./types";
 
@@ -28,15 +28,9 @@ const pumpLevel = { name: "pump_level", kind: "quantity", dim: "length", optiona
 const atmosphere = { name: "atmosphere", kind: "quantity", dim: "pressure", optional: true, default: STANDARD_ATMOSPHERE, defaultNote: "101.325 kPa, sea level; use NAPPE.ATMPRESSURE for the site", description: "Atmospheric pressure at the site, absolute." } as const satisfies QuantityParam;
 const minMargin = { name: "min_margin", kind: "quantity", dim: "ratio", optional: true, default: MIN_MARGIN_DEFAULT, defaultNote: "1.1, the least ANSI/HI 9.6.1 suggests (from memory)", description: "Least NPSH margin ratio NPSHa/NPSHr accepted." } as const satisfies QuantityParam;
 
-/** Invented test curve (US units): not any maker's pump. */
-const CURVE_US = [
-  ["Flow (gpm)", "Head (ft)", "Eff (%)", "NPSHr (ft)"],
-  [0, 100, 0, ""],
-  [100, 98, 55, 6],
-  [200, 92, 72, 8],
-  [300, 80, 76, 11],
-  [400, 60, 70, 16],
-];
+const CURVE_US = EXAMPLE_CURVE_US;
+/** The cases, the lines and the site, as PUMP.ENVELOPE and PUMP.SHORTLIST both take them. */
+const ENVELOPE_PARAMS = [casesParam, suctionParam, dischargeParam, pumpLevel, atmosphere, minMargin] as const;
 /** Invented lines and cases (test/reference/envelope_reference.py solves the same ones with SciPy). */
 const SUCTION = [["Length (m)", "ID (m)", "Roughness (m)", "K"], [6, 0.1541, 4.5e-5, 2]];
 const DISCHARGE = [["Length (m)", "ID (m)", "Roughness (m)", "K"], [250, 0.1023, 4.5e-5, 8]];
@@ -170,12 +164,7 @@ export const specs: FunctionSpec[] = [
     purpose: "The operating point, % of BEP, efficiency, shaft power, NPSHa against NPSHr and a verdict at every corner of an envelope of cases; spills a labelled table.",
     params: [
       curveParam,
-      casesParam,
-      suctionParam,
-      dischargeParam,
-      pumpLevel,
-      atmosphere,
-      minMargin,
+      ...ENVELOPE_PARAMS,
       { name: "motor", kind: "quantity", dim: "power", optional: true, description: "Motor rating: a corner whose shaft power exceeds it fails." },
       bepFlow,
       minFlow,
@@ -232,12 +221,7 @@ export const specs: FunctionSpec[] = [
     purpose: "Every impeller of a family compared over an envelope of cases, with the recommended one and why each other lost; spills a labelled table.",
     params: [
       { name: "family", kind: "table", table: "family", description: "Impeller family: Impeller, Flow, Head, Eff and NPSHr columns, one row per point." },
-      casesParam,
-      suctionParam,
-      dischargeParam,
-      pumpLevel,
-      atmosphere,
-      minMargin,
+      ...ENVELOPE_PARAMS,
       { name: "series", kind: "choice", options: MOTOR_SERIES, optional: true, default: "nema", defaultNote: "NEMA (hp ratings)", description: '"NEMA" (default) or "IEC" motor ratings.' },
       flowUnit,
       headUnit,

@@ -6,7 +6,7 @@ import { curveScaleFactors } from "../calc/affinity";
 import { dutyAgainstBep } from "../calc/envelope";
 import { ok, type StepDimension } from "../calc/_lib/result";
 import type { Table } from "../tables/table";
-import { CAVITATION_CAUTION, curveParam, DESIGN_AID, densityParam, PARABOLA_CURVE, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
+import { CAVITATION_CAUTION, curveParam, DESIGN_AID, densityParam, EXAMPLE_CURVE_US, PARABOLA_CURVE, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
 import { curveFromTable, impellersFromTable, spillTable, spillValue, systemLosses } from "./_tables";
 import { defineSpec, type ChoiceParam, type FunctionSpec, type UnitParam } from "./types";
 
@@ -31,15 +31,7 @@ const CURVE_ASSUMPTIONS = [
 ];
 const SCIPY = "SciPy PchipInterpolator, test/reference/curve_reference.py";
 
-/** Invented test curve (US units) used in the examples: not any maker's pump. */
-const CURVE_US = [
-  ["Flow (gpm)", "Head (ft)", "Eff (%)", "NPSHr (ft)"],
-  [0, 100, 0, ""],
-  [100, 98, 55, 6],
-  [200, 92, 72, 8],
-  [300, 80, 76, 11],
-  [400, 60, 70, 16],
-];
+const CURVE_US = EXAMPLE_CURVE_US;
 
 const curveOf = (curve: Table) => curveFromTable("curve", curve);
 
