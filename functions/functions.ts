@@ -648,7 +648,7 @@ export function pumpMaxpower(curve: any[][], density?: any, ratio?: any, series?
  * @param pump_level Elevation of the impeller eye on the levels' datum.
  * @param atmosphere Atmospheric pressure at the site, absolute.
  * @param min_margin Least NPSH margin ratio NPSHa/NPSHr accepted.
- * @param motor Motor rating: a corner whose shaft power exceeds it fails.
+ * @param motor Motor rating: a corner whose shaft power exceeds it fails; a warning says when it covers every case but not the end of the curve.
  * @param bep_flow The pump maker's best efficiency flow; fitted from the efficiency column when left out.
  * @param min_flow Minimum continuous stable flow from the pump maker, at the curve's speed.
  * @param flow_unit Unit of the spilled flows, such as "gpm"; m³/s when left out.

@@ -86,6 +86,13 @@ describe("envelope corners", () => {
     expect(rows[2][11]).toMatch(/^fails: the system needs more head than the pump gives anywhere on its curve/);
     expect(rows[2][1]).toBe("");
   });
+  it("says when the motor covers every case but not the end of the curve (8.66 hp at 400 gpm, against the table)", () => {
+    const four = cases.slice(0, 5);
+    const ev = run("PUMP.ENVELOPE", curve, four, segments(ref.suction), segments(ref.discharge), null, null, null, "8 hp", null, null, "gpm", "ft", "hp");
+    expect((ev.value as Row[]).slice(1).map((r) => r[11])).not.toContainEqual(expect.stringMatching(/overloads/));
+    expect(ev.warnings.join(" ")).toMatch(/The 8 hp motor covers every case but not the end of the curve: 8\.6\d* hp at 400 gpm/);
+    expect(run("PUMP.ENVELOPE", curve, four, segments(ref.suction), segments(ref.discharge), null, null, null, "10 hp").warnings.join(" ")).not.toMatch(/end of the curve/);
+  });
   it("fails a corner whose shaft power overloads the motor given", () => {
     const rows = envelope(null, null, null, "7.5 hp", null, null, "gpm", "ft", "hp").value as Row[];
     expect(rows[1][11]).toBe("fails: shaft power 7.97 hp overloads the 7.5 hp motor");

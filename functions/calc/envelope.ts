@@ -317,6 +317,14 @@ export function envelope(curve: PumpCurve, limits: OperatingLimits, cases: reado
   if (lowMargin) steps.push(step("M_min", `smallest NPSH margin ratio (case ${lowMargin.label})`, lowMargin.margin!, "ratio", "NPSHa/NPSHr at each corner"));
   if (highPower) steps.push(step("P_env", `largest shaft power per pump (case ${highPower.label})`, highPower.shaftPower!, "power", "ρgQH/η at each corner"));
   const warnings = [...bep.warnings];
+  if (motor !== undefined && cases.length) {
+    // A motor that carries every case can still overload when the pump runs out to the end of its curve.
+    const fastest = cases.reduce((a, c) => (c.speed > a.speed ? c : a));
+    const end = endOfCurvePower(curve, waterDensity(fastest.temperature, system.atmosphere).value, fastest.speed).value;
+    if (end.power > motor && corners.every((c) => c.shaftPower === undefined || c.shaftPower <= motor)) {
+      warnings.push(`The ${quoted(motor, "power")} motor covers every case but not the end of the curve: ${quoted(end.power, "power")} at ${quoted(end.flow, "flow")}. A burst main or a tripped pump can take it there; size it for the end of the curve (NAPPE.PUMP.MAXPOWER) or limit the flow.`);
+    }
+  }
   const failing = corners.filter((c) => c.status === "fails");
   if (failing.length) warnings.push(`${failing.length} of ${corners.length} corners fail: ${failing.map((c) => `${c.label} (${c.reasons[0]})`).join("; ")}.`);
   const warning = corners.filter((c) => c.status === "warning");

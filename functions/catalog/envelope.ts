@@ -165,7 +165,7 @@ export const specs: FunctionSpec[] = [
     params: [
       curveParam,
       ...ENVELOPE_PARAMS,
-      { name: "motor", kind: "quantity", dim: "power", optional: true, description: "Motor rating: a corner whose shaft power exceeds it fails." },
+      { name: "motor", kind: "quantity", dim: "power", optional: true, description: "Motor rating: a corner whose shaft power exceeds it fails; a warning says when it covers every case but not the end of the curve." },
       bepFlow,
       minFlow,
       flowUnit,
