@@ -58,12 +58,12 @@ ${docParams}
  * @returns ${spec.result.description}
  */
 export function ${bindingName(spec.id)}(${params}): ${resultType} {
-  return run("${spec.id}", [${spec.params.map((p) => p.name).join(", ")}]) as ${resultType};
+  return ${spec.result.spill ? "runSpill" : "runScalar"}("${spec.id}", [${spec.params.map((p) => p.name).join(", ")}]);
 }`;
   });
   return `${HEADER}
 /* eslint-disable @typescript-eslint/no-explicit-any -- worksheet arguments may be numbers or text */
-import { runWorksheetFunction as run } from "./bind/worksheet";
+import { runScalar, runSpill } from "./bind/worksheet";
 
 ${blocks.join("\n\n")}
 `;

@@ -196,6 +196,7 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
     expect(op[1]).toBeCloseTo(102.3, 3);
     expect(await chart.getAttribute("data-series")).toBe("Pump curve (points)|Pump curve|Efficiency|BEP|Preferred region (70–120 % of BEP)|NPSHr|NPSHa (Calc!B36)|System curve|Operating point");
     // Something was drawn in both panels: head and efficiency, then NPSH on a scale of its own.
+    // (Playwright runs this pixel count in the page; it is our own function, never workbook text.)
     const ink = (canvas: Locator) =>
       canvas.evaluate((c: HTMLCanvasElement) => {
         const d = c.getContext("2d")!.getImageData(0, 0, c.width, c.height).data;

@@ -17,7 +17,7 @@ function worksheetError(kind: "num" | "value", message: string): CustomFunctions
 }
 
 /** Evaluates worksheet function `id` on Excel's raw arguments; throws a CustomFunctions.Error on failure. */
-export function runWorksheetFunction(id: string, rawArgs: RawArg[]): number | Cell[][] {
+function runWorksheetFunction(id: string, rawArgs: RawArg[]): number | Cell[][] {
   const spec = CATALOG_BY_ID.get(id);
   if (!spec) throw worksheetError("value", `NAPPE.${id} is not in this version of the add-in`);
   try {
@@ -26,4 +26,18 @@ export function runWorksheetFunction(id: string, rawArgs: RawArg[]): number | Ce
     if (e instanceof CalcError) throw worksheetError(e.kind, e.message);
     throw worksheetError("value", `NAPPE.${id} failed unexpectedly: ${e instanceof Error ? e.message : String(e)}`);
   }
+}
+
+/** A function with a single result: its number. */
+export function runScalar(id: string, rawArgs: RawArg[]): number {
+  const value = runWorksheetFunction(id, rawArgs);
+  if (typeof value !== "number") throw worksheetError("value", `NAPPE.${id} gave a table where one number was expected`);
+  return value;
+}
+
+/** A function whose result spills: its rows. */
+export function runSpill(id: string, rawArgs: RawArg[]): Cell[][] {
+  const value = runWorksheetFunction(id, rawArgs);
+  if (typeof value === "number") throw worksheetError("value", `NAPPE.${id} gave one number where a table was expected`);
+  return value;
 }

@@ -25,6 +25,33 @@ function localAddress(address: string): string {
 }
 
 /**
+ * The defined names in two round trips: this queues the workbook's names and the sheet list;
+ * after a sync, `sheetNames()` queues each sheet's own names and returns the reader to call
+ * after the next sync. Callers may queue more in either round trip.
+ */
+function queueNames(context: Excel.RequestContext): { sheets: Excel.WorksheetCollection; sheetNames(): () => DefinedName[] } {
+  const book = context.workbook.names;
+  book.load("items/name,items/formula");
+  const sheets = context.workbook.worksheets;
+  sheets.load("items/name");
+  const refersTo = (formula: unknown) => String(formula).replace(/^=/, "");
+  return {
+    sheets,
+    sheetNames() {
+      const scoped = sheets.items.map((ws) => {
+        const names = ws.names;
+        names.load("items/name,items/formula");
+        return { sheet: ws.name, names };
+      });
+      return () => [
+        ...book.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula) })),
+        ...scoped.flatMap(({ sheet, names }) => names.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula), sheet }))),
+      ];
+    },
+  };
+}
+
+/**
  * Cells read per round trip by workbookSnapshot. A cell's value, formula and number format come
  * to some tens of bytes in the response, so 40 000 cells stay well under Excel on the web's
  * documented 5 MB payload limit.
@@ -140,22 +167,16 @@ export class OfficeHost implements HostPort {
    */
   async workbookSnapshot(): Promise<WorkbookModel> {
     return Excel.run(async (context) => {
-      const sheets = context.workbook.worksheets;
-      sheets.load("items/name");
-      const book = context.workbook.names;
-      book.load("items/name,items/formula");
+      const names = queueNames(context);
       await context.sync();
-      const used = sheets.items.map((ws) => {
+      const readNames = names.sheetNames();
+      const used = names.sheets.items.map((ws) => {
         const range = ws.getUsedRangeOrNullObject(true);
         range.load("rowIndex,columnIndex,rowCount,columnCount");
-        const names = ws.names;
-        names.load("items/name,items/formula");
-        return { ws, range, names };
+        return { ws, range };
       });
       await context.sync();
-      const model: WorkbookModel = { sheets: [], names: [] };
-      const refersTo = (formula: unknown) => String(formula).replace(/^=/, "");
-      model.names!.push(...book.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula) })));
+      const model: WorkbookModel = { sheets: [], names: readNames() };
       const pending: { sheet: string; cells: Map<string, CellModel>; row0: number; col0: number; range: Excel.Range }[] = [];
       let queued = 0;
       const flush = async () => {
@@ -177,10 +198,9 @@ export class OfficeHost implements HostPort {
         }
         queued = 0;
       };
-      for (const { ws, range, names } of used) {
+      for (const { ws, range } of used) {
         const cells = new Map<string, CellModel>();
         model.sheets.push({ name: ws.name, cells });
-        model.names!.push(...names.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula), sheet: ws.name })));
         if (range.isNullObject) continue;
         const rowsPerChunk = Math.max(1, Math.floor(READ_CELLS / Math.max(1, range.columnCount)));
         for (let r0 = 0; r0 < range.rowCount; r0 += rowsPerChunk) {
@@ -199,22 +219,11 @@ export class OfficeHost implements HostPort {
 
   async definedNames(): Promise<DefinedName[]> {
     return Excel.run(async (context) => {
-      const book = context.workbook.names;
-      book.load("items/name,items/formula");
-      const sheets = context.workbook.worksheets;
-      sheets.load("items/name");
+      const names = queueNames(context);
       await context.sync();
-      const scoped = sheets.items.map((ws) => {
-        const names = ws.names;
-        names.load("items/name,items/formula");
-        return { sheet: ws.name, names };
-      });
+      const read = names.sheetNames();
       await context.sync();
-      const refersTo = (formula: unknown) => String(formula).replace(/^=/, "");
-      return [
-        ...book.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula) })),
-        ...scoped.flatMap(({ sheet, names }) => names.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula), sheet }))),
-      ];
+      return read();
     });
   }
 
