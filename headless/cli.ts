@@ -15,7 +15,7 @@ import { basename, extname, join, resolve } from "node:path";
 import { parseArgs as parseCommandLine } from "node:util";
 import ExcelJS from "exceljs";
 import { buildAudit, GENERAL_CAUTIONS } from "../workbook/audit";
-import { formatValue } from "../workbook/format";
+import { formatUnit, formatValue } from "../workbook/format";
 import { demoWorkbookBytes, DEMO_FILE } from "../demo/build";
 import { writeAtomically } from "./atomic";
 import { writeHandoff } from "./handoff";
@@ -151,7 +151,7 @@ function emptyNotice(file: string, result: RecalcResult): string {
 }
 
 async function writeAudit(wb: WorkbookModel, result: RecalcResult, source: string, htmlPath: string, xlsxPath: string, textPath: string, title: string) {
-  const report = buildAudit(result.cells, { title, source, found: summaryLine(result) }, labelSource(wb));
+  const report = buildAudit(result.cells, { title, source, found: summaryLine(result), workbook: wb }, labelSource(wb));
   await writeAtomically(htmlPath, renderHtml(report));
   await writeAtomically(textPath, renderText(report));
   const book = new ExcelJS.Workbook();
@@ -203,7 +203,7 @@ async function main(argv: string[]): Promise<number> {
         console.error(`${emptyNotice(opts.file, result)}\nNo copy written.`);
         return EXIT_EMPTY;
       }
-      const report = buildAudit(result.cells, { title: `Nappe audit of ${basename(opts.file)}`, source: basename(opts.file), found: summaryLine(result) }, labelSource(wb));
+      const report = buildAudit(result.cells, { title: `Nappe audit of ${basename(opts.file)}`, source: basename(opts.file), found: summaryLine(result), workbook: wb }, labelSource(wb));
       const frozen = await writeHandoff(opts.file, out, result, report, limitsOf(flags));
       console.log(`${summaryLine(result, false, report.counts)}\nHand-off copy written: ${out}\n  ${frozen.nappe} NAPPE formulas frozen to their values${frozen.other ? `, ${frozen.other} formulas of another add-in frozen to their cached values` : ""}; the original is untouched.`);
       return report.counts.error ? 1 : 0;
@@ -227,7 +227,7 @@ async function demo(out: string): Promise<number> {
     for (const label of rows) {
       const value = result.valueOf("Summary", `B${label.row}`);
       const unit = summary.cells.get(`${label.row}:3`)?.value ?? "";
-      console.log(`  ${String(label.value).padEnd(34)} ${formatValue(value).padStart(12)} ${String(unit)}`);
+      console.log(`  ${String(label.value).padEnd(34)} ${formatValue(value).padStart(12)} ${formatUnit(String(unit))}`);
     }
   }
   const flagged = result.cells.filter((c) => c.status !== "ok");

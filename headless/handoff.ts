@@ -10,7 +10,7 @@ import { readFile } from "node:fs/promises";
 import { basename } from "node:path";
 import ExcelJS from "exceljs";
 import { type AuditReport, GENERAL_CAUTIONS } from "../workbook/audit";
-import { formatValue } from "../workbook/format";
+import { formatQuantity, formatValue } from "../workbook/format";
 import { writeAtomically } from "./atomic";
 import { addressOf, type CellValue, parseAddress } from "../workbook/model";
 import { type Limits, openPackage } from "./package";
@@ -28,7 +28,7 @@ function frozenValue(v: CellValue): ExcelJS.CellValue {
 }
 
 function note(outcome: CellOutcome, when: string): string {
-  const result = `${formatValue(outcome.value)}${outcome.unit ? ` ${outcome.unit}` : ""}`;
+  const result = typeof outcome.value === "number" ? formatQuantity(outcome.value, outcome.unit) : formatValue(outcome.value);
   const lines = [`Formula (frozen by Nappe ${when}):`, outcome.formula, `Result: ${result}`];
   if (outcome.status !== "ok") lines.push(`Status: ${outcome.status}`, ...outcome.messages);
   return lines.join("\n");

@@ -3,7 +3,7 @@ import ExcelJS from "exceljs";
 import katex from "katex";
 import { type AuditReport, AUDIT_COLUMNS, AUDIT_WIDTHS, auditSheetRows, NOTHING_FOUND, wrappedLines } from "../workbook/audit";
 import { derivationText } from "../workbook/derivation";
-import { formatNumber, formatValue } from "../workbook/format";
+import { formatNumber, formatSpillText, formatUnit, formatValue } from "../workbook/format";
 import type { CellOutcome } from "../workbook/recalc";
 
 function clip(text: string, width: number): string {
@@ -18,7 +18,7 @@ export function renderTable(cells: readonly CellOutcome[]): string {
     c.address,
     c.formula,
     formatValue(c.value),
-    c.unit,
+    formatUnit(c.unit),
     c.cached === null ? "" : typeof c.cached === "number" ? formatNumber(c.cached) : String(c.cached),
     c.difference === null ? "" : c.difference === 0 ? "0" : c.difference.toExponential(1),
     c.status,
@@ -60,8 +60,37 @@ code{background:#eef5f6;padding:1px 4px;border-radius:3px;word-break:break-word}
 .call{margin-left:12px;border-left:3px solid #cfe0e4;padding-left:12px}
 ul{margin:2px 0 6px;padding-left:20px}
 math{font-size:1.1em}
-@media print{.call{break-inside:avoid}}
+.equation{overflow-x:auto}
+.summary th{background:#0e5463;color:#fff}
+h3.cell{font-size:16px;margin:24px 0 6px;border-top:1px solid #cfe0e4;padding-top:12px}
+.exact{color:#4a6670;font-size:12px}
+table.spill{width:auto}
+table.spill td,table.spill th{text-align:right}
+table.spill td:first-child,table.spill th:first-child{text-align:left}
+@page{margin:14mm 12mm}
+@media print{body{max-width:none;margin:0;font-size:12px}h2{break-after:avoid}.call,tr{break-inside:avoid}.caution{break-inside:avoid}a{color:inherit}}
 `;
+
+/** A spilled result as a small table with its header row and units. */
+function spillHtml(t: { header: string[]; rows: string[][] }): string {
+  return `<table class="spill"><tr>${t.header.map((h) => `<th>${escapeHtml(h)}</th>`).join("")}</tr>${t.rows.map((r) => `<tr>${r.map((c) => `<td>${escapeHtml(c)}</td>`).join("")}</tr>`).join("")}</table>`;
+}
+
+/** The key results and inputs that open the report. */
+function summaryHtml(report: AuditReport): string {
+  const s = report.summary;
+  if (!s) return "";
+  const results = s.results.length
+    ? `<h2>Key results</h2><p class="meta">${escapeHtml(s.basis)}</p><table class="summary"><tr><th>Cell</th><th>Label</th><th>Value</th><th>Exact</th></tr>${s.results.map((r) => `<tr><td><a href="#${escapeHtml(r.cell)}">${escapeHtml(r.cell)}</a></td><td>${escapeHtml(r.label)}</td><td><strong>${escapeHtml(r.value)}</strong></td><td class="exact">${escapeHtml(r.exact)}</td></tr>`).join("")}</table>`
+    : "";
+  const inputs = s.inputs.length
+    ? `<h2>Inputs</h2><p class="meta">The constant cells the NAPPE formulas read, and how each was read.</p><table class="summary"><tr><th>Cell</th><th>Label</th><th>Value</th><th>Read as</th></tr>${s.inputs.map((r) => `<tr><td>${escapeHtml(r.cell)}</td><td>${escapeHtml(r.label)}</td><td>${escapeHtml(r.value)}</td><td>${escapeHtml(r.readAs)}</td></tr>`).join("")}</table>`
+    : "";
+  return results + inputs;
+}
+
+/** Status words carry a mark too, so colour is never the only signal. */
+const STATUS_MARK = { ok: "✓", warning: "⚠", error: "✕" } as const;
 
 function list(title: string, items: readonly string[], cls = ""): string {
   if (!items.length) return "";
@@ -76,13 +105,14 @@ export function renderHtml(report: AuditReport): string {
         .map(
           (c) => `<div class="call">
 <h3>NAPPE.${escapeHtml(c.id)}: ${escapeHtml(c.purpose)}</h3>
-${equation(c.equation)}
+<div class="equation">${equation(c.equation)}</div>
 ${c.substituted ? `<p class="substituted"><code>${escapeHtml(c.substituted)}</code></p>` : ""}
 <table><tr><th>argument</th><th>as written</th><th>as read</th><th>how</th><th>in base units</th></tr>
 ${c.args.map((a) => `<tr><td>${escapeHtml(a.name)}</td><td><code>${escapeHtml(a.written || "(left out)")}</code></td><td>${escapeHtml(a.value)}${a.unit && !a.value.endsWith(a.unit) ? ` ${escapeHtml(a.unit)}` : ""}</td><td>${escapeHtml(a.why)}</td><td>${escapeHtml(a.base)}</td></tr>`).join("\n")}
 </table>
 ${c.steps.length ? `<table class="steps"><tr><th colspan="3">intermediate values</th></tr>${c.steps.map((s) => `<tr><td><strong>${escapeHtml(s.symbol)}</strong> = ${escapeHtml(s.value)}</td><td>${escapeHtml(s.name)}</td><td>${escapeHtml(s.how)}</td></tr>`).join("")}</table>` : ""}
 <p><strong>Result:</strong> ${escapeHtml(c.result ?? "(error)")}${c.resultBase && c.resultBase !== c.result ? ` (${escapeHtml(c.resultBase)} in base units)` : ""}</p>
+${c.table ? spillHtml(c.table) : ""}
 ${c.error ? `<p class="status error">${escapeHtml(c.error)}</p>` : ""}
 ${list("Warnings", [...c.warnings, ...c.unitFindings.map((f) => `Unit check: ${f.message}`)])}${list("Assumptions", c.assumptions)}${list("Cautions", c.cautions)}${list("Sources", c.sources)}
 </div>`,
@@ -90,8 +120,8 @@ ${list("Warnings", [...c.warnings, ...c.unitFindings.map((f) => `Unit check: ${f
         .join("\n");
       const loose = e.messages.filter((m) => !e.calls.some((c) => m.includes(c.id)));
       return `<section id="${escapeHtml(`${e.sheet}!${e.address}`)}">
-<h2>${escapeHtml(e.sheet)}!${escapeHtml(e.address)} <span class="status ${e.status}">${e.status}</span></h2>
-<p><code>${escapeHtml(e.formula)}</code> → <strong>${escapeHtml(e.result)}</strong></p>
+<h3 class="cell">${escapeHtml(e.sheet)}!${escapeHtml(e.address)} <span class="status ${e.status}">${STATUS_MARK[e.status]} ${e.status}</span></h3>
+<p><code>${escapeHtml(e.formula)}</code> → <strong>${escapeHtml(e.result)}</strong>${e.exact && e.exact !== e.result ? ` <span class="exact">(exact ${escapeHtml(e.exact)})</span>` : ""}</p>
 ${list("Notes", loose)}
 ${calls}
 </section>`;
@@ -104,11 +134,13 @@ ${calls}
 <title>${escapeHtml(report.title)}</title><style>${STYLE}</style></head>
 <body>
 <h1>${escapeHtml(report.title)}</h1>
-<p class="meta">Workbook: ${escapeHtml(report.source)} · generated ${escapeHtml(report.generated)} by Nappe</p>
-<div class="caution">${report.cautions.map((c) => `<p>${escapeHtml(c)}</p>`).join("")}</div>
+<p class="meta">Workbook: <strong>${escapeHtml(report.source)}</strong> · ${escapeHtml(report.generated)} · by Nappe</p>
 ${report.entries.length ? "" : `<p class="empty">${escapeHtml(NOTHING_FOUND)}</p>`}
 ${report.found ? `<p class="meta">${escapeHtml(report.found)}</p>` : ""}
-<p class="counts"><span>${report.entries.length} NAPPE formulas</span><span class="status ok">${report.counts.ok} ok</span><span class="status warning">${report.counts.warning} warning</span><span class="status error">${report.counts.error} error</span></p>
+<p class="counts"><span>${report.entries.length} NAPPE formulas</span><span class="status ok">✓ ${report.counts.ok} ok</span><span class="status warning">⚠ ${report.counts.warning} warning</span><span class="status error">✕ ${report.counts.error} error</span></p>
+${summaryHtml(report)}
+<div class="caution">${report.cautions.map((c) => `<p>${escapeHtml(c)}</p>`).join("")}</div>
+<h2>Every NAPPE formula, with its derivation</h2>
 ${entries}
 </body></html>
 `;
@@ -116,8 +148,12 @@ ${entries}
 
 /** The audit as plain text: what was found, the cautions, then every cell with its derivations. */
 export function renderText(report: AuditReport): string {
-  const out = [report.title, `Workbook: ${report.source} · generated ${report.generated}`, report.found ?? `${report.entries.length} NAPPE formulas`, "", ...report.cautions, ""];
-  if (!report.entries.length) out.push(NOTHING_FOUND);
+  const out = [report.title, `Workbook: ${report.source} · ${report.generated}`, report.found ?? `${report.entries.length} NAPPE formulas`, ""];
+  if (!report.entries.length) out.push(NOTHING_FOUND, "");
+  const s = report.summary;
+  if (s?.results.length) out.push("Key results", `(${s.basis})`, formatSpillText({ header: ["Cell", "Label", "Value"], rows: s.results.map((r) => [r.cell, r.label, r.value]) }, "  "), "");
+  if (s?.inputs.length) out.push("Inputs", formatSpillText({ header: ["Cell", "Label", "Value", "Read as"], rows: s.inputs.map((r) => [r.cell, r.label, r.value, r.readAs]) }, "  "), "");
+  out.push(...report.cautions, "");
   for (const e of report.entries) {
     out.push(`${"-".repeat(72)}`, `${e.sheet}!${e.address}  [${e.status}]  ${e.formula} → ${e.result}`);
     for (const m of e.messages.filter((m) => !e.calls.some((c) => m.includes(c.id)))) out.push(`Note: ${m}`);
@@ -132,23 +168,33 @@ export function addAuditSheet(book: ExcelJS.Workbook, report: AuditReport, name 
   if (old) book.removeWorksheet(old.id);
   const ws = book.addWorksheet(name, {
     pageSetup: { orientation: "landscape", fitToPage: true, fitToWidth: 1, fitToHeight: 0, paperSize: 9, margins: { left: 0.4, right: 0.4, top: 0.5, bottom: 0.5, header: 0.3, footer: 0.3 } },
-    views: [{ state: "frozen", ySplit: 5 }],
     headerFooter: { oddFooter: "&L&A&RPage &P of &N" },
   });
   const total = AUDIT_WIDTHS.reduce((a, b) => a + b, 0);
-  const { rows, headerRow } = auditSheetRows(report);
+  const { rows, headerRow, preamble, blockHeaders } = auditSheetRows(report);
   const fonts: Partial<ExcelJS.Font>[] = [{ bold: true, size: 14 }, {}, { italic: true, color: { argb: "FF7A4B00" } }, { bold: true, color: { argb: "FF8A1C1C" } }];
-  rows.slice(0, headerRow).forEach(([text], i) => {
+  const headerStyle = (row: ExcelJS.Row) => {
+    row.font = { bold: true, color: { argb: "FFFFFFFF" } };
+    row.alignment = { wrapText: true, vertical: "top" };
+    row.eachCell((c) => (c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FF0E5463" } }));
+  };
+  rows.slice(0, preamble).forEach(([text], i) => {
     const row = ws.addRow([text]);
     row.font = fonts[i] ?? {};
     ws.mergeCells(row.number, 1, row.number, AUDIT_COLUMNS.length);
     row.getCell(1).alignment = { wrapText: true, vertical: "top" };
     row.height = 15 * wrappedLines(text, total);
   });
-  const header = ws.addRow(rows[headerRow]);
-  header.font = { bold: true, color: { argb: "FFFFFFFF" } };
-  header.alignment = { wrapText: true, vertical: "top" };
-  header.eachCell((c) => (c.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FF0E5463" } }));
+  // The summary: key results and inputs, each a heading, a header row and rows.
+  rows.slice(preamble, headerRow).forEach((cells, k) => {
+    const i = preamble + k;
+    const row = ws.addRow(cells);
+    row.alignment = { wrapText: true, vertical: "top" };
+    if (blockHeaders.includes(i)) headerStyle(row);
+    else if (blockHeaders.includes(i + 1) || i === headerRow - 1) row.font = { bold: true, size: 12 };
+    else row.height = Math.min(409, 15 * Math.max(1, ...cells.map((text, j) => wrappedLines(text, AUDIT_WIDTHS[j]))));
+  });
+  headerStyle(ws.addRow(rows[headerRow]));
   for (const row of rows.slice(headerRow + 1)) {
     const r = ws.addRow(row);
     r.alignment = { vertical: "top", wrapText: true };
@@ -161,7 +207,9 @@ export function addAuditSheet(book: ExcelJS.Workbook, report: AuditReport, name 
     }
   }
   AUDIT_WIDTHS.forEach((w, i) => (ws.getColumn(i + 1).width = w));
-  ws.pageSetup.printTitlesRow = "5:5";
+  // The table's header row repeats on every printed page; it is frozen on screen only when the summary above it is short.
+  ws.pageSetup.printTitlesRow = `${headerRow + 1}:${headerRow + 1}`;
+  if (headerRow < 10) ws.views = [{ state: "frozen", ySplit: headerRow + 1 }];
   ws.pageSetup.printArea = `A1:${String.fromCharCode(64 + AUDIT_COLUMNS.length)}${ws.rowCount}`;
   return ws;
 }

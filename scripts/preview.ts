@@ -25,7 +25,7 @@ async function main(): Promise<void> {
   const port = portFlag >= 0 ? Number(args[portFlag + 1]) : 3100;
   const file = args.find((a, i) => !a.startsWith("--") && (portFlag < 0 || i !== portFlag + 1)) ?? join(root, "demo", "orchard-pumping-station.xlsx");
   const wb = await readWorkbook(file);
-  const json = JSON.stringify({ name: basename(file), sheets: wb.sheets.map((s) => ({ name: s.name, cells: [...s.cells.values()] })) });
+  const json = JSON.stringify({ name: basename(file), names: wb.names ?? [], sheets: wb.sheets.map((s) => ({ name: s.name, cells: [...s.cells.values()] })) });
   const server = createServer(async (req, res) => {
     const url = new URL(req.url ?? "/", "http://localhost");
     if (url.pathname === "/workbook.json") {

@@ -9,7 +9,7 @@
 import { CATALOG_BY_ID } from "../functions/catalog";
 import { DIMENSIONS } from "../functions/units/dimensions";
 import { callView, type CallView, pairCalls } from "../workbook/callView";
-import { formatValue } from "../workbook/format";
+import { formatQuantity, formatValue } from "../workbook/format";
 import { callSites, directPrecedents, evaluationOrder, type PrecedentRef, replaceArgument, type CallSite } from "../workbook/formula";
 import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../workbook/model";
 import { splitReference } from "../workbook/address";
@@ -278,5 +278,8 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
   } catch {
     chart = undefined;
   }
-  return { labels, outcome, explanation: { ...base, formula: displayFormula(formula), value: formatValue(computed.value as CellValue), error, calls, chart } };
+  // The value line carries the unit of a single NAPPE call; a spilled result is labelled in its call's card.
+  const v = computed.value as CellValue | CellValue[][];
+  const value = Array.isArray(v) ? `spills ${v.length} ${v.length === 1 ? "row" : "rows"} (the table is in the call below)` : typeof v === "number" && outcome.unit ? formatQuantity(v, outcome.unit) : formatValue(v);
+  return { labels, outcome, explanation: { ...base, formula: displayFormula(formula), value, error, calls, chart } };
 }

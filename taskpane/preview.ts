@@ -3,7 +3,7 @@
  * over the in-memory adapter, so anyone can try the pane without Excel. Clicking a cell selects
  * it. Loads nothing but this page's own files and /workbook.json.
  */
-import { addressOf, type CellModel, cellKey, parseAddress, type WorkbookModel } from "../workbook/model";
+import { addressOf, type CellModel, cellKey, type DefinedName, parseAddress, type WorkbookModel } from "../workbook/model";
 import { formatValue } from "../workbook/format";
 import { MemoryHost } from "./host/memory";
 import { el, mountPane } from "./ui";
@@ -12,11 +12,12 @@ import { displayFormula, hasNappeCall } from "../workbook/storedForm";
 
 interface WorkbookJson {
   name: string;
+  names?: DefinedName[];
   sheets: { name: string; cells: CellModel[] }[];
 }
 
 function toModel(json: WorkbookJson): WorkbookModel {
-  return { sheets: json.sheets.map((s) => ({ name: s.name, cells: new Map(s.cells.map((c) => [cellKey(c.row, c.col), c])) })) };
+  return { name: json.name, names: json.names, sheets: json.sheets.map((s) => ({ name: s.name, cells: new Map(s.cells.map((c) => [cellKey(c.row, c.col), c])) })) };
 }
 
 function drawGrid(host: MemoryHost, target: HTMLElement, tabs: HTMLElement, formulaBar: HTMLElement, state: { sheet: string }): void {

@@ -13,7 +13,8 @@ import type { HostPort } from "./host/port";
 import { writeAction } from "./actions";
 import { GENERAL_CAUTIONS } from "../functions/catalog/_shared";
 import { crossCheckCell } from "./crossCheck";
-import { formatNumber } from "../workbook/format";
+import { formatNumber, formatQuantity, setSignificantFigures, significantFigures } from "../workbook/format";
+import { UndoStack } from "./undo";
 import { addressOf, parseAddress } from "../workbook/address";
 import { derivationText } from "../workbook/derivation";
 import { labelCell, sameInputFixes } from "./sameInput";
@@ -32,12 +33,35 @@ export function el<K extends keyof HTMLElementTagNameMap>(tag: K, className?: st
 
 function equation(tex: string): HTMLElement {
   const box = el("div", "equation");
+  // A long equation scrolls inside its box, never the pane; the box takes focus so the keyboard can scroll it.
+  box.tabIndex = 0;
+  box.setAttribute("role", "group");
+  box.setAttribute("aria-label", "Equation (scrolls sideways when wider than the pane)");
   try {
     katex.render(tex, box, { output: "mathml", displayMode: true, throwOnError: false });
   } catch {
     box.textContent = tex;
   }
   return box;
+}
+
+/** A table cell that, in the stacked layout of a narrow pane, shows its column's name before it. */
+function labelled(td: HTMLTableCellElement, column: string): HTMLTableCellElement {
+  td.dataset.label = column;
+  return td;
+}
+
+/** A spilled result as a small table: its header row with units, then its rows. */
+function spillTableView(t: { header: string[]; rows: string[][] }): HTMLElement {
+  const table = el("table", "spill");
+  table.append(el("caption", "", "Spilled result"));
+  table.append(el("tr", "", ...t.header.map((h) => el("th", "", h))));
+  for (const r of t.rows) table.append(el("tr", "", ...r.map((c) => el("td", "", c))));
+  const wrap = el("div", "table-wrap", table);
+  wrap.tabIndex = 0;
+  wrap.setAttribute("role", "group");
+  wrap.setAttribute("aria-label", "Spilled result (scrolls sideways when wider than the pane)");
+  return wrap;
 }
 
 function list(title: string, items: readonly string[], className = ""): HTMLElement | string {
@@ -62,42 +86,79 @@ export interface PaneContext {
   say(text: string): void;
   /** Shows (or, with null, clears) a box above the cell view that stays until the selection changes. */
   notice(content: HTMLElement | null): void;
+  /** The pane's writes, remembered so that "Undo" can put the cells back. */
+  undo: UndoStack;
+}
+
+/** Status words with a mark, so colour is never the only signal. */
+export const MARK = { ok: "✓", warning: "⚠", error: "✕" } as const;
+
+/**
+ * Asks inside the pane (browser dialogs are not available in Office panes): a small box after
+ * `anchor` says what will happen, with a button to go ahead and one to cancel. Resolves true to go ahead.
+ */
+export function askInPane(anchor: HTMLElement, message: string, goAhead: string): Promise<boolean> {
+  anchor.parentElement?.querySelector(":scope > .ask")?.remove();
+  return new Promise((resolve) => {
+    const text = el("p", "", message);
+    text.id = `ask-${Math.random().toString(36).slice(2)}`;
+    const yes = el("button", "action danger", goAhead);
+    const no = el("button", "action", "Cancel");
+    const box = el("div", "status warning ask", text, yes, " ", no);
+    box.setAttribute("role", "alertdialog");
+    box.setAttribute("aria-describedby", text.id);
+    box.setAttribute("aria-label", "Confirm");
+    const done = (answer: boolean) => {
+      box.remove();
+      anchor.focus();
+      resolve(answer);
+    };
+    yes.addEventListener("click", () => done(true));
+    no.addEventListener("click", () => done(false));
+    box.addEventListener("keydown", (e) => {
+      if (e.key === "Escape") done(false);
+    });
+    anchor.after(box);
+    no.focus();
+  });
 }
 
 function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext, refresh: () => void): HTMLElement {
   const card = el("section", "call");
   card.append(el("h3", "", `NAPPE.${call.id}`), el("p", "purpose", call.purpose), el("code", "formula", call.text), equation(call.equation));
   if (call.substituted) card.append(el("p", "substituted", call.substituted));
-  const table = el("table", "args");
+  const table = el("table", "args stackable");
   table.append(el("tr", "", el("th", "", "argument, as written"), el("th", "", "read as: unit and why"), el("th", "", "base value")));
   for (const a of call.args) {
     table.append(
       el(
         "tr",
         "",
-        el("td", "", el("span", "name", a.name), el("br"), el("code", "written", a.written || "(left out)")),
-        el("td", "", el("span", "read", a.value), el("br"), el("span", "why", a.unit ? `${a.unit} · ${a.why}` : a.why)),
-        el("td", "base", a.base),
+        labelled(el("td", "", el("span", "name", a.name), el("br"), el("code", "written", a.written || "(left out)")), "argument"),
+        labelled(el("td", "", el("span", "read", a.value), el("br"), el("span", "why", a.unit ? `${a.unit} · ${a.why}` : a.why)), "read as"),
+        labelled(el("td", "base", a.base), "base value"),
       ),
     );
   }
   card.append(el("div", "table-wrap", table));
   if (call.steps.length) {
-    const steps = el("table", "steps");
+    const steps = el("table", "steps stackable");
     steps.append(el("tr", "", el("th", "", "intermediate value"), el("th", "", "what and how")));
-    for (const s of call.steps) steps.append(el("tr", "", el("td", "", el("strong", "", s.symbol), ` = ${s.value}`), el("td", "", el("span", "", s.name), el("br"), el("span", "why", s.how))));
+    for (const s of call.steps) steps.append(el("tr", "", labelled(el("td", "", el("strong", "", s.symbol), ` = ${s.value}`), "value"), labelled(el("td", "", el("span", "", s.name), el("br"), el("span", "why", s.how)), "what and how")));
     card.append(el("div", "table-wrap", steps));
   }
-  if (call.error) card.append(el("p", "status error", call.error));
+  if (call.error) card.append(el("p", "status error", `${MARK.error} ${call.error}`));
   else card.append(el("p", "result", "Result: ", el("strong", "", call.result ?? ""), call.resultBase && call.resultBase !== call.result ? ` (${call.resultBase} in base units)` : ""));
+  if (!call.error && call.table) card.append(spillTableView(call.table));
   for (const w of call.unitWarnings) {
-    const box = el("div", "status warning unit-warning", el("p", "", `Unit check: ${w.message}`));
+    const box = el("div", "status warning unit-warning", el("p", "", `${MARK.warning} Unit check: ${w.message}`));
     if (w.fixedFormula) {
       const button = el("button", "fix", `Use ${w.fixLabel}`);
+      const where = `${cell.sheet}!${cell.address}`;
       button.addEventListener("click", () =>
-        writeAction(ctx, `join the unit in ${cell.sheet}!${cell.address}`, async () => {
-          await ctx.port.setFormula(cell.sheet, cell.address, w.fixedFormula!);
-          ctx.say(`Joined the unit in ${cell.sheet}!${cell.address}.`);
+        writeAction(ctx, `join the unit in ${where}`, async () => {
+          await ctx.undo.write(`join the unit in ${where}`, [cell], () => ctx.port.setFormula(cell.sheet, cell.address, w.fixedFormula!));
+          ctx.say(`Joined the unit in ${where}. Undo puts the formula back.`);
           if (w.input) ctx.notice(await sameInputNotice(ctx, w.input, cell, refresh, w.label));
           refresh();
         }),
@@ -113,7 +174,7 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
     card.append(box);
   }
   card.append(list("Warnings", call.warnings, "warnings"));
-  card.append(el("div", `checks ${call.warnings.length || call.unitWarnings.length ? "warn" : "ok"}`, el("h4", "", call.warnings.length || call.unitWarnings.length ? "Checks: see the warnings" : "Checks: all passed"), ...call.checks.map((c) => el("p", "check", c))));
+  card.append(el("div", `checks ${call.warnings.length || call.unitWarnings.length ? "warn" : "ok"}`, el("h4", "", call.warnings.length || call.unitWarnings.length ? `${MARK.warning} Checks: see the warnings` : `${MARK.ok} Checks: all passed`), ...call.checks.map((c) => el("p", "check", c))));
   card.append(list("Assumptions", call.assumptions));
   card.append(list("Cautions", call.cautions, "cautions"));
   card.append(collapsible("Sources", call.sources));
@@ -135,7 +196,9 @@ async function sameInputNotice(ctx: PaneContext, input: { sheet: string; address
     const all = el("button", "fix-all", `Fix all ${fixes.length}`);
     all.addEventListener("click", () =>
       writeAction(ctx, "fix them all", async () => {
-        for (const f of fixes) await ctx.port.setFormula(f.sheet, f.address, f.fixed);
+        await ctx.undo.write(`join " ${input.unit}" in ${fixes.length} formulas`, fixes, async () => {
+          for (const f of fixes) await ctx.port.setFormula(f.sheet, f.address, f.fixed);
+        });
         ctx.say(`Joined " ${input.unit}" to ${where} in ${fixes.length} more ${fixes.length === 1 ? "formula" : "formulas"}.`);
         ctx.notice(null);
         refresh();
@@ -149,7 +212,7 @@ async function sameInputNotice(ctx: PaneContext, input: { sheet: string; address
     const instead = el("button", "relabel", "Correct the label instead");
     instead.addEventListener("click", () =>
       writeAction(ctx, `correct the label of ${where}`, async () => {
-        await ctx.port.setFormula(cell.sheet, cell.address, before);
+        await ctx.undo.write(`put back =${before} in ${cell.sheet}!${cell.address}`, [cell], () => ctx.port.setFormula(cell.sheet, cell.address, before));
         ctx.notice(null);
         await correctLabel(ctx, label, refresh, ` and put back =${before} in ${cell.sheet}!${cell.address}`);
       }),
@@ -163,7 +226,7 @@ async function sameInputNotice(ctx: PaneContext, input: { sheet: string; address
 async function correctLabel(ctx: PaneContext, label: NonNullable<CallExplanation["unitWarnings"][number]["label"]>, refresh: () => void, also = ""): Promise<void> {
   const at = await labelCell(ctx.port, label, label.text);
   if (!at) throw new Error(`the label "${label.text}" is no longer next to ${label.sheet}!${label.address}`);
-  await ctx.port.setValue(at.sheet, at.address, label.corrected);
+  await ctx.undo.write(`relabel ${at.sheet}!${at.address}`, [at], () => ctx.port.setValue(at.sheet, at.address, label.corrected));
   ctx.say(`Relabelled ${at.sheet}!${at.address} "${label.corrected}"${also}.`);
   refresh();
 }
@@ -188,7 +251,7 @@ function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
       const percent = Number(tolerance.value);
       if (!(percent > 0 && percent < 100)) throw new Error("the tolerance must be a percentage above 0 and below 100");
       const r = await crossCheckCell(ctx.port, cell.sheet, cell.address, specId, { tolerance: percent / 100 });
-      const verdict = el("p", `status ${r.verdict === "agrees" ? "ok" : "warning"}`, `${r.verdict === "agrees" ? "✓ Agrees" : "⚠ Differs"}: hand ${formatNumber(r.handValue)}, Nappe ${formatNumber(r.nappeValue)} ${r.unit}, difference ${(r.relativeDifference * 100).toPrecision(3)} % (tolerance ${(r.tolerance * 100).toPrecision(2)} %)`);
+      const verdict = el("p", `status ${r.verdict === "agrees" ? "ok" : "warning"}`, `${r.verdict === "agrees" ? "✓ Agrees" : "⚠ Differs"}: hand ${formatNumber(r.handValue)}, Nappe ${formatQuantity(r.nappeValue, r.unit)}, difference ${formatNumber(r.relativeDifference * 100, 3)} % (tolerance ${formatNumber(r.tolerance * 100, 2)} %)`);
       const mapping = el("table", "args");
       mapping.append(el("tr", "", el("th", "", "argument"), el("th", "", "read from")));
       for (const [name, from] of Object.entries(r.mapping)) mapping.append(el("tr", "", el("td", "name", name), el("td", "", from)));
@@ -202,7 +265,7 @@ function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
             ctx.say(`${cell.sheet}!${target} is not empty: copy the check instead: =${r.keepFormula}`);
             return;
           }
-          await ctx.port.setFormula(cell.sheet, target, r.keepFormula);
+          await ctx.undo.write(`keep the check in ${cell.sheet}!${target}`, [{ sheet: cell.sheet, address: target }], () => ctx.port.setFormula(cell.sheet, target, r.keepFormula));
           ctx.say(`Kept the check in ${cell.sheet}!${target}.`);
         }),
       );
@@ -215,10 +278,10 @@ function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
         keep,
       );
     } catch (e) {
-      result.replaceChildren(el("p", "status error", `Could not cross-check as NAPPE.${specId}: ${e instanceof Error ? e.message : String(e)}`));
+      result.replaceChildren(el("p", "status error", `${MARK.error} Could not cross-check as NAPPE.${specId}: ${e instanceof Error ? e.message : String(e)}`));
     }
   };
-  const picker = functionPicker(numeric, { placeholder: "Quantity: head loss, shaft power, npsh…", label: "Quantity the formula computes", listLabel: "Quantities", most: 8 }, (spec) => void show(spec.id));
+  const picker = functionPicker(numeric, { placeholder: "Quantity: head loss, shaft power, npsh…", label: "Quantity the formula computes", listLabel: "Quantities", most: 6 }, (spec) => void show(spec.id));
   box.append(toleranceRow, picker, result);
   return box;
 }
@@ -230,7 +293,7 @@ function renderCell(target: HTMLElement, cell: CellExplanation, ctx: PaneContext
   if (cell.value !== "") target.append(el("p", "value", "Value: ", el("strong", "", cell.value)));
   if (cell.message) target.append(el("p", "message", cell.message));
   if (cell.formula && !cell.calls.length && !cell.error) target.append(crossCheckView(cell, ctx));
-  if (cell.error) target.append(el("p", "status error", cell.error));
+  if (cell.error) target.append(el("p", "status error", `${MARK.error} ${cell.error}`));
   if (cell.chart) target.append(drawChart(cell.chart));
   for (const call of cell.calls) target.append(callCard(call, cell, ctx, refresh));
   if (cell.calls.length && cell.formula) target.append(copyAsText(cell, ctx));
@@ -261,24 +324,34 @@ function copyAsText(cell: CellExplanation, ctx: PaneContext): HTMLElement {
 
 function guideDetail(spec: FunctionSpec, target: HTMLElement, ctx: PaneContext): void {
   target.replaceChildren();
-  target.append(el("h3", "", signature(spec)), el("p", "purpose", spec.purpose), equation(spec.equation));
-  const table = el("table", "args");
-  table.append(el("tr", "", el("th", "", "argument"), el("th", "", "reads"), el("th", "", "meaning")));
-  for (const a of describeArguments(spec)) table.append(el("tr", "", el("td", "name", a.name), el("td", "", a.reads), el("td", "", a.meaning)));
-  target.append(el("div", "table-wrap", table), el("p", "", "Result: ", spec.result.description));
+  const title = el("h3", "", signature(spec));
+  title.tabIndex = -1;
+  target.append(title, el("p", "purpose", spec.purpose), equation(spec.equation));
+  // Arguments as a list, not a table: long names ("kinematic_viscosity") never break mid-word at pane width.
+  const args = el("dl", "guide-args");
+  for (const a of describeArguments(spec)) args.append(el("dt", "", el("code", "", a.name), el("span", "why", ` · ${a.reads}`)), el("dd", "", a.meaning));
+  target.append(args, el("p", "", "Result: ", spec.result.description));
   const example = exampleFormula(spec);
   if (example) {
     const button = el("button", "insert", "Insert into the selected cell");
     button.addEventListener("click", () =>
       writeAction(ctx, "insert the example", async () => {
         const sel = await ctx.port.selection();
-        await ctx.port.setFormula(sel.sheet, sel.address, example.replace(/^=/, ""));
-        ctx.say(`Inserted ${example} into ${sel.sheet}!${sel.address}.`);
+        const where = `${sel.sheet}!${sel.address}`;
+        const now = await ctx.port.cell(sel.sheet, sel.address);
+        const held = now.formula ? `the formula =${now.formula}` : now.value !== null && now.value !== "" ? `the value ${typeof now.value === "number" ? formatNumber(now.value) : `"${String(now.value)}"`}` : "";
+        if (held && !(await askInPane(button, `${where} holds ${held}. Replace it with ${example}? Undo can put it back.`, `Replace ${where}`))) {
+          ctx.say(`Left ${where} as it was.`);
+          return;
+        }
+        await ctx.undo.write(`insert NAPPE.${spec.id} into ${where}`, [sel], () => ctx.port.setFormula(sel.sheet, sel.address, example.replace(/^=/, "")));
+        ctx.say(`Inserted ${example} into ${where}.`);
       }),
     );
     target.append(el("h4", "", "Example"), el("code", "formula", example), button);
   }
   target.append(list("Assumptions", spec.assumptions), list("Cautions", spec.cautions, "cautions"), collapsible("Sources", spec.sources));
+  title.focus();
 }
 
 /** A search box over the functions with the matching ones listed as buttons (the guide, the cross-check). */
@@ -289,17 +362,34 @@ function functionPicker(specs: readonly FunctionSpec[], text: { placeholder: str
   input.setAttribute("aria-label", text.label);
   const results = el("ul", "results");
   results.setAttribute("aria-label", text.listLabel);
+  const count = el("p", "result-count");
+  count.setAttribute("aria-live", "polite");
+  // No inner scroll: the first matches show in the page's own flow, and "Show all" lists the rest.
+  const first = text.most ?? 8;
+  let all = false;
+  const more = el("button", "action more", "");
+  more.addEventListener("click", () => {
+    all = !all;
+    render();
+  });
   const render = () => {
+    const found = searchCatalog(specs, input.value);
     results.replaceChildren();
-    for (const spec of searchCatalog(specs, input.value).slice(0, text.most ?? Infinity)) {
+    for (const spec of all ? found : found.slice(0, first)) {
       const button = el("button", "fn", `NAPPE.${spec.id}`);
       button.addEventListener("click", () => pick(spec));
       results.append(el("li", "", button, el("span", "purpose", spec.purpose)));
     }
+    count.textContent = found.length ? `${found.length} ${found.length === 1 ? "match" : "matches"}` : "No function matches: try another word, such as head, flow or npsh.";
+    more.hidden = found.length <= first;
+    more.textContent = all ? "Show fewer" : `Show all ${found.length}`;
   };
-  input.addEventListener("input", render);
+  input.addEventListener("input", () => {
+    all = false;
+    render();
+  });
   render();
-  return el("div", "picker", input, results);
+  return el("div", "picker", input, count, results, more);
 }
 
 function guideView(ctx: PaneContext): HTMLElement {
@@ -308,39 +398,106 @@ function guideView(ctx: PaneContext): HTMLElement {
   return el("div", "guide", picker, detail);
 }
 
+/** The significant-figures setting, kept between sessions where the pane may store it. */
+function figuresSetting(onChange: () => void): HTMLElement {
+  const select = el("select", "figures");
+  for (const n of [3, 4, 5, 6, 8]) {
+    const o = el("option", "", `${n} figures`);
+    o.value = String(n);
+    select.append(o);
+  }
+  try {
+    const kept = Number(localStorage.getItem("nappe.figures"));
+    if (kept) setSignificantFigures(kept);
+  } catch {
+    // No storage (private mode, a locked-down pane): the default stays.
+  }
+  select.value = String(significantFigures());
+  select.setAttribute("aria-label", "Significant figures shown");
+  select.addEventListener("change", () => {
+    setSignificantFigures(Number(select.value));
+    try {
+      localStorage.setItem("nappe.figures", select.value);
+    } catch {
+      // As above.
+    }
+    onChange();
+  });
+  return select;
+}
+
+/** A WAI-ARIA tablist: one tab in the Tab order, arrow keys, Home and End move between tabs. */
+function tablist(names: readonly string[], panels: readonly HTMLElement[]): { bar: HTMLElement; show(i: number): void } {
+  const bar = el("div", "tabs");
+  bar.setAttribute("role", "tablist");
+  bar.setAttribute("aria-label", "Nappe views");
+  const buttons = names.map((name, i) => {
+    const b = el("button", "tab", name);
+    b.id = `tab-${i}`;
+    b.setAttribute("role", "tab");
+    b.setAttribute("aria-controls", `panel-${i}`);
+    panels[i].id = `panel-${i}`;
+    panels[i].setAttribute("role", "tabpanel");
+    panels[i].setAttribute("aria-labelledby", b.id);
+    panels[i].tabIndex = 0;
+    b.addEventListener("click", () => show(i));
+    b.addEventListener("keydown", (e) => {
+      const to = { ArrowRight: i + 1, ArrowLeft: i - 1, Home: 0, End: names.length - 1 }[e.key];
+      if (to === undefined) return;
+      e.preventDefault();
+      const j = (to + names.length) % names.length;
+      show(j);
+      buttons[j].focus();
+    });
+    return b;
+  });
+  const show = (i: number) => {
+    panels.forEach((p, j) => (p.hidden = j !== i));
+    buttons.forEach((b, j) => {
+      b.setAttribute("aria-selected", String(j === i));
+      b.tabIndex = j === i ? 0 : -1;
+    });
+  };
+  bar.append(...buttons);
+  return { bar, show };
+}
+
 /** Builds the pane inside `root` and keeps it in step with the selection. */
 export function mountPane(root: HTMLElement, port: HostPort, extraTabs: { name: string; build: (ctx: PaneContext) => HTMLElement }[] = []): PaneContext {
   const status = el("p", "status-line");
   status.setAttribute("role", "status");
   const noticeArea = el("div", "notice-area");
-  const ctx: PaneContext = { port, say: (t) => (status.textContent = t), notice: (content) => noticeArea.replaceChildren(...(content ? [content] : [])) };
-  const cellView = el("div", "cell-view");
-  const tabs = [{ name: "This cell", build: () => el("div", "", noticeArea, cellView) }, { name: "Function guide", build: () => guideView(ctx) }, ...extraTabs.map((t) => ({ name: t.name, build: () => t.build(ctx) }))];
-  const bar = el("nav", "tabs");
-  bar.setAttribute("role", "tablist");
-  const body = el("main", "pane-body");
-  const panels = tabs.map((t) => {
-    const panel = el("div", "panel");
-    panel.setAttribute("role", "tabpanel");
-    panel.append(t.build());
-    return panel;
-  });
-  const buttons = tabs.map((t, i) => {
-    const b = el("button", "tab", t.name);
-    b.setAttribute("role", "tab");
-    b.addEventListener("click", () => show(i));
-    return b;
-  });
-  const show = (i: number) => {
-    panels.forEach((p, j) => (p.hidden = j !== i));
-    buttons.forEach((b, j) => b.setAttribute("aria-selected", String(j === i)));
+  const undo = new UndoStack(port);
+  const ctx: PaneContext = { port, say: (t) => (status.textContent = t), notice: (content) => noticeArea.replaceChildren(...(content ? [content] : [])), undo };
+  const undoButton = el("button", "undo", "Undo");
+  const showUndo = () => {
+    undoButton.disabled = !undo.last;
+    undoButton.title = undo.last ? `Undo: ${undo.last}` : "Nothing to undo";
+    undoButton.setAttribute("aria-label", undo.last ? `Undo: ${undo.last}` : "Undo (nothing to undo)");
   };
-  bar.append(...buttons);
+  undo.onChange(showUndo);
+  showUndo();
+  undoButton.addEventListener("click", () =>
+    writeAction(ctx, "undo", async () => {
+      const what = await undo.undo();
+      if (what) ctx.say(`Undone: ${what}.`);
+      void refresh();
+    }),
+  );
+  const cellView = el("div", "cell-view");
+  const tabs = [{ name: "This cell", build: () => el("div", "", noticeArea, cellView) }, { name: "Guide", build: () => guideView(ctx) }, ...extraTabs.map((t) => ({ name: t.name, build: () => t.build(ctx) }))];
+  const body = el("main", "pane-body");
+  const panels = tabs.map((t) => el("div", "panel", t.build()));
+  const { bar, show } = tablist(
+    tabs.map((t) => t.name),
+    panels,
+  );
   body.append(...panels);
   show(0);
-  const caution = el("footer", "caution", CAUTION_TEXT);
+  const caution = el("footer", "caution", `⚠ ${CAUTION_TEXT}`);
   caution.setAttribute("role", "note");
-  root.replaceChildren(el("header", "pane-header", el("h1", "", "Nappe"), status), bar, body, caution);
+  const tools = el("div", "tools", undoButton, figuresSetting(() => void refresh()));
+  root.replaceChildren(el("header", "pane-header", el("div", "title-row", el("h1", "", "Nappe"), tools), status), bar, body, caution);
 
   let generation = 0;
   const refresh = async () => {
@@ -350,7 +507,7 @@ export function mountPane(root: HTMLElement, port: HostPort, extraTabs: { name: 
       const explanation = await explainCell(port, sel.sheet, sel.address);
       if (mine === generation) renderCell(cellView, explanation, ctx, () => void refresh());
     } catch (e) {
-      if (mine === generation) cellView.replaceChildren(el("p", "status error", `Could not read the cell: ${e instanceof Error ? e.message : String(e)}`));
+      if (mine === generation) cellView.replaceChildren(el("p", "status error", `${MARK.error} Could not read the cell: ${e instanceof Error ? e.message : String(e)}`));
     }
   };
   port.onSelectionChanged(() => {

@@ -6,6 +6,7 @@
 import { type AuditReport, AUDIT_WIDTHS, auditSheetRows, buildAudit } from "../workbook/audit";
 import type { CellOutcome, Status } from "../workbook/recalc";
 import type { LabelSource } from "../workbook/unitCheck";
+import type { WorkbookModel } from "../workbook/model";
 import { displayFormula } from "../workbook/storedForm";
 import { analyseCell } from "./explain";
 import type { HostPort } from "./host/port";
@@ -25,6 +26,8 @@ export interface WorkbookCheck {
   counts: Record<Status, number>;
   outcomes: CellOutcome[];
   labels: LabelSource;
+  /** The snapshot the check analysed: the audit's summary reads names, headings and inputs from it. */
+  workbook: WorkbookModel;
 }
 
 /** Name of the sheet the audit is written to; it is replaced, never any other sheet. */
@@ -64,19 +67,19 @@ export async function checkWorkbook(port: HostPort, onProgress?: (done: number, 
     onProgress?.(i + 1, cells.length);
     if ((i + 1) % yieldEvery === 0) await new Promise((r) => setTimeout(r, 0));
   }
-  return { rows, counts, outcomes, labels: mergeLabels(labels) };
+  return { rows, counts, outcomes, labels: mergeLabels(labels), workbook: local.workbook };
 }
 
-/** The audit report for the checked workbook (same model as `nappe audit`). */
-export function auditOf(check: WorkbookCheck, source: string): AuditReport {
-  return buildAudit(check.outcomes, { title: "Nappe audit", source }, check.labels);
+/** The audit report for the checked workbook (same model as `nappe audit`), named by its file name where Excel gives one. */
+export function auditOf(check: WorkbookCheck, source = check.workbook.name ?? "this workbook"): AuditReport {
+  return buildAudit(check.outcomes, { title: "Nappe audit", source, workbook: check.workbook }, check.labels);
 }
 
 
 /** Writes (or replaces) the audit sheet through the port. */
-export async function writeAuditSheet(port: HostPort, check: WorkbookCheck, source: string): Promise<AuditReport> {
+export async function writeAuditSheet(port: HostPort, check: WorkbookCheck, source?: string): Promise<AuditReport> {
   const report = auditOf(check, source);
-  const { rows, headerRow } = auditSheetRows(report);
-  await port.writeSheet(AUDIT_SHEET, rows, { headerRow, widths: AUDIT_WIDTHS });
+  const { rows, headerRow, blockHeaders } = auditSheetRows(report);
+  await port.writeSheet(AUDIT_SHEET, rows, { headerRow, widths: AUDIT_WIDTHS, subHeaders: blockHeaders });
   return report;
 }

@@ -1,6 +1,6 @@
 /** The pane's "Workbook" tab: check every NAPPE formula, jump to a cell, write the audit sheet. */
 import type { PaneContext } from "./ui";
-import { el } from "./ui";
+import { el, MARK } from "./ui";
 import { AUDIT_SHEET, checkWorkbook, type WorkbookCheck, writeAuditSheet } from "./workbookCheck";
 
 function build(ctx: PaneContext): HTMLElement {
@@ -28,14 +28,14 @@ function build(ctx: PaneContext): HTMLElement {
       });
       counts.replaceChildren(
         el("span", "", `${last.rows.length} NAPPE formulas`),
-        el("span", "status ok", `${last.counts.ok} ok`),
-        el("span", "status warning", `${last.counts.warning} warning`),
-        el("span", "status error", `${last.counts.error} error`),
+        el("span", "status ok", `${MARK.ok} ${last.counts.ok} ok`),
+        el("span", "status warning", `${MARK.warning} ${last.counts.warning} warning`),
+        el("span", "status error", `${MARK.error} ${last.counts.error} error`),
       );
       for (const row of last.rows) {
         const go = el("button", "fn", `${row.sheet}!${row.address}`);
         go.addEventListener("click", () => void ctx.port.select(row.sheet, row.address));
-        list.append(el("li", `check-row ${row.status}`, el("span", `status ${row.status}`, row.status), go, el("code", "", row.formula), row.note ? el("span", "purpose", row.note) : ""));
+        list.append(el("li", `check-row ${row.status}`, el("span", `status ${row.status}`, `${MARK[row.status]} ${row.status}`), go, el("code", "", row.formula), row.note ? el("span", "purpose", row.note) : ""));
       }
       write.disabled = false;
     } catch (e) {
@@ -50,7 +50,7 @@ function build(ctx: PaneContext): HTMLElement {
     if (!last) return;
     write.disabled = true;
     try {
-      const report = await writeAuditSheet(ctx.port, last, "this workbook");
+      const report = await writeAuditSheet(ctx.port, last);
       ctx.say(`Wrote the "${AUDIT_SHEET}" sheet: ${report.entries.length} formulas.`);
     } catch (e) {
       ctx.say(`Could not write the audit sheet: ${e instanceof Error ? e.message : String(e)}`);

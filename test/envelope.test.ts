@@ -5,7 +5,7 @@
  * end-of-curve power against the table's own power column.
  */
 import { describe, expect, it } from "vitest";
-import { relativeError, run } from "./helpers";
+import { failure, relativeError, run } from "./helpers";
 import ref from "./reference/envelope_reference.json";
 
 const HP = 745.69987158227022; // W per mechanical horsepower (NIST SP 811)
@@ -107,6 +107,17 @@ describe("end-of-curve power and the selection table", () => {
     expect(row[0]).toBeCloseTo(13, 9);
     expect(row[1]).toBeCloseTo(150, 9);
     expect(row[2]).toBe(15); // IEC 60072-1: 11 then 15 kW (from memory)
+  });
+  it("a curve whose largest power no listed motor covers is an error naming the curve, with figures that differ (found by the fuzz test)", () => {
+    const big = [["Flow (m^3/h)", "Head (m)", "Power (kW)"], [0, 40, 500], [50, 38, 700], [100, 33, 745.7 + 0.001]];
+    expect(failure("PUMP.MAXPOWER", big, null, null, "nema", "m^3/h", "kW").message).toMatch(/^curve: 745\.70100 kW \(the largest shaft power on it\) is above the largest NEMA rating listed here \(745\.69987 kW\)/);
+  });
+  it("in the selection table, a candidate no listed motor covers is a failing row, not an error of the table", () => {
+    // The same curve with every flow ×200: its end-of-curve power is 200 × 8.66 hp, beyond NEMA's 1000 hp.
+    const family = [["Impeller (mm)", "Flow (gpm)", "Head (ft)", "Eff (%)", "NPSHr (ft)"], ...ref.curve.map(([q, ...r]) => [250, (q as number) * 200, ...r.map((v) => (v === null ? "" : v))])];
+    const rows = run("PUMP.SHORTLIST", family, cases.slice(0, 2), segments(ref.suction), segments(ref.discharge), null, null, null, "nema", "gpm", "ft", "hp").value as Row[];
+    expect(rows[1][7]).toBe("");
+    expect(rows[1][10]).toMatch(/no listed motor rating covers its 17\d\d(\.\d+)? hp/);
   });
   it("the selection table recommends the passing impeller with the best design efficiency and says why the other lost", () => {
     const family = [

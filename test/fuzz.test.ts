@@ -55,6 +55,10 @@ function finiteEverywhere(v: unknown): boolean {
   return false;
 }
 
+// A fixed seed keeps CI reproducible (a random one once failed a landing on a new counterexample);
+// NAPPE_FUZZ_SEED=<integer> explores other seeds locally, and fast-check prints the seed of any failure.
+const SEED = Number(process.env.NAPPE_FUZZ_SEED ?? 20261202);
+
 describe("fuzzing every worksheet function through the built bundle", () => {
   it.each(CATALOG.map((s) => [s.id, s.params.length]))("NAPPE.%s: 1000 random calls, each a value or a worksheet error", (id, arity) => {
     const fn = registry.get(id as string)!;
@@ -75,7 +79,7 @@ describe("fuzzing every worksheet function through the built bundle", () => {
           expect(names.some((n) => err.message.startsWith(`${n}:`)), `${call}: ${err.message}`).toBe(true);
         }
       }),
-      { numRuns: 1000 },
+      { numRuns: 1000, seed: SEED },
     );
   }, 180_000);
 });

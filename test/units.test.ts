@@ -78,4 +78,8 @@ describe("CONVERT", () => {
     expect(() => convertUnits(1, "furlongs per fortnight", "m/s")).toThrow(/^from_unit: /);
     expect(() => convertUnits(1, "m/s", "parsecs")).toThrow(/^to_unit: /);
   });
+  it("refuses a unit argument that carries a number of its own (found by the fuzz test: \"-500 degC\")", () => {
+    expect(() => convertUnits(0, "-500 degC", "degF")).toThrow(/^from_unit: /);
+    expect(() => convertUnits(0, "degC", "3 degF")).toThrow(/^to_unit: /);
+  });
 });

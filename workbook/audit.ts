@@ -6,7 +6,9 @@
  */
 import { GENERAL_CAUTIONS } from "../functions/catalog/_shared";
 import { callView, type CallView, pairCalls } from "./callView";
-import { formatValue } from "./format";
+import { exactNumber, formatQuantity, formatValue } from "./format";
+import type { WorkbookModel } from "./model";
+import { type AuditSummary, auditSummary } from "./summary";
 import { callSites, evaluationOrder } from "./formula";
 import type { CellOutcome, Status } from "./recalc";
 import type { LabelSource } from "./unitCheck";
@@ -25,14 +27,20 @@ interface AuditEntry {
   formula: string;
   status: Status;
   result: string;
+  /** Every digit of a numeric result ("" otherwise). */
+  exact: string;
   messages: string[];
   calls: CallView[];
 }
 
 export interface AuditReport {
   title: string;
+  /** The workbook's file name. */
   source: string;
+  /** When, as people read it ("2 December 2026, 14:05 UTC"). */
   generated: string;
+  /** Key results and inputs, when the workbook itself was at hand. */
+  summary?: AuditSummary;
   /** What the run found and did ("30 NAPPE formulas found in 45 formulas (30 recalculated): …"). */
   found?: string;
   counts: Record<Status, number>;
@@ -40,8 +48,19 @@ export interface AuditReport {
   entries: AuditEntry[];
 }
 
-/** Builds the audit from recalculated cells. `labels` enables the unit check of referenced cells. */
-export function buildAudit(cells: readonly CellOutcome[], meta: { title: string; source: string; generated?: string; found?: string }, labels?: LabelSource): AuditReport {
+const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
+
+/** A date as a report's reader reads it: "2 December 2026, 14:05 UTC" (UTC, so every reader sees the same). */
+export function readableDate(d: Date): string {
+  const two = (n: number) => String(n).padStart(2, "0");
+  return `${d.getUTCDate()} ${MONTHS[d.getUTCMonth()]} ${d.getUTCFullYear()}, ${two(d.getUTCHours())}:${two(d.getUTCMinutes())} UTC`;
+}
+
+/**
+ * Builds the audit from recalculated cells. `labels` enables the unit check of referenced cells;
+ * `workbook` (the model the cells came from) lets the audit open with the key results and inputs.
+ */
+export function buildAudit(cells: readonly CellOutcome[], meta: { title: string; source: string; generated?: string; found?: string; workbook?: WorkbookModel }, labels?: LabelSource): AuditReport {
   const counts: Record<Status, number> = { ok: 0, warning: 0, error: 0 };
   const entries = cells.map((cell): AuditEntry => {
     const messages = [...cell.messages];
@@ -62,19 +81,21 @@ export function buildAudit(cells: readonly CellOutcome[], meta: { title: string;
       return view;
     });
     counts[status]++;
-    return { sheet: cell.sheet, address: cell.address, formula: cell.formula, status, result: `${formatValue(cell.value)}${cell.unit ? ` ${cell.unit}` : ""}`, messages, calls };
+    const result = typeof cell.value === "number" ? formatQuantity(cell.value, cell.unit) : formatValue(cell.value);
+    return { sheet: cell.sheet, address: cell.address, formula: cell.formula, status, result, exact: typeof cell.value === "number" ? exactNumber(cell.value) : "", messages, calls };
   });
-  return { title: meta.title, source: meta.source, generated: meta.generated ?? new Date().toISOString(), found: meta.found, counts, cautions: [...GENERAL_CAUTIONS], entries };
+  const summary = meta.workbook ? auditSummary(meta.workbook, cells, entries.map((e) => e.calls), labels) : undefined;
+  return { title: meta.title, source: meta.source, generated: meta.generated ?? readableDate(new Date()), summary, found: meta.found, counts, cautions: [...GENERAL_CAUTIONS], entries };
 }
 
 /**
  * The audit as rows of text: the audit sheet's layout (header row first). Seven columns, so
  * that the sheet prints one page wide at a readable scale in landscape.
  */
-export const AUDIT_COLUMNS = ["Cell", "Formula", "Status", "Result", "Function and purpose", "Inputs (as written → as read)", "Warnings, assumptions, sources, cautions"];
+export const AUDIT_COLUMNS = ["Cell", "Formula", "Status", "Result", "Exact", "Function and purpose", "Inputs (as written → as read)", "Warnings, assumptions, sources, cautions"];
 
-/** Column widths of the audit sheet, in characters (about 210 in all: landscape A4 or Letter at 65 % or more). */
-export const AUDIT_WIDTHS = [16, 34, 9, 16, 30, 46, 58];
+/** Column widths of the audit sheet, in characters (about 220 in all: landscape A4 or Letter at 65 % or more). */
+export const AUDIT_WIDTHS = [16, 32, 9, 16, 18, 30, 44, 55];
 
 /** Said at the top of an audit that found nothing to check. */
 export const NOTHING_FOUND = "No NAPPE formulas found in this workbook: nothing was checked.";
@@ -98,6 +119,7 @@ function auditRows(report: AuditReport): string[][] {
         i === 0 ? e.formula : "",
         i === 0 ? e.status : "",
         i === 0 ? e.result : "",
+        i === 0 ? e.exact : "",
         c ? [`NAPPE.${c.id}: ${c.purpose}${c.result && e.calls.length > 1 ? ` = ${c.result}` : ""}`, ...(c.substituted ? [c.substituted] : []), ...c.steps.map((s) => `${s.symbol} = ${s.value} (${s.name})`)].join("\n") : "",
         c ? c.args.map(argLine).join("\n") : "",
         notes.join("\n"),
@@ -107,19 +129,40 @@ function auditRows(report: AuditReport): string[][] {
   return rows;
 }
 
+/** Headings of the summary blocks that open the audit sheet. */
+export const KEY_RESULTS = "Key results";
+export const INPUTS = "Inputs";
+
 /**
- * The audit sheet, headless or written by the pane: title, what was found, the cautions, a
- * line that says when nothing was found, then the table (its header at `headerRow`, 0-based).
+ * The audit sheet, headless or written by the pane, summary first: title, workbook and date with
+ * the counts, the cautions, a line that says when nothing was found; the key results and the
+ * inputs (each a heading, a header row and rows); then the table of every NAPPE formula (its
+ * header at `headerRow`, 0-based). `preamble` is the number of one-cell lines at the top.
  */
-export function auditSheetRows(report: AuditReport): { rows: string[][]; headerRow: number } {
-  const rows = [
+export function auditSheetRows(report: AuditReport): { rows: string[][]; headerRow: number; preamble: number; blockHeaders: number[] } {
+  const rows: string[][] = [
     [report.title],
-    [`Workbook: ${report.source} · generated ${report.generated} · ${report.found ?? `${report.entries.length} NAPPE formulas`} · ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`],
+    [`Workbook: ${report.source} · ${report.generated} · ${report.found ?? `${report.entries.length} NAPPE formulas`} · ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`],
     [report.cautions.join(" ")],
     [report.entries.length ? "" : NOTHING_FOUND],
-    ...auditRows(report),
   ];
-  return { rows, headerRow: 4 };
+  const preamble = rows.length;
+  const blockHeaders: number[] = [];
+  const s = report.summary;
+  if (s && s.results.length) {
+    rows.push([KEY_RESULTS, s.basis]);
+    blockHeaders.push(rows.length);
+    rows.push(["Cell", "Label", "Value", "Exact"], ...s.results.map((r) => [r.cell, r.label, r.value, r.exact]), []);
+  }
+  if (s && s.inputs.length) {
+    rows.push([INPUTS, "The constant cells the NAPPE formulas read, and how each was read."]);
+    blockHeaders.push(rows.length);
+    rows.push(["Cell", "Label", "Value", "Exact", "Read as"], ...s.inputs.map((r) => [r.cell, r.label, r.value, r.exact, r.readAs]), []);
+  }
+  if (blockHeaders.length) rows.push(["Every NAPPE formula, with its derivation"]);
+  const headerRow = rows.length;
+  rows.push(...auditRows(report));
+  return { rows, headerRow, preamble, blockHeaders };
 }
 
 /** Lines a text takes in a wrapped cell of the given width (characters), for row heights. */

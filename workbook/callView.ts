@@ -13,7 +13,7 @@ import type { Table } from "../functions/tables/table";
 import type { Step } from "../functions/calc/_lib/result";
 import { type Dimension, DIMENSIONS } from "../functions/units/dimensions";
 import { fromBase } from "../functions/units/quantity";
-import { formatNumber, formatQuantity, formatValue, shortenQuantityText } from "./format";
+import { formatNumber, formatPercent, formatQuantity, formatUnit, labelledSpill, shortenQuantityText, type SpillTable } from "./format";
 import type { CallSite } from "./formula";
 import type { CallRecord } from "./recalc";
 import { checkCallUnits, type LabelSource, type UnitFinding } from "./unitCheck";
@@ -54,6 +54,8 @@ export interface CallView {
   result?: string;
   /** The result in the base unit of its dimension. */
   resultBase?: string;
+  /** A spilled result as a small labelled table (header row with units, then its rows). */
+  table?: SpillTable;
   assumptions: readonly string[];
   checks: readonly string[];
   warnings: readonly string[];
@@ -88,15 +90,17 @@ function gallonNote(unit: string): string {
 }
 
 function describeArg(r: ArgReading, written: string, baseUnit: string): ArgView {
-  const { unit, why } = howWhy(r);
+  const { unit: writtenUnit, why } = howWhy(r);
+  const unit = formatUnit(writtenUnit);
   if (r.how === "table") {
     const t = r.value as Table;
-    const cols = t.columns.map((c) => `${c.header ?? c.role} → ${c.role} in ${c.unit || DIMENSIONS[c.dim].baseLabel}${gallonNote(c.unit)}${c.unitFrom === "units row" ? ", unit from the units row" : ""}`).join("; ");
+    const cols = t.columns.map((c) => `${c.header ?? c.role} → ${c.role} in ${formatUnit(c.unit) || DIMENSIONS[c.dim].baseLabel}${gallonNote(c.unit)}${c.unitFrom === "units row" ? ", unit from the units row" : ""}`).join("; ");
     return { name: r.name, written, value: `${t.rows} rows`, unit: "", why, base: cols };
   }
   const raw = r.raw === null || r.raw === undefined ? undefined : Array.isArray(r.raw) ? "(range)" : typeof r.raw === "number" ? formatNumber(r.raw) : shortenQuantityText(String(r.raw));
   if (typeof r.value !== "number") return { name: r.name, written, value: raw ?? String(r.value), unit, why, base: String(r.value) };
-  return { name: r.name, written, value: raw ?? formatNumber(r.value), unit, why, base: formatQuantity(r.value, baseUnit) };
+  const base = baseUnit === "(fraction)" ? `${formatNumber(r.value)} (fraction, ${formatPercent(r.value)})` : formatQuantity(r.value, baseUnit);
+  return { name: r.name, written, value: raw ?? formatNumber(r.value), unit, why, base };
 }
 
 /** The units intermediate values are shown in when a call's inputs are in US customary units. */
@@ -120,9 +124,17 @@ function shownUnit(dim: Dimension, us: boolean): string {
   return (us && US_UNITS[dim]) || SHOWN_UNITS[dim] || DIMENSIONS[dim].base;
 }
 
-/** A base-unit value in the unit it is shown in, with that unit. */
+/** A base-unit value in the unit it is shown in, with that unit; an efficiency as percent. */
 function shown(value: number, dim: Dimension, us: boolean, unit = shownUnit(dim, us)): string {
+  if (dim === "efficiency" && unit === "") return formatPercent(value);
   return formatQuantity(unit === DIMENSIONS[dim].base ? value : fromBase("value", value, dim, unit), unit);
+}
+
+/** The result as the view shows it: in the unit asked for, an efficiency as percent, a spill as its rows. */
+function resultText(ev: Evaluation): string {
+  if (typeof ev.value !== "number") return `spills ${ev.value.length} ${ev.value.length === 1 ? "row" : "rows"}, as the table shows`;
+  if (ev.dim === "efficiency" && ev.unit === "") return `${formatNumber(ev.value)} (${formatPercent(ev.value)})`;
+  return formatQuantity(ev.value, ev.unit);
 }
 
 function stepView(s: Step, us: boolean): StepView {
@@ -196,8 +208,9 @@ export function callView(rec: CallRecord, site: CallSite | undefined, sheet: str
     args,
     steps: ev ? ev.steps.map((s) => stepView(s, us)) : [],
     substituted: ev ? substitutedLine(spec, ev, us) : undefined,
-    result: ev ? (typeof ev.value === "number" ? formatQuantity(ev.value, ev.unit) : formatValue(ev.value)) : undefined,
-    resultBase: numeric ? formatQuantity(ev.base as number, DIMENSIONS[ev.dim].base) : undefined,
+    result: ev ? resultText(ev) : undefined,
+    resultBase: numeric && ev.dim !== "efficiency" ? formatQuantity(ev.base as number, DIMENSIONS[ev.dim].base) : undefined,
+    table: ev && typeof ev.value !== "number" ? labelledSpill(ev.value, ev.header) : undefined,
     assumptions: spec.assumptions,
     checks: spec.validity,
     warnings: ev?.warnings ?? [],

@@ -4,6 +4,7 @@
  * read, each intermediate value, the result, and the warnings. Built from the call-view model.
  */
 import type { CallView } from "./callView";
+import { formatSpillText } from "./format";
 
 /** One call's derivation, line by line. */
 export function derivationText(where: { sheet: string; address: string; formula: string }, view: CallView): string {
@@ -12,6 +13,7 @@ export function derivationText(where: { sheet: string; address: string; formula:
   if (view.args.length) lines.push("Inputs:", ...view.args.map((a) => `  ${a.name} = ${a.written || "(left out)"} → ${a.value}${a.unit && !a.value.endsWith(a.unit) ? ` ${a.unit}` : ""}${a.base && a.base !== a.value && a.base !== `${a.value} ${a.unit}` ? ` (${a.base})` : ""}`));
   if (view.steps.length) lines.push("Intermediate values:", ...view.steps.map((s) => `  ${s.symbol} = ${s.value}  (${s.name}; ${s.how})`));
   lines.push(view.error ? `Error: ${view.error}` : `Result: ${view.result ?? ""}${view.resultBase && view.resultBase !== view.result ? ` (${view.resultBase})` : ""}`);
+  if (!view.error && view.table) lines.push(formatSpillText(view.table, "  "));
   for (const w of [...view.warnings, ...view.unitFindings.map((f) => `Unit check: ${f.message}`)]) lines.push(`Warning: ${w}`);
   return lines.join("\n");
 }

@@ -39,6 +39,8 @@ export interface DefinedName {
 }
 
 export interface WorkbookModel {
+  /** The file name, where the source knows it ("orchard-pumping-station.xlsx"). */
+  name?: string;
   sheets: SheetModel[];
   /** Defined names, when the file has any. */
   names?: DefinedName[];

@@ -10,6 +10,7 @@ import { type Dimension, DIMENSIONS, hasUnit } from "../functions/units/dimensio
 import { dimensionOfUnit, toBase } from "../functions/units/quantity";
 import type { Table } from "../functions/tables/table";
 import { addressOf, parseAddress, sheetPrefix, splitReference } from "./address";
+import { formatNumber } from "./format";
 
 export interface LabelSource {
   /** Text of the nearest label cells: to the left on the same row, then above. */
@@ -208,13 +209,9 @@ function implausibleMagnitudes(spec: FunctionSpec, evaluation: Evaluation, refs:
     findings.push({
       arg: p.name,
       ref: where,
-      message: `${p.name} is a bare ${short(reading.value)} read as ${short(reading.value)} ${DIMENSIONS[p.dim].baseLabel}, an implausible ${DIMENSIONS[p.dim].noun.replace(/^an? /, "")} (usual: ${range[0]} to ${range[1]} ${DIMENSIONS[p.dim].baseLabel}); if another unit was meant, write it with the number, such as ${DIMENSIONS[p.dim].example}.`,
+      message: `${p.name} is a bare ${formatNumber(reading.value)} read as ${formatNumber(reading.value)} ${DIMENSIONS[p.dim].baseLabel}, an implausible ${DIMENSIONS[p.dim].noun.replace(/^an? /, "")} (usual: ${range[0]} to ${range[1]} ${DIMENSIONS[p.dim].baseLabel}); if another unit was meant, write it with the number, such as ${DIMENSIONS[p.dim].example}.`,
     });
   });
   return findings;
 }
 
-/** Six significant figures, as people read numbers. */
-function short(x: number): string {
-  return String(Number(x.toPrecision(6)));
-}

@@ -36,6 +36,8 @@ export interface Evaluation {
   readings: ArgReading[];
   /** The calculation's intermediate values, in base units. */
   steps: Step[];
+  /** A spilled result's column labels with units, when it has no header row of its own. */
+  header?: string[];
 }
 
 const MAX_TEXT = 200;
@@ -238,7 +240,8 @@ export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evalua
     for (const row of result.value) for (const cell of row) if (typeof cell === "number" && !Number.isFinite(cell)) throw new CalcError("result", "is not a finite number for these inputs", "num");
     // Text cells (a verdict) may quote quantities: in the user's units too.
     const cells = result.value.map((row) => row.map((cell) => (typeof cell === "string" ? inUserUnits(cell) : cell)));
-    return { value: cells, base: cells, dim, unit: "", warnings: result.warnings, readings, steps: result.steps ?? [] };
+    const header = spec.result.columns?.(args);
+    return { value: cells, base: cells, dim, unit: "", warnings: result.warnings, readings, steps: result.steps ?? [], ...(header ? { header } : {}) };
   }
   let value = result.value;
   let unit: string = DIMENSIONS[dim].base;

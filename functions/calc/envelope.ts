@@ -362,7 +362,7 @@ export function selectOverEnvelope(
   cases: readonly EnvelopeCase[],
   system: EnvelopeSystem,
   minMargin: number,
-  motorFor: (power: number) => number,
+  motorFor: (power: number) => number | undefined,
   dutyFlow?: number,
 ): CalcResult<Candidate[]> {
   checkLimits(limits);
@@ -381,11 +381,13 @@ export function selectOverEnvelope(
     const powers = corners.map((c) => c.shaftPower).filter((p): p is number => p !== undefined);
     const envelopePower = powers.length ? Math.max(...powers) : undefined;
     const endPower = endOfCurvePower(imp.curve, designRho, fastest).value.power;
-    const motor = motorFor(Math.max(endPower, envelopePower ?? 0));
+    const needed = Math.max(endPower, envelopePower ?? 0);
+    const motor = motorFor(needed);
     const margins = corners.map((c) => c.margin).filter((m): m is number => m !== undefined);
     const energies = corners.map((c) => c.energy).filter((x): x is number => x !== undefined);
     const failing = corners.filter((c) => c.status === "fails");
     const reasons = failing.map((c) => `${c.label}: ${c.reasons[0]}`);
+    if (motor === undefined) reasons.push(`no listed motor rating covers its ${quoted(needed, "power")}`);
     const design = corners[0];
     if (dutyFlow !== undefined && design.flowTotal !== undefined && design.flowTotal < dutyFlow * (1 - 1e-9)) {
       reasons.unshift(`${design.label}: delivers ${quoted(design.flowTotal, "flow")}, short of the duty ${quoted(dutyFlow, "flow")}`);

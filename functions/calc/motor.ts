@@ -17,15 +17,27 @@ function motorRatings(series: MotorSeries): number[] {
   return series === "nema" ? NEMA_HP.map((hp) => hp * HORSEPOWER) : IEC_KW.map((kw) => kw * 1000);
 }
 
-/** The smallest standard rating of at least power·(1 + margin), W. */
-export function motorSize(power: number, series: MotorSeries, margin: number): CalcResult {
+/** The largest rating of a series, W. */
+export function largestRating(series: MotorSeries): number {
+  const ratings = motorRatings(series);
+  return ratings[ratings.length - 1];
+}
+
+/**
+ * The smallest standard rating of at least power·(1 + margin), W. `arg` names the argument the
+ * power came from in an error (the curve, when the power was found on it).
+ */
+export function motorSize(power: number, series: MotorSeries, margin: number, arg = "power"): CalcResult {
   requireNonNegative("power", power, "a power of zero or more");
   if (!(margin >= 0 && margin < 1)) throw new CalcError("margin", `expected a fraction from 0 to below 1 (0.15 for 15 %); got ${margin}`);
   const needed = power * (1 + margin);
   const ratings = motorRatings(series);
   const rating = ratings.find((r) => r >= needed * (1 - 1e-12));
   if (rating === undefined) {
-    throw new CalcError("power", `${(needed / 1000).toPrecision(4)} kW is above the largest ${series === "nema" ? "NEMA" : "IEC"} rating listed here (${(ratings[ratings.length - 1] / 1000).toPrecision(4)} kW)`);
+    const largest = ratings[ratings.length - 1];
+    // Four figures can print both as 745.7 kW when the power is a hair above the rating: then show more.
+    const digits = (needed / 1000).toPrecision(4) === (largest / 1000).toPrecision(4) ? 8 : 4;
+    throw new CalcError(arg, `${(needed / 1000).toPrecision(digits)} kW${arg === "power" ? "" : " (the largest shaft power on it)"} is above the largest ${series === "nema" ? "NEMA" : "IEC"} rating listed here (${(largest / 1000).toPrecision(digits)} kW)`);
   }
   const warnings = margin === 0 ? ["No margin added: size the motor for the largest power the pump can draw on its curve (end of curve), not only the duty point."] : [];
   return ok(rating, warnings, [step("P(1 + m)", "power to cover, margin added", needed, "power", "next rating at or above it")]);

@@ -1,6 +1,6 @@
 import { bestEfficiencyPoint, checkLimits, type Corner, endOfCurvePower, envelope, MIN_MARGIN_DEFAULT, type OperatingLimits, POR_DEFAULT, regionOf, selectOverEnvelope } from "../calc/envelope";
 import { curveInterpolant } from "../calc/pumpCurve";
-import { MOTOR_SERIES, motorSize } from "../calc/motor";
+import { largestRating, MOTOR_SERIES, motorSize } from "../calc/motor";
 import { CalcError, ok } from "../calc/_lib/result";
 import { STANDARD_ATMOSPHERE } from "../calc/_lib/constants";
 import { CAVITATION_CAUTION, curveParam, DESIGN_AID, densityParam, EXAMPLE_CURVE_US, flowParam } from "./_shared";
@@ -149,7 +149,7 @@ export const specs: FunctionSpec[] = [
     compute: (a) => {
       const curve = curveFromTable("curve", a.curve);
       const max = endOfCurvePower(curve, a.density, a.ratio);
-      const motor = motorSize(max.value.power, a.series, 0);
+      const motor = motorSize(max.value.power, a.series, 0, "curve");
       const p = (v: number) => spillValue("power_unit", v, "power", a.power_unit);
       return ok(
         [[spillHeader("Largest shaft power", a.power_unit, "power"), spillHeader("At flow", a.flow_unit, "flow"), spillHeader("Motor", a.power_unit, "power")], [p(max.value.power), spillValue("flow_unit", max.value.flow, "flow", a.flow_unit), p(motor.value)]],
@@ -265,7 +265,7 @@ export const specs: FunctionSpec[] = [
     ],
     compute: (a) => {
       const impellers = impellersFromTable("family", a.family);
-      const motorFor = (power: number) => motorSize(power, a.series, 0).value;
+      const motorFor = (power: number) => (power <= largestRating(a.series) * (1 + 1e-12) ? motorSize(power, a.series, 0).value : undefined);
       const result = selectOverEnvelope(
         impellers,
         limitsOf({ por_low: POR_DEFAULT[0], por_high: POR_DEFAULT[1] }),

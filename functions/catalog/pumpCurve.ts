@@ -7,7 +7,7 @@ import { dutyAgainstBep } from "../calc/envelope";
 import { ok, type StepDimension } from "../calc/_lib/result";
 import type { Table } from "../tables/table";
 import { CAVITATION_CAUTION, curveParam, DESIGN_AID, densityParam, EXAMPLE_CURVE_US, PARABOLA_CURVE, flowParam, kinematicViscosityParam, unitParam } from "./_shared";
-import { curveFromTable, impellersFromTable, spillTable, spillValue, systemLosses } from "./_tables";
+import { curveFromTable, impellersFromTable, spillHeader, spillTable, spillValue, systemLosses } from "./_tables";
 import { defineSpec, type ChoiceParam, type FunctionSpec, type UnitParam } from "./types";
 
 const fitParam = {
@@ -127,7 +127,7 @@ export const specs: FunctionSpec[] = [
       flowUnit,
       headUnit,
     ],
-    result: { dim: "flow", description: "One row: flow, head of the operating point.", spill: true },
+    result: { dim: "flow", description: "One row: flow, head of the operating point.", spill: true, columns: (a) => [spillHeader("Flow", a.flow_unit, "flow"), spillHeader("Head", a.head_unit, "length")] },
     equation: String.raw`H_{pump}(Q) = H_s + \sum_i \Big(f_i\frac{L_i}{D_i} + \Sigma K_i\Big)\frac{V_i^2}{2g} \quad \text{or} \quad H_s + kQ^2`,
     derivation: (n) => `H_pump(Q*) = H_system(Q*) at Q* = ${n.step("Q*")}: ${n.step("H_pump(Q*)")} = ${n.step("H_system(Q*)")}`,
     assumptions: ["Steady flow; the pump curve is at the operating speed and impeller.", "Losses by Darcy–Weisbach with Colebrook in each segment."],
@@ -218,7 +218,12 @@ export const specs: FunctionSpec[] = [
       { name: "head", kind: "quantity", dim: "length", description: "Head needed at the duty flow." },
       unitParam('"ft" or "m" (head and NPSHr)'),
     ],
-    result: { dim: "length", description: "One row: impeller (in the family's unit, or its label), head at the duty flow, efficiency (fraction), NPSHr; blank where the family has no such column.", spill: true },
+    result: {
+      dim: "length",
+      description: "One row: impeller (in the family's unit, or its label), head at the duty flow, efficiency (fraction), NPSHr; blank where the family has no such column.",
+      spill: true,
+      columns: (a) => ["Impeller", spillHeader("Head", a.unit, "length"), "Efficiency (fraction)", spillHeader("NPSHr", a.unit, "length")],
+    },
     equation: String.raw`D^* = \min\{D : H_D(Q_{duty}) \ge H_{duty}\}`,
     derivation: (n) => `smallest D with H_D(Q) ≥ H at Q = ${n.arg("flow")}, H = ${n.arg("head")}`,
     assumptions: ["Sized impellers are compared smallest first; labelled ones in the order listed.", "The chosen impeller gives at least the duty head; the operating point will sit where its curve meets the system (see PUMP.DUTY, TRIM)."],

@@ -94,7 +94,13 @@ export interface FunctionSpec {
    * Dimension of the result, fixed or picked by the arguments. A spilled result (`spill`) is a
    * table whose compute converts its own units; `dim` then describes its main value.
    */
-  result: { dim: Dimension | ((args: Args) => Dimension); description: string; spill?: boolean };
+  result: {
+    dim: Dimension | ((args: Args) => Dimension);
+    description: string;
+    spill?: boolean;
+    /** For a spill without a header row of its own: the column labels with units, so every view can label it. */
+    columns?: (args: Args) => string[];
+  };
   /** The equation in LaTeX. */
   equation: string;
   /**
@@ -167,7 +173,7 @@ type ArgsOf<Ps extends readonly ParamSpec[]> = { readonly [P in Ps[number] as P[
 /** A spec as it is written: its compute and result dimension see the arguments typed by its parameters. */
 interface TypedSpec<Ps extends readonly ParamSpec[]> extends Omit<FunctionSpec, "params" | "compute" | "result"> {
   params: Ps;
-  result: { dim: Dimension | ((args: ArgsOf<Ps>) => Dimension); description: string; spill?: boolean };
+  result: { dim: Dimension | ((args: ArgsOf<Ps>) => Dimension); description: string; spill?: boolean; columns?: (args: ArgsOf<Ps>) => string[] };
   compute: (args: ArgsOf<Ps>) => CalcResult<number | Cell[][]>;
 }
 

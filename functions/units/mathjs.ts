@@ -49,7 +49,10 @@ export function parseUnitText(text: string): MathUnit {
 
 /** A unit with no value, from a unit name such as "gpm" or "m^3/h". */
 export function unitOf(name: string): MathUnit {
-  return math.unit(name);
+  const unit = math.unit(name);
+  // "-500 degC" parses as a quantity; a unit name must not carry a number of its own.
+  if ((unit as MathUnit & { value: number | null }).value !== null) throw new Error(`"${name}" holds a number: expected a unit name alone`);
+  return unit;
 }
 
 /** Makes a quantity from a number and a unit name. */

@@ -100,7 +100,7 @@ export class MemoryHost implements HostPort {
   async setValue(sheet: string, address: string, value: string | number): Promise<void> {
     this.write(sheet, address, (cell) => {
       delete cell.formula;
-      cell.value = value;
+      cell.value = value === "" ? null : value; // as in Excel: writing "" empties the cell
     });
   }
 

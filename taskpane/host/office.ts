@@ -168,6 +168,7 @@ export class OfficeHost implements HostPort {
   async workbookSnapshot(): Promise<WorkbookModel> {
     return Excel.run(async (context) => {
       const names = queueNames(context);
+      context.workbook.load("name");
       await context.sync();
       const readNames = names.sheetNames();
       const used = names.sheets.items.map((ws) => {
@@ -176,7 +177,7 @@ export class OfficeHost implements HostPort {
         return { ws, range };
       });
       await context.sync();
-      const model: WorkbookModel = { sheets: [], names: readNames() };
+      const model: WorkbookModel = { name: context.workbook.name, sheets: [], names: readNames() };
       const pending: { sheet: string; cells: Map<string, CellModel>; row0: number; col0: number; range: Excel.Range }[] = [];
       let queued = 0;
       const flush = async () => {
@@ -236,7 +237,7 @@ export class OfficeHost implements HostPort {
     });
   }
 
-  async writeSheet(name: string, rows: string[][], options: { headerRow?: number; widths?: number[] } = {}): Promise<void> {
+  async writeSheet(name: string, rows: string[][], options: { headerRow?: number; widths?: number[]; subHeaders?: number[] } = {}): Promise<void> {
     await Excel.run(async (context) => {
       const existing = context.workbook.worksheets.getItemOrNullObject(name);
       await context.sync();
@@ -249,13 +250,14 @@ export class OfficeHost implements HostPort {
       range.values = values;
       range.format.wrapText = true;
       range.format.verticalAlignment = "Top";
-      if (options.headerRow !== undefined) {
-        const header = ws.getRangeByIndexes(options.headerRow, 0, 1, width);
+      for (const at of [...(options.subHeaders ?? []), ...(options.headerRow === undefined ? [] : [options.headerRow])]) {
+        const header = ws.getRangeByIndexes(at, 0, 1, width);
         header.format.font.bold = true;
         header.format.fill.color = "#0E5463";
         header.format.font.color = "#FFFFFF";
-        ws.freezePanes.freezeRows(options.headerRow + 1);
       }
+      // Frozen only when the summary above the table is short enough to leave room on screen.
+      if (options.headerRow !== undefined && options.headerRow < 10) ws.freezePanes.freezeRows(options.headerRow + 1);
       options.widths?.forEach((w, i) => (ws.getRangeByIndexes(0, i, 1, 1).format.columnWidth = w * 6));
       ws.pageLayout.orientation = Excel.PageOrientation.landscape;
       ws.pageLayout.zoom = { horizontalFitToPages: 1, verticalFitToPages: 0 };

@@ -53,5 +53,5 @@ export interface HostPort {
   /** Selects a cell (and shows its sheet). */
   select(sheet: string, address: string): Promise<void>;
   /** Writes (or replaces) a whole sheet of text rows; never touches any other sheet. */
-  writeSheet(name: string, rows: string[][], options?: { headerRow?: number; widths?: number[] }): Promise<void>;
+  writeSheet(name: string, rows: string[][], options?: { headerRow?: number; widths?: number[]; subHeaders?: number[] }): Promise<void>;
 }

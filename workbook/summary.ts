@@ -1,0 +1,166 @@
+/**
+ * What an audit opens with: the workbook's key results and the inputs its NAPPE formulas read.
+ *
+ * Key results are the formula cells a defined name points at, and the formula cells under a
+ * heading cell reading "Results"; a workbook with neither gets the NAPPE cells no other formula
+ * reads (the ends of its calculation). Inputs are the constant cells the NAPPE calls read, found
+ * through plain references (=Inputs!B4), each with its label and the unit it was read in.
+ */
+import { CATALOG_BY_ID } from "../functions/catalog";
+import { parseAddress, splitReference } from "./address";
+import type { CallView } from "./callView";
+import { exactNumber, formatCell, formatQuantity } from "./format";
+import { references } from "./formula";
+import { type CellModel, type CellValue, findSheet, getCell, type WorkbookModel } from "./model";
+import type { CellOutcome } from "./recalc";
+import type { LabelSource } from "./unitCheck";
+
+export interface SummaryRow {
+  /** "Calc!B21". */
+  cell: string;
+  /** The label beside or above it, or its defined name. */
+  label: string;
+  /** As people read it, with its unit. */
+  value: string;
+  /** Every digit, for the audit sheet's "exact" column. */
+  exact: string;
+}
+
+export interface AuditSummary {
+  /** How the key results were chosen, in words. */
+  basis: string;
+  results: SummaryRow[];
+  inputs: (SummaryRow & { readAs: string })[];
+}
+
+const HEADING = /^\s*results?\s*:?\s*$/i;
+
+function ref(sheet: string, address: string): string {
+  return `${sheet}!${address}`;
+}
+
+function labelOf(labels: LabelSource | undefined, sheet: string, address: string, fallback = ""): string {
+  const { row, col } = parseAddress(address);
+  return labels?.labelsNear(sheet, row, col).find((t) => !HEADING.test(t)) ?? fallback;
+}
+
+/** A single cell a defined name refers to, or undefined for ranges and constants. */
+function namedCell(refersTo: string, scope?: string): { sheet: string; address: string } | undefined {
+  const m = /^=?((?:'(?:[^']|'')+'|[^!]+)!)?\$?([A-Za-z]{1,3})\$?(\d+)$/.exec(refersTo.trim());
+  if (!m) return undefined;
+  const { sheet } = splitReference(`${m[1] ?? ""}A1`, scope ?? "");
+  return sheet ? { sheet, address: `${m[2].toUpperCase()}${m[3]}` } : undefined;
+}
+
+/** Formula cells under each "Results" heading, down to the first empty row. */
+function underResultsHeadings(wb: WorkbookModel): CellModel[] {
+  const found: CellModel[] = [];
+  for (const sheet of wb.sheets) {
+    for (const heading of sheet.cells.values()) {
+      if (typeof heading.value !== "string" || heading.formula || !HEADING.test(heading.value)) continue;
+      for (let row = heading.row + 1; ; row++) {
+        const cells = [0, 1, 2, 3].map((d) => getCell(wb, sheet.name, row, heading.col + d)).filter((c): c is CellModel => c !== undefined && (c.value !== null || !!c.formula));
+        if (!cells.length) break;
+        found.push(...cells.filter((c) => c.formula));
+      }
+    }
+  }
+  return found;
+}
+
+/** Cells some formula of the workbook reads, as "Sheet!A1" (ranges expanded only for NAPPE cells asked about). */
+function readByOthers(wb: WorkbookModel, candidates: readonly CellOutcome[]): Set<string> {
+  const read = new Set<string>();
+  for (const sheet of wb.sheets) {
+    for (const cell of sheet.cells.values()) {
+      if (!cell.formula) continue;
+      let refs: ReturnType<typeof references> = [];
+      try {
+        refs = references(cell.formula);
+      } catch {
+        continue;
+      }
+      for (const r of refs) {
+        const target = r.sheet ?? sheet.name;
+        for (const c of candidates) {
+          if (c.sheet.toLowerCase() !== target.toLowerCase() || (c.sheet === sheet.name && c.address === cell.address)) continue;
+          const { row, col } = parseAddress(c.address);
+          const rowIn = r.from.row === 0 || (row >= Math.min(r.from.row, r.to.row) && row <= Math.max(r.from.row, r.to.row));
+          const colIn = r.from.col === 0 || (col >= Math.min(r.from.col, r.to.col) && col <= Math.max(r.from.col, r.to.col));
+          if (rowIn && colIn) read.add(ref(c.sheet, c.address));
+        }
+      }
+    }
+  }
+  return read;
+}
+
+function valueText(value: CellValue | CellValue[][], unit: string): { value: string; exact: string } {
+  if (Array.isArray(value)) return { value: `${value.length} rows spilled`, exact: "" };
+  if (typeof value === "number") return { value: unit ? formatQuantity(value, unit) : formatCell(value), exact: exactNumber(value) };
+  return { value: formatCell(value), exact: value === null ? "" : String(value) };
+}
+
+/** The key results and inputs of a checked workbook. */
+export function auditSummary(wb: WorkbookModel, outcomes: readonly CellOutcome[], views: readonly (readonly CallView[])[], labels?: LabelSource): AuditSummary {
+  const byRef = new Map(outcomes.map((o) => [ref(o.sheet, o.address), o]));
+  const row = (sheet: string, address: string, label: string): SummaryRow => {
+    const o = byRef.get(ref(sheet, address));
+    const { row: r, col } = parseAddress(address);
+    const cell = getCell(wb, sheet, r, col);
+    const v = valueText(o ? o.value : (cell?.value ?? null), o?.unit ?? "");
+    return { cell: ref(sheet, address), label, ...v };
+  };
+  const results: SummaryRow[] = [];
+  const seen = new Set<string>();
+  const add = (sheet: string, address: string, label: string) => {
+    const key = ref(sheet, address);
+    if (seen.has(key)) return;
+    seen.add(key);
+    results.push(row(sheet, address, label));
+  };
+  const named = (wb.names ?? []).flatMap((n) => {
+    const at = namedCell(n.refersTo, n.sheet);
+    const sheet = at && findSheet(wb, at.sheet);
+    const { row: r, col } = at ? parseAddress(at.address) : { row: 0, col: 0 };
+    return sheet && getCell(wb, sheet.name, r, col)?.formula ? [{ sheet: sheet.name, address: at!.address, name: n.name }] : [];
+  });
+  for (const n of named) add(n.sheet, n.address, `${n.name}${labelOf(labels, n.sheet, n.address) ? ` (${labelOf(labels, n.sheet, n.address)})` : ""}`);
+  for (const c of underResultsHeadings(wb)) add(c.sheet, c.address, labelOf(labels, c.sheet, c.address));
+  let basis = "Cells with a defined name and cells under a \u201cResults\u201d heading.";
+  if (!results.length) {
+    const read = readByOthers(wb, outcomes);
+    for (const o of outcomes) if (!read.has(ref(o.sheet, o.address))) add(o.sheet, o.address, labelOf(labels, o.sheet, o.address));
+    basis = "No defined names or \u201cResults\u201d heading: the NAPPE cells no other formula reads.";
+  }
+
+  const inputs: AuditSummary["inputs"] = [];
+  const inputSeen = new Set<string>();
+  outcomes.forEach((o, i) => {
+    o.calls.forEach((call, j) => {
+      const view = views[i]?.[j];
+      call.refs.forEach((r, k) => {
+        if (!r || r.includes(":")) return;
+        let { sheet, address } = splitReference(r, o.sheet);
+        // Follow plain references (=Inputs!B4) to the cell that holds the number.
+        for (let hops = 0; hops < 20; hops++) {
+          const { row: rr, col } = parseAddress(address);
+          const f = getCell(wb, sheet, rr, col)?.formula;
+          const m = f && /^\s*((?:'(?:[^']|'')+'|[A-Za-z_][A-Za-z0-9_.]*)!)?\$?([A-Za-z]{1,3})\$?(\d+)\s*$/.exec(f);
+          if (!m) break;
+          ({ sheet, address } = splitReference(`${m[1] ?? ""}${m[2].toUpperCase()}${m[3]}`, sheet));
+        }
+        const key = ref(sheet, address);
+        const { row: rr, col } = parseAddress(address);
+        const cell = getCell(wb, sheet, rr, col);
+        if (inputSeen.has(key) || !cell || cell.formula) return;
+        inputSeen.add(key);
+        const name = CATALOG_BY_ID.get(call.id)?.params[k]?.name;
+        const arg = view?.args.find((a) => a.name === name);
+        const readAs = arg ? `NAPPE.${call.id} ${arg.name}: ${arg.value}${arg.unit && !arg.value.endsWith(arg.unit) ? ` ${arg.unit}` : ""}` : "";
+        inputs.push({ cell: key, label: labelOf(labels, sheet, address), value: formatCell(cell.value), exact: typeof cell.value === "number" ? exactNumber(cell.value) : String(cell.value ?? ""), readAs });
+      });
+    });
+  });
+  return { basis, results, inputs };
+}
