@@ -144,8 +144,21 @@ describe("the nappe command", () => {
     const audit = new ExcelJS.Workbook();
     await audit.xlsx.readFile(join(dir, "out", "audit.xlsx"));
     const ws = audit.getWorksheet("Nappe audit")!;
-    expect(ws.getRow(5).values).toContain("Inputs (as written → as read)");
+    // Summary first: the key results and the inputs come before the table of every formula.
+    const firstCells = (ws.getColumn(1).values as unknown[]).map((v) => (v === undefined || v === null ? "" : String(v)));
+    const keyAt = firstCells.indexOf("Key results");
+    const inputsAt = firstCells.indexOf("Inputs");
+    const headerAt = [...Array(ws.rowCount).keys()].map((i) => i + 1).find((i) => (ws.getRow(i).values as unknown[]).includes("Inputs (as written → as read)"))!;
+    expect(keyAt).toBeGreaterThan(0);
+    expect(inputsAt).toBeGreaterThan(keyAt);
+    expect(headerAt).toBeGreaterThan(inputsAt);
+    expect(ws.getRow(headerAt).values).toContain("Exact");
+    expect(ws.getCell(2, 1).value).toMatch(/^Workbook: demo\.xlsx · \d{1,2} [A-Z][a-z]+ \d{4}, \d\d:\d\d UTC · /);
     expect(ws.rowCount).toBeGreaterThan(30);
+    expect(html.indexOf("<h2>Key results</h2>")).toBeGreaterThan(0);
+    expect(html.indexOf("<h2>Key results</h2>")).toBeLessThan(html.indexOf("<h2>Inputs</h2>"));
+    expect(html.indexOf("<h2>Inputs</h2>")).toBeLessThan(html.indexOf('<h3 class="cell">'));
+    expect(html).toMatch(/Workbook: <strong>demo\.xlsx<\/strong> · \d{1,2} [A-Z][a-z]+ \d{4}, \d\d:\d\d UTC/);
     expect(readdirSync(join(dir, "out")).filter((f) => f.endsWith(".tmp"))).toEqual([]);
   });
   it("renders workbook text with markup as text in the HTML report", async () => {

@@ -6,7 +6,7 @@
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import { addressOf, parseAddress } from "../workbook/address";
 import { OfficeHost } from "../taskpane/host/office";
-import { checkWorkbook } from "../taskpane/workbookCheck";
+import { auditOf, checkWorkbook } from "../taskpane/workbookCheck";
 import { explainCell } from "../taskpane/explain";
 import { run } from "./helpers";
 
@@ -91,6 +91,9 @@ function install() {
   const sheetByName = (n: string) => fake.sheets.find((s) => s.name === n && !s.deleted)!;
   const context = {
     workbook: {
+      // Workbook.name (ExcelApi 1.7): the file name the audit shows.
+      name: "Station sizing.xlsx",
+      load() {},
       getActiveCell: () => sheetByName(fake.active.sheet).getRange(fake.active.address),
       onSelectionChanged: { add: (h: () => void) => fake.handlers.push(h) },
       names: { items: [{ name: "Flow", formula: "=Calc!$B$1" }], load() {} },
@@ -171,6 +174,8 @@ describe("Office.js adapter (against a stand-in for Excel's API)", () => {
       const check = await checkWorkbook(new OfficeHost());
       expect(check.rows).toHaveLength(20 * perSheet + 1);
       expect(check.rows.filter((r) => r.status === "error").map((r) => `${r.sheet}!${r.address} ${r.note}`)).toEqual([]);
+      // The file name comes in the same first round trip, for the audit's heading.
+      expect(auditOf(check).source).toBe("Station sizing.xlsx");
       return fake.syncs;
     };
     const few = await syncsFor(1);

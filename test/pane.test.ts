@@ -34,8 +34,8 @@ describe("cell explanation", () => {
     expect(e.calls[0].args.map((a) => a.written)).toEqual(["NAPPE.PRESSURE(NAPPE.HEAD(B1, 1000), 1000)", "", '"ft"']);
     expect(e.calls[2].args[0]).toMatchObject({ written: "B1", value: "2 bar", unit: "bar", base: "200000 Pa" });
     // 2 bar = 20.3943 m of water at 1000 kg/m³; the outer HEAD takes water at 20 °C (998.206 kg/m³): 20.431 m.
-    expect(e.calls[0].result).toBe("67.0308 ft");
-    expect(e.calls[0].resultBase).toBe("20.431 m");
+    expect(e.calls[0].result).toBe("67.03 ft"); // 4 significant figures (DESIGN.md)
+    expect(e.calls[0].resultBase).toBe("20.43 m");
     expect(e.calls[0].args.find((a) => a.name === "density")).toMatchObject({ written: "", why: "left out, so the default" });
   });
   it("shows a range with header units as a table with its columns' units", async () => {
@@ -43,7 +43,7 @@ describe("cell explanation", () => {
     const e = await explainCell(host, "Calc", "B28");
     const curve = e.calls[0].args.find((a) => a.name === "curve")!;
     expect(curve.written).toBe("Pump!H3:K9");
-    expect(curve.base).toMatch(/Flow \(m\^3\/h\) → flow in m\^3\/h/);
+    expect(curve.base).toMatch(/Flow \(m\^3\/h\) → flow in m³\/h/); // the header as written, the unit typeset
   });
   it("says what is wrong when a NAPPE call fails", async () => {
     const host = book((ws) => (ws.getCell("A1").value = { formula: 'NAPPE.VELOCITY("1 gpm", "2 psi")' }));
@@ -213,7 +213,7 @@ describe("workbook check and audit sheet", () => {
     expect(names.filter((n) => n === AUDIT_SHEET)).toHaveLength(1);
     expect(host.workbook.sheets.filter((s) => s.name !== AUDIT_SHEET).map((s) => [s.name, s.cells.size])).toEqual(before);
     const { rows, headerRow } = auditSheetRows(auditOf(check, "demo"));
-    expect(rows[headerRow]).toEqual(["Cell", "Formula", "Status", "Result", "Function and purpose", "Inputs (as written → as read)", "Warnings, assumptions, sources, cautions"]);
+    expect(rows[headerRow]).toEqual(["Cell", "Formula", "Status", "Result", "Exact", "Function and purpose", "Inputs (as written → as read)", "Warnings, assumptions, sources, cautions"]);
     const audit = host.workbook.sheets.find((s) => s.name === AUDIT_SHEET)!;
     const text = [...audit.cells.values()].map((c) => String(c.value)).join("\n");
     expect(text).toMatch(/Unit check: Inputs!B14 is labelled/);

@@ -6,10 +6,9 @@
  * reads (the ends of its calculation). Inputs are the constant cells the NAPPE calls read, found
  * through plain references (=Inputs!B4), each with its label and the unit it was read in.
  */
-import { CATALOG_BY_ID } from "../functions/catalog";
-import { parseAddress, splitReference } from "./address";
+import { addressOf, parseAddress, splitReference } from "./address";
 import type { CallView } from "./callView";
-import { exactNumber, formatCell, formatQuantity } from "./format";
+import { exactNumber, formatCell, formatQuantity, shortenQuantityText } from "./format";
 import { references } from "./formula";
 import { type CellModel, type CellValue, findSheet, getCell, type WorkbookModel } from "./model";
 import type { CellOutcome } from "./recalc";
@@ -95,8 +94,13 @@ function readByOthers(wb: WorkbookModel, candidates: readonly CellOutcome[]): Se
   return read;
 }
 
+/** "spills 12 rows": a spilled result stands in a summary line by its size; its table is in its derivation. */
+export function spillsRows(n: number): string {
+  return `spills ${n} ${n === 1 ? "row" : "rows"}`;
+}
+
 function valueText(value: CellValue | CellValue[][], unit: string): { value: string; exact: string } {
-  if (Array.isArray(value)) return { value: `${value.length} rows spilled`, exact: "" };
+  if (Array.isArray(value)) return { value: spillsRows(value.length), exact: "" };
   if (typeof value === "number") return { value: unit ? formatQuantity(value, unit) : formatCell(value), exact: exactNumber(value) };
   return { value: formatCell(value), exact: value === null ? "" : String(value) };
 }
@@ -134,33 +138,43 @@ export function auditSummary(wb: WorkbookModel, outcomes: readonly CellOutcome[]
     basis = "No defined names or \u201cResults\u201d heading: the NAPPE cells no other formula reads.";
   }
 
+  // Cells another formula's spilled result fills are results, not inputs.
+  const spills = wb.sheets.flatMap((sh) => [...sh.cells.values()].filter((c) => c.arrayRef).map((c) => ({ sheet: sh.name, range: c.arrayRef!.split(":").map(parseAddress) })));
+  const spilled = (sheet: string, r: number, c: number) => spills.some((x) => x.sheet === sheet && x.range.length === 2 && r >= x.range[0].row && r <= x.range[1].row && c >= x.range[0].col && c <= x.range[1].col);
   const inputs: AuditSummary["inputs"] = [];
   const inputSeen = new Set<string>();
   outcomes.forEach((o, i) => {
-    o.calls.forEach((call, j) => {
-      const view = views[i]?.[j];
-      call.refs.forEach((r, k) => {
-        if (!r || r.includes(":")) return;
-        let { sheet, address } = splitReference(r, o.sheet);
-        // Follow plain references (=Inputs!B4) to the cell that holds the number.
-        for (let hops = 0; hops < 20; hops++) {
-          const { row: rr, col } = parseAddress(address);
-          const f = getCell(wb, sheet, rr, col)?.formula;
-          const m = f && /^\s*((?:'(?:[^']|'')+'|[A-Za-z_][A-Za-z0-9_.]*)!)?\$?([A-Za-z]{1,3})\$?(\d+)\s*$/.exec(f);
-          if (!m) break;
-          ({ sheet, address } = splitReference(`${m[1] ?? ""}${m[2].toUpperCase()}${m[3]}`, sheet));
+    for (const view of views[i] ?? []) {
+      for (const arg of view.args) {
+        // Every single cell the argument names, also inside an expression (Inputs!B1&" gpm").
+        let named: ReturnType<typeof references> = [];
+        try {
+          named = references(arg.written);
+        } catch {
+          continue;
         }
-        const key = ref(sheet, address);
-        const { row: rr, col } = parseAddress(address);
-        const cell = getCell(wb, sheet, rr, col);
-        if (inputSeen.has(key) || !cell || cell.formula) return;
-        inputSeen.add(key);
-        const name = CATALOG_BY_ID.get(call.id)?.params[k]?.name;
-        const arg = view?.args.find((a) => a.name === name);
-        const readAs = arg ? `NAPPE.${call.id} ${arg.name}: ${arg.value}${arg.unit && !arg.value.endsWith(arg.unit) ? ` ${arg.unit}` : ""}` : "";
-        inputs.push({ cell: key, label: labelOf(labels, sheet, address), value: formatCell(cell.value), exact: typeof cell.value === "number" ? exactNumber(cell.value) : String(cell.value ?? ""), readAs });
-      });
-    });
+        for (const r of named) {
+          if (r.from.row !== r.to.row || r.from.col !== r.to.col || !r.from.row || !r.from.col) continue;
+          let sheet = r.sheet ?? o.sheet;
+          let address = addressOf(r.from.row, r.from.col);
+          // Follow plain references (=Inputs!B4) to the cell that holds the number.
+          for (let hops = 0; hops < 20; hops++) {
+            const at = parseAddress(address);
+            const f = getCell(wb, sheet, at.row, at.col)?.formula;
+            const m = f && /^\s*((?:'(?:[^']|'')+'|[A-Za-z_][A-Za-z0-9_.]*)!)?\$?([A-Za-z]{1,3})\$?(\d+)\s*$/.exec(f);
+            if (!m) break;
+            ({ sheet, address } = splitReference(`${m[1] ?? ""}${m[2].toUpperCase()}${m[3]}`, sheet));
+          }
+          const key = ref(findSheet(wb, sheet)?.name ?? sheet, address);
+          const at = parseAddress(address);
+          const cell = getCell(wb, sheet, at.row, at.col);
+          if (inputSeen.has(key) || !cell || cell.formula || cell.value === null || spilled(cell.sheet, at.row, at.col)) continue;
+          inputSeen.add(key);
+          const readAs = `NAPPE.${view.id} ${arg.name}: ${arg.value}${arg.unit && !arg.value.endsWith(arg.unit) ? ` ${arg.unit}` : ""}`;
+          inputs.push({ cell: key, label: labelOf(labels, cell.sheet, address), value: typeof cell.value === "string" ? shortenQuantityText(cell.value) : formatCell(cell.value), exact: typeof cell.value === "number" ? exactNumber(cell.value) : String(cell.value), readAs });
+        }
+      }
+    }
   });
   return { basis, results, inputs };
 }
