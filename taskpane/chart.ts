@@ -1,6 +1,7 @@
 /** Draws ChartData with Chart.js (MIT): curves, efficiency on a second axis, the operating point; NPSH in a second panel. */
 import { Chart, Legend, LinearScale, LineElement, PointElement, ScatterController, Tooltip } from "chart.js";
 import type { ChartData } from "./chartData";
+import { formatQuantity, formatUnit } from "../workbook/format";
 
 Chart.register(ScatterController, LineElement, PointElement, LinearScale, Legend, Tooltip);
 
@@ -11,7 +12,7 @@ export function drawChart(data: ChartData): HTMLElement {
   const box = document.createElement("div");
   box.className = "chart";
   box.setAttribute("role", "img");
-  box.setAttribute("aria-label", `${data.title}: head against flow${data.operatingPoint ? `, operating point ${data.operatingPoint.x.toPrecision(4)} ${data.flowUnit}, ${data.operatingPoint.y.toPrecision(4)} ${data.headUnit}` : ""}`);
+  box.setAttribute("aria-label", `${data.title}: head against flow${data.operatingPoint ? `, operating point ${formatQuantity(data.operatingPoint.x, data.flowUnit)}, ${formatQuantity(data.operatingPoint.y, data.headUnit)}` : ""}`);
   if (data.operatingPoint) box.dataset.operatingPoint = `${data.operatingPoint.x},${data.operatingPoint.y}`;
   box.dataset.series = data.series.map((s) => s.name).join("|");
   // A case's system curve, operating point and NPSHa share a colour, as a curve's points and line do.
@@ -56,7 +57,7 @@ export function drawChart(data: ChartData): HTMLElement {
         scales: { x: { type: "linear", title: { display: true, text: xTitle } }, y: { type: "linear", position: "left", min: 0, title: { display: true, text: yTitle } }, ...extra },
       },
     });
-  panelChart(main, ["head", "efficiency"], `Flow (${data.flowUnit})`, `Head (${data.headUnit})`, data.efficiencyUnit ? { y2: { type: "linear" as const, position: "right" as const, title: { display: true, text: `Efficiency (${data.efficiencyUnit})` }, grid: { drawOnChartArea: false } } } : {});
+  panelChart(main, ["head", "efficiency"], `Flow (${formatUnit(data.flowUnit)})`, `Head (${formatUnit(data.headUnit)})`, data.efficiencyUnit ? { y2: { type: "linear" as const, position: "right" as const, title: { display: true, text: `Efficiency (${data.efficiencyUnit})` }, grid: { drawOnChartArea: false } } } : {});
   if (data.series.some((s) => s.axis === "npsh")) {
     const panel = document.createElement("div");
     panel.className = "chart npsh-panel";
@@ -66,7 +67,7 @@ export function drawChart(data: ChartData): HTMLElement {
     panel.append(canvas);
     const wrap = document.createElement("div");
     wrap.append(box, panel);
-    panelChart(canvas, ["npsh"], `${data.npshFlowLabel ?? "Flow"} (${data.flowUnit})`, `NPSH (${data.headUnit})`);
+    panelChart(canvas, ["npsh"], `${data.npshFlowLabel ?? "Flow"} (${formatUnit(data.flowUnit)})`, `NPSH (${formatUnit(data.headUnit)})`);
     return wrap;
   }
   return box;

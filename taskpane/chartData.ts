@@ -180,9 +180,9 @@ export function chartFor(records: readonly CallRecord[]): ChartData | undefined 
     const headCol = t.columns.findIndex((c) => c.role === "head");
     series.push({ name: rec.id === "PUMP.SCALE" ? "Scaled curve" : "Combined curve", style: "line", axis: "head", points: rows.map((r) => ({ x: Number(r[flowCol]), y: Number(r[headCol]) })) });
   }
-  if (rec.id === "PUMP.SELECT") {
+  if (rec.id === "PUMP.SELECT" || rec.id === "PUMP.SHORTLIST") {
     for (const imp of impellersFromTable("family", a.family as Table)) series.push(...curveSeries(imp.curve, conv, `Impeller ${imp.label}`, 1, false).filter((s) => s.style === "line"));
-    operatingPoint = { x: conv.q(a.flow as number), y: conv.h(a.head as number) };
+    if (rec.id === "PUMP.SELECT") operatingPoint = { x: conv.q(a.flow as number), y: conv.h(a.head as number) };
   }
   if (["PUMP.HEAD", "PUMP.NPSHR"].includes(rec.id)) operatingPoint = { x: conv.q(a.flow as number), y: conv.h(recBaseResult(rec)) };
   if (rec.id === "PUMP.EFFICIENCY" || rec.id === "PUMP.POWER") {
@@ -205,6 +205,7 @@ export function chartFor(records: readonly CallRecord[]): ChartData | undefined 
   }
   if (rec.id === "PUMP.ENVELOPE") series.push(...envelopeSeries(a, curveFromTable("curve", a.curve as Table), conv));
   if (operatingPoint) series.push({ name: "Operating point", style: "marker", axis: "head", points: [operatingPoint] });
+  if (!series.length) return undefined; // nothing to draw: no empty axes
   return {
     title: `NAPPE.${rec.id}`,
     flowUnit: units.flow,

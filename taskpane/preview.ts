@@ -101,6 +101,9 @@ async function start(): Promise<void> {
   const tabs = document.getElementById("sheet-tabs")!;
   const bar = document.getElementById("formula-bar")!;
   document.getElementById("book-name")!.textContent = json.name;
+  // ?pane=350 sets the pane's width, as Excel gives it (about 280 to 420 px), for looking and for the browser tests.
+  const width = Number(new URLSearchParams(location.search).get("pane"));
+  if (Number.isInteger(width) && width >= 200 && width <= 1000) document.getElementById("app")!.style.width = `${width}px`;
   host.onSelectionChanged(() => {
     void host.selection().then((sel) => {
       if (sel.sheet !== state.sheet) {

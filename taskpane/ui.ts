@@ -351,7 +351,8 @@ function guideDetail(spec: FunctionSpec, target: HTMLElement, ctx: PaneContext):
     target.append(el("h4", "", "Example"), el("code", "formula", example), button);
   }
   target.append(list("Assumptions", spec.assumptions), list("Cautions", spec.cautions, "cautions"), collapsible("Sources", spec.sources));
-  title.focus();
+  title.focus({ preventScroll: true });
+  title.scrollIntoView({ block: "start" });
 }
 
 /** A search box over the functions with the matching ones listed as buttons (the guide, the cross-check). */

@@ -95,7 +95,7 @@ function describeArg(r: ArgReading, written: string, baseUnit: string): ArgView 
   if (r.how === "table") {
     const t = r.value as Table;
     const cols = t.columns.map((c) => `${c.header ?? c.role} → ${c.role} in ${formatUnit(c.unit) || DIMENSIONS[c.dim].baseLabel}${gallonNote(c.unit)}${c.unitFrom === "units row" ? ", unit from the units row" : ""}`).join("; ");
-    return { name: r.name, written, value: `${t.rows} rows`, unit: "", why, base: cols };
+    return { name: r.name, written, value: `${t.rows} ${t.rows === 1 ? "row" : "rows"}`, unit: "", why, base: cols };
   }
   const raw = r.raw === null || r.raw === undefined ? undefined : Array.isArray(r.raw) ? "(range)" : typeof r.raw === "number" ? formatNumber(r.raw) : shortenQuantityText(String(r.raw));
   if (typeof r.value !== "number") return { name: r.name, written, value: raw ?? String(r.value), unit, why, base: String(r.value) };
