@@ -17,6 +17,7 @@ import { formatNumber, formatQuantity, setSignificantFigures, significantFigures
 import { UndoStack } from "./undo";
 import { addressOf, parseAddress } from "../workbook/address";
 import { derivationText } from "../workbook/derivation";
+import { displayFormula } from "../workbook/storedForm";
 import { labelCell, sameInputFixes } from "./sameInput";
 
 const CAUTION_TEXT = GENERAL_CAUTIONS.join(" ");
@@ -339,7 +340,7 @@ function guideDetail(spec: FunctionSpec, target: HTMLElement, ctx: PaneContext):
         const sel = await ctx.port.selection();
         const where = `${sel.sheet}!${sel.address}`;
         const now = await ctx.port.cell(sel.sheet, sel.address);
-        const held = now.formula ? `the formula =${now.formula}` : now.value !== null && now.value !== "" ? `the value ${typeof now.value === "number" ? formatNumber(now.value) : `"${String(now.value)}"`}` : "";
+        const held = now.formula ? `the formula =${displayFormula(now.formula)}` : now.value !== null && now.value !== "" ? `the value ${typeof now.value === "number" ? formatNumber(now.value) : `"${String(now.value)}"`}` : "";
         if (held && !(await askInPane(button, `${where} holds ${held}. Replace it with ${example}? Undo can put it back.`, `Replace ${where}`))) {
           ctx.say(`Left ${where} as it was.`);
           return;
