@@ -64,11 +64,11 @@ math{font-size:1.1em}
 .summary th{background:#0e5463;color:#fff}
 h3.cell{font-size:16px;margin:24px 0 6px;border-top:1px solid #cfe0e4;padding-top:12px}
 .exact{color:#4a6670;font-size:12px}
-table.spill{width:auto}
-table.spill td,table.spill th{text-align:right}
+table.spill{width:auto;max-width:100%}
+table.spill td,table.spill th{text-align:right;overflow-wrap:anywhere}
 table.spill td:first-child,table.spill th:first-child{text-align:left}
 @page{margin:14mm 12mm}
-@media print{body{max-width:none;margin:0;font-size:12px}h2{break-after:avoid}.call,tr{break-inside:avoid}.caution{break-inside:avoid}a{color:inherit}}
+@media print{body{max-width:none;margin:0;font-size:12px}table{font-size:11px}h2{break-after:avoid}.call,tr{break-inside:avoid}.caution{break-inside:avoid}a{color:inherit}}
 `;
 
 /** A spilled result as a small table with its header row and units. */

@@ -11,6 +11,12 @@ import { join } from "node:path";
 import ExcelJS from "exceljs";
 import { type Browser, chromium, type Locator, type Page } from "playwright-core";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { DEMO_FILE } from "../demo/build";
+import { renderHtml } from "../headless/render";
+import { readWorkbook } from "../headless/readXlsx";
+import { buildAudit } from "../workbook/audit";
+import { labelSource } from "../workbook/model";
+import { recalculate } from "../workbook/recalc";
 
 const root = join(__dirname, "..");
 const CHROMIUM = "/usr/bin/chromium";
@@ -347,7 +353,7 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
         const hidden = await p.evaluate(() => {
           const footer = document.querySelector("footer.caution")!.getBoundingClientRect();
           const app = document.getElementById("app")!.getBoundingClientRect();
-          const controls = [...document.querySelectorAll<HTMLElement>("#app button, #app input, #app select, #app textarea, #app summary, #app [tabindex]:not([tabindex='-1'])")].filter((e) => e.offsetParent !== null && !(e as HTMLButtonElement).disabled && e.tabIndex >= 0);
+          const controls = Array.from(document.querySelectorAll<HTMLElement>("#app button, #app input, #app select, #app textarea, #app summary, #app [tabindex]:not([tabindex='-1'])")).filter((e) => e.offsetParent !== null && !(e as HTMLButtonElement).disabled && e.tabIndex >= 0);
           const bad: string[] = [];
           for (const c of controls) {
             c.focus();
@@ -481,6 +487,41 @@ describe.runIf(hasChromium)("cross-check of a hand formula", () => {
     } finally {
       await browser.close();
       preview.server.kill();
+    }
+  }, 60000);
+});
+
+describe.runIf(hasChromium)("the HTML audit report in print", () => {
+  it("opens with the summary and prints on A4 and Letter without anything cut at the right edge (Chromium's print-to-PDF)", async () => {
+    const wb = await readWorkbook(join(root, "demo", DEMO_FILE));
+    const report = buildAudit(recalculate(wb).cells, { title: "Nappe audit: orchard pumping station (invented demo)", source: DEMO_FILE, workbook: wb }, labelSource(wb));
+    const dir = mkdtempSync(join(tmpdir(), "nappe-print-"));
+    const file = join(dir, "audit.html");
+    writeFileSync(file, renderHtml(report));
+    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
+    try {
+      const page = await browser.newPage();
+      await page.goto(`file://${file}`);
+      const headings = await page.locator("h2").allInnerTexts();
+      expect(headings.slice(0, 3)).toEqual(["Key results", "Inputs", "Every NAPPE formula, with its derivation"]);
+      await page.emulateMedia({ media: "print" });
+      // A4 is 210 mm and Letter 8.5 in wide; less the 12 mm margins each side, in CSS px (96 per inch).
+      for (const [format, widthMm] of [["A4", 210], ["Letter", 215.9]] as const) {
+        const printable = Math.floor(((widthMm - 24) / 25.4) * 96);
+        await page.setViewportSize({ width: printable, height: 1000 });
+        const overflow = await page.evaluate(() => {
+          const root = document.documentElement;
+          const wide = Array.from(document.querySelectorAll<HTMLElement>("body *")).filter((e) => e.getBoundingClientRect().right > root.clientWidth + 1 && !e.closest(".equation")).map((e) => `${e.tagName}.${e.className}`);
+          return { page: root.scrollWidth - root.clientWidth, wide: [...new Set(wide)].slice(0, 5) };
+        });
+        expect(overflow, format).toEqual({ page: 0, wide: [] });
+        const pdf = await page.pdf({ format, printBackground: true, margin: { top: "14mm", bottom: "14mm", left: "12mm", right: "12mm" } });
+        const pages = (pdf.toString("latin1").match(/\/Type\s*\/Page[^s]/g) ?? []).length;
+        expect(pages, format).toBeGreaterThan(3);
+        writeFileSync(join(shots, `audit-report-${format}.pdf`), pdf);
+      }
+    } finally {
+      await browser.close();
     }
   }, 60000);
 });
