@@ -5,7 +5,8 @@
  *   nappe audit   <workbook.xlsx> [--html report.html] [--xlsx audit.xlsx] [--text audit.txt] [--allow-empty]
  *   nappe handoff <workbook.xlsx> [--out copy.xlsx]
  *   nappe demo    [--out folder]
- *   (every command reading a workbook also takes --max-seconds 60 --max-memory 1024)
+ *   (every command reading a workbook also takes --max-seconds 60 --max-memory 1024, and
+ *   --digits 4: the significant figures reports and tables show, 2 to 15)
  *
  * Exit status: 0 when every NAPPE cell is ok or only warns; 1 when one errors or differs from
  * the value cached in the file; 2 for a usage error, a file that cannot be read, or a run over
@@ -15,7 +16,7 @@ import { basename, extname, join, resolve } from "node:path";
 import { parseArgs as parseCommandLine } from "node:util";
 import ExcelJS from "exceljs";
 import { buildAudit, GENERAL_CAUTIONS } from "../workbook/audit";
-import { formatUnit, formatValue } from "../workbook/format";
+import { formatUnit, formatValue, setSignificantFigures } from "../workbook/format";
 import { demoWorkbookBytes, DEMO_FILE } from "../demo/build";
 import { writeAtomically } from "./atomic";
 import { writeHandoff } from "./handoff";
@@ -34,6 +35,7 @@ const USAGE = `Usage:
 Options for every command that reads a workbook:
   --max-seconds 60   time budget for reading and recalculating one file
   --max-memory 1024  memory budget in MB
+  --digits 4         significant figures shown (2 to 15); exact values stay in the audit's "Exact" column
 Exit status: 0 ok or warnings only; 1 an error or a value that differs from the file's cache;
 2 usage, unreadable file or budget exceeded; 3 no NAPPE formula found (0 with --allow-empty).`;
 
@@ -56,6 +58,7 @@ interface Options {
     "allow-empty"?: boolean;
     "max-seconds"?: string;
     "max-memory"?: string;
+    digits?: string;
   };
 }
 
@@ -78,6 +81,7 @@ function parseArgs(argv: string[]): Options {
         "allow-empty": { type: "boolean" },
         "max-seconds": { type: "string" },
         "max-memory": { type: "string" },
+        digits: { type: "string" },
       },
     });
   } catch (e) {
@@ -162,6 +166,11 @@ async function writeAudit(wb: WorkbookModel, result: RecalcResult, source: strin
 
 async function main(argv: string[]): Promise<number> {
   const opts = parseArgs(argv);
+  if (opts.flags.digits !== undefined) {
+    const n = Number(opts.flags.digits);
+    if (!(Number.isInteger(n) && n >= 2 && n <= 15)) throw new UsageError(`--digits must be a whole number from 2 to 15; got ${opts.flags.digits}`);
+    setSignificantFigures(n);
+  }
   const { flags } = opts;
   switch (opts.command) {
     case "recalc": {

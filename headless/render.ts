@@ -5,6 +5,7 @@ import { type AuditReport, AUDIT_COLUMNS, AUDIT_WIDTHS, auditSheetRows, NOTHING_
 import { derivationText } from "../workbook/derivation";
 import { formatNumber, formatSpillText, formatUnit, formatValue } from "../workbook/format";
 import type { CellOutcome } from "../workbook/recalc";
+import { spillsRows } from "../workbook/summary";
 
 function clip(text: string, width: number): string {
   return text.length <= width ? text : `${text.slice(0, width - 1)}…`;
@@ -17,9 +18,9 @@ export function renderTable(cells: readonly CellOutcome[]): string {
     c.sheet,
     c.address,
     c.formula,
-    formatValue(c.value),
-    formatUnit(c.unit),
-    c.cached === null ? "" : typeof c.cached === "number" ? formatNumber(c.cached) : String(c.cached),
+    Array.isArray(c.value) ? spillsRows(c.value.length) : formatValue(c.value),
+    Array.isArray(c.value) ? "" : formatUnit(c.unit),
+    c.cached === null || Array.isArray(c.value) ? "" : typeof c.cached === "number" ? formatNumber(c.cached) : String(c.cached),
     c.difference === null ? "" : c.difference === 0 ? "0" : c.difference.toExponential(1),
     c.status,
   ]);

@@ -118,6 +118,16 @@ describe("the nappe command", () => {
     expect(r.stdout).toMatch(/^sheet\s+cell\s+formula\s+value\s+unit\s+cached\s+difference\s+status/m);
     expect(r.stdout).toMatch(/34 NAPPE formulas found in \d+ formulas \(34 recalculated\): \d+ ok, \d+ warning, 0 error/);
   });
+  it("shows 4 significant figures, or as many as --digits asks; a bad --digits is a usage error", async () => {
+    const demoPath = join(root, "demo", DEMO_FILE);
+    const four = await nappe("recalc", demoPath);
+    expect(four.stdout).toMatch(/Calc\s+B9\s+=NAPPE\.HEAD\(Inputs!B10, B5, "m"\)\s+49\.13\s+m\s/); // 480 kPa over ρg at 28 °C (82 °F)
+    const six = await nappe("recalc", demoPath, "--digits", "6");
+    expect(six.stdout).toMatch(/Calc\s+B9\s+=NAPPE\.HEAD\(Inputs!B10, B5, "m"\)\s+49\.128\d\s+m\s/);
+    const bad = await nappe("recalc", demoPath, "--digits", "1");
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(/--digits must be a whole number from 2 to 15; got 1/);
+  });
   it("recalc exits 1 when a cell differs from its cached value, and never modifies the file", async () => {
     const dir = tempDir();
     const { book } = handBuilt();
