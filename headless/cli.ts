@@ -16,7 +16,7 @@ import { basename, extname, join, resolve } from "node:path";
 import { parseArgs as parseCommandLine } from "node:util";
 import ExcelJS from "exceljs";
 import { buildAudit, GENERAL_CAUTIONS } from "../workbook/audit";
-import { formatUnit, formatValue, setSignificantFigures } from "../workbook/format";
+import { formatPercent, formatUnit, formatValue, setSignificantFigures } from "../workbook/format";
 import { demoWorkbookBytes, DEMO_FILE } from "../demo/build";
 import { writeAtomically } from "./atomic";
 import { writeHandoff } from "./handoff";
@@ -236,7 +236,9 @@ async function demo(out: string): Promise<number> {
     for (const label of rows) {
       const value = result.valueOf("Summary", `B${label.row}`);
       const unit = summary.cells.get(`${label.row}:3`)?.value ?? "";
-      console.log(`  ${String(label.value).padEnd(34)} ${formatValue(value).padStart(12)} ${formatUnit(String(unit))}`);
+      // An efficiency held as a fraction reads as percent (DESIGN.md's formatting rule).
+      const shown = unit === "fraction" && typeof value === "number" ? [formatPercent(value).replace(/ %$/, ""), "%"] : [formatValue(value), formatUnit(String(unit))];
+      console.log(`  ${String(label.value).padEnd(34)} ${shown[0].padStart(12)} ${shown[1]}`.trimEnd());
     }
   }
   const flagged = result.cells.filter((c) => c.status !== "ok");

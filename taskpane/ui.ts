@@ -98,7 +98,7 @@ export const MARK = { ok: "✓", warning: "⚠", error: "✕" } as const;
  * Asks inside the pane (browser dialogs are not available in Office panes): a small box after
  * `anchor` says what will happen, with a button to go ahead and one to cancel. Resolves true to go ahead.
  */
-export function askInPane(anchor: HTMLElement, message: string, goAhead: string): Promise<boolean> {
+function askInPane(anchor: HTMLElement, message: string, goAhead: string): Promise<boolean> {
   anchor.parentElement?.querySelector(":scope > .ask")?.remove();
   return new Promise((resolve) => {
     const text = el("p", "", message);

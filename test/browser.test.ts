@@ -327,6 +327,7 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
             await p.getByRole("tab", { name: "Guide" }).click();
             await p.getByRole("searchbox", { name: "Search the functions" }).fill("viscosity");
             await p.getByRole("button", { name: "NAPPE.WATER.KINVISC", exact: true }).click();
+            await containsText(p.locator(".detail h3"), "NAPPE.WATER.KINVISC(");
           },
         ],
         [
@@ -340,7 +341,6 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
       ];
       for (const [name, open] of views) {
         await open();
-        await p.waitForTimeout(200);
         const what = `${width} px, ${name}`;
         // No horizontal overflow of the pane or of its scrolling body.
         const overflow = await p.evaluate(() => {

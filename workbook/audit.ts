@@ -130,8 +130,8 @@ function auditRows(report: AuditReport): string[][] {
 }
 
 /** Headings of the summary blocks that open the audit sheet. */
-export const KEY_RESULTS = "Key results";
-export const INPUTS = "Inputs";
+const KEY_RESULTS = "Key results";
+const INPUTS = "Inputs";
 
 /**
  * The audit sheet, headless or written by the pane, summary first: title, workbook and date with

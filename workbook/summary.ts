@@ -14,7 +14,7 @@ import { type CellModel, type CellValue, findSheet, getCell, type WorkbookModel 
 import type { CellOutcome } from "./recalc";
 import type { LabelSource } from "./unitCheck";
 
-export interface SummaryRow {
+interface SummaryRow {
   /** "Calc!B21". */
   cell: string;
   /** The label beside or above it, or its defined name. */
