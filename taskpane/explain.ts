@@ -9,9 +9,9 @@
 import { CATALOG_BY_ID } from "../functions/catalog";
 import { DIMENSIONS } from "../functions/units/dimensions";
 import { callView, type CallView, pairCalls } from "../workbook/callView";
-import { formatQuantity, formatValue } from "../workbook/format";
+import { exactNumber, formatQuantity, formatValue } from "../workbook/format";
 import { callSites, directPrecedents, evaluationOrder, type PrecedentRef, replaceArgument, type CallSite } from "../workbook/formula";
-import { addressOf, cellKey, type CellModel, type CellValue, parseAddress, type WorkbookModel } from "../workbook/model";
+import { addressOf, cellKey, type CellModel, type CellValue, type DefinedName, parseAddress, type WorkbookModel } from "../workbook/model";
 import { splitReference } from "../workbook/address";
 import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../workbook/recalc";
 import { displayFormula, hasNappeCall, resolveNames } from "../workbook/storedForm";
@@ -44,6 +44,8 @@ export interface CellExplanation {
   address: string;
   formula?: string;
   value: string;
+  /** Every digit of a numeric value, to copy. */
+  exact?: string;
   /** A short message when there is nothing to explain (empty cell, constant, no NAPPE call). */
   message?: string;
   /** An error of the whole formula (parse error, circular reference...). */
@@ -76,7 +78,7 @@ function labelsFrom(reads: CellSnapshot[][][], hasLeft: boolean): string[] {
 }
 
 /** Reads the formula's direct precedents from the host into a small workbook model. */
-async function snapshot(port: HostPort, sheet: string, address: string, formula: string): Promise<{ wb: WorkbookModel; labels: Map<string, string[]>; formats: Map<string, string | undefined>; formulas: Map<string, string> }> {
+async function snapshot(port: HostPort, sheet: string, address: string, formula: string, names: DefinedName[]): Promise<{ wb: WorkbookModel; labels: Map<string, string[]>; formats: Map<string, string | undefined>; formulas: Map<string, string> }> {
   const target = parseAddress(address);
   const wb: WorkbookModel = { sheets: [] };
   const sheetModel = (name: string) => {
@@ -87,7 +89,6 @@ async function snapshot(port: HostPort, sheet: string, address: string, formula:
   const put = (c: CellModel) => sheetModel(c.sheet).cells.set(cellKey(c.row, c.col), c);
   put({ sheet, address, row: target.row, col: target.col, value: null, formula });
   // Defined names go with the snapshot, and their cells are read like any other precedent.
-  const names = await port.definedNames();
   if (names.length) wb.names = names;
   let refs: PrecedentRef[] = [];
   try {
@@ -200,7 +201,7 @@ function explainCall(rec: CallRecord, site: CallSite | undefined, formula: strin
 async function workbookNpsha(port: HostPort): Promise<{ value: number; cell: string } | undefined> {
   const cells = (await port.nappeFormulaCells()).filter((c) => /\bNAPPE\.NPSHA\s*\(/i.test(displayFormula(c.formula)));
   for (const c of cells) {
-    const snap = await snapshot(port, c.sheet, c.address, c.formula);
+    const snap = await snapshot(port, c.sheet, c.address, c.formula, (await port.cellAndNames(c.sheet, c.address)).names);
     const { row, col } = parseAddress(c.address);
     const computed = new Recalculation(snap.wb).compute(snap.wb.sheets.find((s) => s.name === c.sheet)!.cells.get(cellKey(row, col))!);
     const call = computed.calls.find((x) => x.id === "NPSHA" && x.evaluation);
@@ -240,7 +241,7 @@ export async function explainCell(port: HostPort, sheet: string, address: string
 
 /** Evaluates the cell's formula over a snapshot of its precedents and explains every NAPPE call. */
 export async function analyseCell(port: HostPort, sheet: string, address: string, shared: AnalysisCache = {}): Promise<CellAnalysis> {
-  const cell = await port.cell(sheet, address);
+  const { cell, names } = await port.cellAndNames(sheet, address);
   const base = { sheet, address, value: formatValue(cell.value), calls: [] as CallExplanation[] };
   if (!cell.formula) {
     if (cell.value === null || cell.value === "") return { labels: NO_LABELS, explanation: { ...base, message: "Empty cell. Select a cell with a NAPPE formula to see its equation, inputs and units." } };
@@ -256,7 +257,7 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
   } catch {
     sites = [];
   }
-  const snap = await snapshot(port, sheet, address, formula);
+  const snap = await snapshot(port, sheet, address, formula, names);
   const engine = new Recalculation(snap.wb);
   const { row, col } = parseAddress(address);
   const model = snap.wb.sheets.find((s) => s.name === sheet)!.cells.get(cellKey(row, col))!;
@@ -281,5 +282,5 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
   // The value line carries the unit of a single NAPPE call; a spilled result is labelled in its call's card.
   const v = computed.value as CellValue | CellValue[][];
   const value = Array.isArray(v) ? `spills ${v.length} ${v.length === 1 ? "row" : "rows"} (the table is in the call below)` : typeof v === "number" && outcome.unit ? formatQuantity(v, outcome.unit) : formatValue(v);
-  return { labels, outcome, explanation: { ...base, formula: displayFormula(formula), value, error, calls, chart } };
+  return { labels, outcome, explanation: { ...base, formula: displayFormula(formula), value, ...(typeof v === "number" ? { exact: exactNumber(v) } : {}), error, calls, chart } };
 }

@@ -291,7 +291,7 @@ function renderCell(target: HTMLElement, cell: CellExplanation, ctx: PaneContext
   target.replaceChildren();
   target.append(el("h2", "cell-address", `${cell.sheet}!${cell.address}`));
   if (cell.formula) target.append(el("code", "formula", `=${cell.formula}`));
-  if (cell.value !== "") target.append(el("p", "value", "Value: ", el("strong", "", cell.value)));
+  if (cell.value !== "") target.append(el("p", "value", "Value: ", el("strong", "", cell.value), cell.exact && cell.exact !== cell.value ? el("span", "why", ` (exact ${cell.exact})`) : ""));
   if (cell.message) target.append(el("p", "message", cell.message));
   if (cell.formula && !cell.calls.length && !cell.error) target.append(crossCheckView(cell, ctx));
   if (cell.error) target.append(el("p", "status error", `${MARK.error} ${cell.error}`));

@@ -6,7 +6,7 @@
  */
 import { GENERAL_CAUTIONS } from "../functions/catalog/_shared";
 import { callView, type CallView, pairCalls } from "./callView";
-import { exactNumber, formatQuantity, formatValue } from "./format";
+import { exactNumber, formatQuantity, formatSpillText, formatValue } from "./format";
 import type { WorkbookModel } from "./model";
 import { type AuditSummary, auditSummary, spillsRows } from "./summary";
 import { callSites, evaluationOrder } from "./formula";
@@ -120,7 +120,7 @@ function auditRows(report: AuditReport): string[][] {
         i === 0 ? e.status : "",
         i === 0 ? e.result : "",
         i === 0 ? e.exact : "",
-        c ? [`NAPPE.${c.id}: ${c.purpose}${c.result && e.calls.length > 1 ? ` = ${c.result}` : ""}`, ...(c.substituted ? [c.substituted] : []), ...c.steps.map((s) => `${s.symbol} = ${s.value} (${s.name})`)].join("\n") : "",
+        c ? [`NAPPE.${c.id}: ${c.purpose}${c.result && e.calls.length > 1 ? ` = ${c.result}` : ""}`, ...(c.substituted ? [c.substituted] : []), ...c.steps.map((s) => `${s.symbol} = ${s.value} (${s.name})`), ...(c.table ? [formatSpillText(c.table)] : [])].join("\n") : "",
         c ? c.args.map(argLine).join("\n") : "",
         notes.join("\n"),
       ]);

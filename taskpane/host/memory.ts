@@ -130,8 +130,8 @@ export class MemoryHost implements HostPort {
     return this.workbook;
   }
 
-  async definedNames(): Promise<DefinedName[]> {
-    return this.workbook.names ?? [];
+  async cellAndNames(sheet: string, address: string): Promise<{ cell: CellSnapshot; names: DefinedName[] }> {
+    return { cell: await this.cell(sheet, address), names: this.workbook.names ?? [] };
   }
 
   async select(sheet: string, address: string): Promise<void> {

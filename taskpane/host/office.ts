@@ -29,7 +29,15 @@ function localAddress(address: string): string {
  * after a sync, `sheetNames()` queues each sheet's own names and returns the reader to call
  * after the next sync. Callers may queue more in either round trip.
  */
-function queueNames(context: Excel.RequestContext): { sheets: Excel.WorksheetCollection; sheetNames(): () => DefinedName[] } {
+/** True when a formula names something on another sheet that is not a cell or range ('Pump data'!Curve): a sheet-scoped name. */
+export function namesAnotherSheet(formula: string): boolean {
+  for (const m of formula.matchAll(/!(\$?[A-Za-z_\\][A-Za-z0-9_.]*\$?\d*)/g)) {
+    if (!/^\$?[A-Za-z]{1,3}\$?\d+$/.test(m[1]) && !/^\$?[A-Za-z]{1,3}$/.test(m[1])) return true;
+  }
+  return false;
+}
+
+function queueNames(context: Excel.RequestContext): { sheets: Excel.WorksheetCollection; bookNames(): DefinedName[]; sheetNames(): () => DefinedName[] } {
   const book = context.workbook.names;
   book.load("items/name,items/formula");
   const sheets = context.workbook.worksheets;
@@ -37,6 +45,7 @@ function queueNames(context: Excel.RequestContext): { sheets: Excel.WorksheetCol
   const refersTo = (formula: unknown) => String(formula).replace(/^=/, "");
   return {
     sheets,
+    bookNames: () => book.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula) })),
     sheetNames() {
       const scoped = sheets.items.map((ws) => {
         const names = ws.names;
@@ -218,13 +227,24 @@ export class OfficeHost implements HostPort {
     });
   }
 
-  async definedNames(): Promise<DefinedName[]> {
+  async cellAndNames(sheet: string, address: string): Promise<{ cell: CellSnapshot; names: DefinedName[] }> {
     return Excel.run(async (context) => {
+      const r = context.workbook.worksheets.getItem(sheet).getRange(address);
+      r.load("formulas, values, numberFormat");
       const names = queueNames(context);
+      const own = context.workbook.worksheets.getItem(sheet).names;
+      own.load("items/name,items/formula");
+      // One round trip: the cell, the workbook's names and the names its own sheet scopes.
       await context.sync();
+      const cell = snapshot(r.formulas[0][0], r.values[0][0], r.numberFormat[0][0]);
+      const book = names.bookNames();
+      if (!namesAnotherSheet(cell.formula ?? "")) {
+        return { cell, names: [...book, ...own.items.map((n) => ({ name: n.name, refersTo: String(n.formula).replace(/^=/, ""), sheet }))] };
+      }
+      // A name qualified by another sheet ('Pump data'!Curve): every sheet's names, one more round trip.
       const read = names.sheetNames();
       await context.sync();
-      return read();
+      return { cell, names: read() };
     });
   }
 

@@ -40,8 +40,11 @@ export interface HostPort {
   setFormula(sheet: string, address: string, formula: string): Promise<void>;
   /** Writes a constant (a label's text, a number) into one cell, replacing any formula there. */
   setValue(sheet: string, address: string, value: string | number): Promise<void>;
-  /** The workbook's defined names, workbook-scoped and sheet-scoped. */
-  definedNames(): Promise<DefinedName[]>;
+  /**
+   * A cell and the defined names its formula can use (the workbook's and its own sheet's; every
+   * sheet's when the formula qualifies a name by another sheet), in one round trip where it can.
+   */
+  cellAndNames(sheet: string, address: string): Promise<{ cell: CellSnapshot; names: DefinedName[] }>;
   /**
    * Every sheet's used range (values, formulas, number formats) and the defined names, read in
    * as few round trips as the host allows, as a workbook model to analyse in memory. The values
