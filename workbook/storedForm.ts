@@ -27,10 +27,24 @@ interface NameToken {
   end: number;
 }
 
+const NAME_START = /[A-Za-z_]/;
+const NAME_BEFORE = /[A-Za-z0-9_.!$]/;
+const NONE: readonly NameToken[] = Object.freeze([]);
+
+/**
+ * The function names of formulas seen lately: a recalculation asks about each formula several
+ * times (is it NAPPE, another add-in's, unknown; its stored and displayed forms). Bounded.
+ */
+const scanned = new Map<string, readonly NameToken[]>();
+
 /** Splits a formula into the parts outside strings and quoted sheet names, and finds function names. */
-function functionNames(formula: string): NameToken[] {
+function functionNames(formula: string): readonly NameToken[] {
+  if (!formula.includes("(")) return NONE; // no call at all: most plain formulas
+  const hit = scanned.get(formula);
+  if (hit) return hit;
   const out: NameToken[] = [];
   const re = /[A-Za-z_][A-Za-z0-9_.]*(?=\s*\()/y;
+  const word = /[A-Za-z0-9_.]+/y;
   for (let i = 0; i < formula.length; ) {
     const ch = formula[i];
     if (ch === '"' || ch === "'") {
@@ -40,8 +54,7 @@ function functionNames(formula: string): NameToken[] {
       i = j + 1;
       continue;
     }
-    const prev = i > 0 ? formula[i - 1] : "";
-    if (/[A-Za-z_]/.test(ch) && !/[A-Za-z0-9_.!$]/.test(prev)) {
+    if (NAME_START.test(ch) && !(i > 0 && NAME_BEFORE.test(formula[i - 1]))) {
       re.lastIndex = i;
       const m = re.exec(formula);
       if (m) {
@@ -49,13 +62,14 @@ function functionNames(formula: string): NameToken[] {
         i += m[0].length;
         continue;
       }
-      const word = /[A-Za-z0-9_.]+/y;
       word.lastIndex = i;
       i += word.exec(formula)?.[0].length ?? 1;
       continue;
     }
     i++;
   }
+  if (scanned.size >= 20000) scanned.clear();
+  scanned.set(formula, out);
   return out;
 }
 
