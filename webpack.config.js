@@ -50,7 +50,8 @@ export default async (env, argv) => {
       taskpane: "./taskpane/taskpane.ts",
       preview: "./taskpane/preview.ts",
     },
-    output: { path: path.join(root, "dist"), filename: "[name].js", clean: true },
+    // Chart.js is its own chunk (chart.chunk.js), loaded the first time a cell has a chart.
+    output: { path: path.join(root, "dist"), filename: "[name].js", chunkFilename: "[name].chunk.js", clean: true },
     resolve: {
       extensions: [".ts", ".js"],
       // The pane's workbook model is pure; Node-only modules of the headless command stay out.

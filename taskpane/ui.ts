@@ -7,7 +7,6 @@ import katex from "katex";
 import { CATALOG } from "../functions/catalog";
 import type { FunctionSpec } from "../functions/catalog/types";
 import { type CallExplanation, type CellExplanation, explainCell } from "./explain";
-import { drawChart } from "./chart";
 import { describeArguments, exampleFormula, searchCatalog, signature } from "./guide";
 import type { HostPort } from "./host/port";
 import { writeAction } from "./actions";
@@ -295,7 +294,15 @@ function renderCell(target: HTMLElement, cell: CellExplanation, ctx: PaneContext
   if (cell.message) target.append(el("p", "message", cell.message));
   if (cell.formula && !cell.calls.length && !cell.error) target.append(crossCheckView(cell, ctx));
   if (cell.error) target.append(el("p", "status error", `${MARK.error} ${cell.error}`));
-  if (cell.chart) target.append(drawChart(cell.chart));
+  if (cell.chart) {
+    // Chart.js loads when a cell first has a chart, not with the pane: a slot of the chart's height waits for it.
+    const chart = cell.chart;
+    const slot = el("div", "chart chart-slot");
+    target.append(slot);
+    import(/* webpackChunkName: "chart" */ "./chart")
+      .then(({ drawChart }) => slot.replaceWith(drawChart(chart)))
+      .catch((e: unknown) => slot.replaceWith(el("p", "status error", `${MARK.error} Could not draw the chart: ${e instanceof Error ? e.message : String(e)}`)));
+  }
   for (const call of cell.calls) target.append(callCard(call, cell, ctx, refresh));
   if (cell.calls.length && cell.formula) target.append(copyAsText(cell, ctx));
 }
