@@ -12,6 +12,7 @@ import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAdd
 import { sheetPrefix } from "./address";
 import { displayFormula, dottedName, expandLet, externalLinkIndexes, hasNappeCall, otherAddinFunctions, resolveNames, UDF_PREFIX, unknownNappeFunctions } from "./storedForm";
 import { EXTRA_FUNCTIONS } from "./extraFunctions";
+import { formatNumber } from "./format";
 
 /** One NAPPE call made while computing a cell. */
 export interface CallRecord {
@@ -523,7 +524,8 @@ export function outcomeFor(cell: CellModel, computed: Computed, tolerance = 1e-6
     difference = relativeDifference(shown, cell.value);
     if (difference > tolerance) {
       status = "error";
-      messages.push(`differs from the value cached in the file (${cell.value}) by ${(difference * 100).toPrecision(3)} %`);
+      // The cached value in full: the difference may sit beyond the figures views show.
+      messages.push(`differs from the value cached in the file (${cell.value}) by ${formatNumber(difference * 100, 3)} %`);
     }
   } else if (cell.value !== null && shown !== cell.value && !computed.error) {
     status = "error";
