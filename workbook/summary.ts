@@ -67,19 +67,22 @@ function underResultsHeadings(wb: WorkbookModel): CellModel[] {
   return found;
 }
 
+/** The references a formula's text names; none when the text cannot be read as a formula. */
+function referencesIn(text: string): ReturnType<typeof references> {
+  try {
+    return references(text);
+  } catch {
+    return [];
+  }
+}
+
 /** Cells some formula of the workbook reads, as "Sheet!A1" (ranges expanded only for NAPPE cells asked about). */
 function readByOthers(wb: WorkbookModel, candidates: readonly CellOutcome[]): Set<string> {
   const read = new Set<string>();
   for (const sheet of wb.sheets) {
     for (const cell of sheet.cells.values()) {
       if (!cell.formula) continue;
-      let refs: ReturnType<typeof references> = [];
-      try {
-        refs = references(cell.formula);
-      } catch {
-        continue;
-      }
-      for (const r of refs) {
+      for (const r of referencesIn(cell.formula)) {
         const target = r.sheet ?? sheet.name;
         for (const c of candidates) {
           if (c.sheet.toLowerCase() !== target.toLowerCase() || (c.sheet === sheet.name && c.address === cell.address)) continue;
@@ -147,13 +150,7 @@ export function auditSummary(wb: WorkbookModel, outcomes: readonly CellOutcome[]
     for (const view of views[i] ?? []) {
       for (const arg of view.args) {
         // Every single cell the argument names, also inside an expression (Inputs!B1&" gpm").
-        let named: ReturnType<typeof references> = [];
-        try {
-          named = references(arg.written);
-        } catch {
-          continue;
-        }
-        for (const r of named) {
+        for (const r of referencesIn(arg.written)) {
           if (r.from.row !== r.to.row || r.from.col !== r.to.col || !r.from.row || !r.from.col) continue;
           let sheet = r.sheet ?? o.sheet;
           let address = addressOf(r.from.row, r.from.col);
