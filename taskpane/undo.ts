@@ -25,7 +25,8 @@ async function hold(port: HostPort, cells: readonly { sheet: string; address: st
   const out: Held[] = [];
   for (const c of cells) {
     const now = await port.cell(c.sheet, c.address);
-    out.push(now.formula ? { ...c, formula: now.formula, value: "" } : { ...c, value: now.value ?? "" });
+    const at = { sheet: c.sheet, address: c.address };
+    out.push(now.formula ? { ...at, formula: now.formula, value: "" } : { ...at, value: now.value ?? "" });
   }
   return out;
 }
