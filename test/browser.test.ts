@@ -349,6 +349,8 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
           return { app: app.scrollWidth - app.clientWidth, body: body.scrollWidth - body.clientWidth };
         });
         expect(overflow, what).toEqual({ app: 0, body: 0 });
+        // The screenshot before the keyboard walk below scrolls the view.
+        await p.locator("#app").screenshot({ path: join(shots, `pane-${width}-${name}.png`) });
         // Every control reached with Tab is visible, inside the pane, and never under the caution footer.
         const hidden = await p.evaluate(() => {
           const footer = document.querySelector("footer.caution")!.getBoundingClientRect();
@@ -373,7 +375,6 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
           return r.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id} (${v.impact}): ${v.nodes.slice(0, 3).map((n) => n.target.join(" ")).join(", ")}`);
         });
         expect(violations, what).toEqual([]);
-        await p.locator("#app").screenshot({ path: join(shots, `pane-${width}-${name}.png`) });
       }
       expect(pageErrors).toEqual([]);
       await context.close();
