@@ -12,7 +12,7 @@ import { exactNumber, formatCell, formatQuantity, shortenQuantityText } from "./
 import { references } from "./formula";
 import { type CellModel, type CellValue, findSheet, getCell, type WorkbookModel } from "./model";
 import type { CellOutcome } from "./recalc";
-import type { LabelSource } from "./unitCheck";
+import { type LabelSource, referenceChain } from "./unitCheck";
 
 interface SummaryRow {
   /** "Calc!B21". */
@@ -146,22 +146,18 @@ export function auditSummary(wb: WorkbookModel, outcomes: readonly CellOutcome[]
   const spilled = (sheet: string, r: number, c: number) => spills.some((x) => x.sheet === sheet && x.range.length === 2 && r >= x.range[0].row && r <= x.range[1].row && c >= x.range[0].col && c <= x.range[1].col);
   const inputs: AuditSummary["inputs"] = [];
   const inputSeen = new Set<string>();
+  const formulas = { formula: (sheet: string, row: number, col: number) => getCell(wb, sheet, row, col)?.formula };
   outcomes.forEach((o, i) => {
     for (const view of views[i] ?? []) {
       for (const arg of view.args) {
         // Every single cell the argument names, also inside an expression (Inputs!B1&" gpm").
         for (const r of referencesIn(arg.written)) {
           if (r.from.row !== r.to.row || r.from.col !== r.to.col || !r.from.row || !r.from.col) continue;
-          let sheet = r.sheet ?? o.sheet;
-          let address = addressOf(r.from.row, r.from.col);
           // Follow plain references (=Inputs!B4) to the cell that holds the number.
-          for (let hops = 0; hops < 20; hops++) {
-            const at = parseAddress(address);
-            const f = getCell(wb, sheet, at.row, at.col)?.formula;
-            const m = f && /^\s*((?:'(?:[^']|'')+'|[A-Za-z_][A-Za-z0-9_.]*)!)?\$?([A-Za-z]{1,3})\$?(\d+)\s*$/.exec(f);
-            if (!m) break;
-            ({ sheet, address } = splitReference(`${m[1] ?? ""}${m[2].toUpperCase()}${m[3]}`, sheet));
-          }
+          const chain = referenceChain(formulas, r.sheet ?? o.sheet, r.from.row, r.from.col);
+          const end = chain[chain.length - 1];
+          const sheet = end.sheet;
+          const address = addressOf(end.row, end.col);
           const key = ref(findSheet(wb, sheet)?.name ?? sheet, address);
           const at = parseAddress(address);
           const cell = getCell(wb, sheet, at.row, at.col);

@@ -27,7 +27,7 @@ const PLAIN_REFERENCE = /^\s*((?:'(?:[^']|'')+'|[A-Za-z_][A-Za-z0-9_.]*)!)?\$?([
  * Where a cell's number comes from: the cell itself, or, while its formula is a plain reference
  * (=Inputs!B14), the cell it copies. Returns each cell on the way, the cell itself first.
  */
-function referenceChain(labels: LabelSource, sheet: string, row: number, col: number): { sheet: string; row: number; col: number }[] {
+export function referenceChain(labels: Pick<LabelSource, "formula">, sheet: string, row: number, col: number): { sheet: string; row: number; col: number }[] {
   const chain = [{ sheet, row, col }];
   for (let i = 0; i < 10; i++) {
     const here = chain[chain.length - 1];

@@ -37,15 +37,20 @@ export function namesAnotherSheet(formula: string): boolean {
   return false;
 }
 
+/** What a defined name refers to, without the "=" Excel gives it. */
+function refersTo(formula: unknown): string {
+  return String(formula).replace(/^=/, "");
+}
+
 function queueNames(context: Excel.RequestContext): { sheets: Excel.WorksheetCollection; bookNames(): DefinedName[]; sheetNames(): () => DefinedName[] } {
   const book = context.workbook.names;
   book.load("items/name,items/formula");
   const sheets = context.workbook.worksheets;
   sheets.load("items/name");
-  const refersTo = (formula: unknown) => String(formula).replace(/^=/, "");
+  const bookNames = () => book.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula) }));
   return {
     sheets,
-    bookNames: () => book.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula) })),
+    bookNames,
     sheetNames() {
       const scoped = sheets.items.map((ws) => {
         const names = ws.names;
@@ -53,7 +58,7 @@ function queueNames(context: Excel.RequestContext): { sheets: Excel.WorksheetCol
         return { sheet: ws.name, names };
       });
       return () => [
-        ...book.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula) })),
+        ...bookNames(),
         ...scoped.flatMap(({ sheet, names }) => names.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula), sheet }))),
       ];
     },
@@ -239,7 +244,7 @@ export class OfficeHost implements HostPort {
       const cell = snapshot(r.formulas[0][0], r.values[0][0], r.numberFormat[0][0]);
       const book = names.bookNames();
       if (!namesAnotherSheet(cell.formula ?? "")) {
-        return { cell, names: [...book, ...own.items.map((n) => ({ name: n.name, refersTo: String(n.formula).replace(/^=/, ""), sheet }))] };
+        return { cell, names: [...book, ...own.items.map((n) => ({ name: n.name, refersTo: refersTo(n.formula), sheet }))] };
       }
       // A name qualified by another sheet ('Pump data'!Curve): every sheet's names, one more round trip.
       const read = names.sheetNames();
