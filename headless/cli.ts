@@ -14,12 +14,9 @@
  */
 import { basename, extname, join, resolve } from "node:path";
 import { parseArgs as parseCommandLine } from "node:util";
-import ExcelJS from "exceljs";
 import { buildAudit, GENERAL_CAUTIONS } from "../workbook/audit";
 import { formatPercent, formatUnit, formatValue, setSignificantFigures } from "../workbook/format";
-import { demoWorkbookBytes, DEMO_FILE } from "../demo/build";
 import { writeAtomically } from "./atomic";
-import { writeHandoff } from "./handoff";
 import { Budget, DEFAULT_LIMITS, type Limits } from "./package";
 import { recalculate, type RecalcResult } from "../workbook/recalc";
 import { addAuditSheet, renderHtml, renderTable, renderText } from "./render";
@@ -158,6 +155,8 @@ async function writeAudit(wb: WorkbookModel, result: RecalcResult, source: strin
   const report = buildAudit(result.cells, { title, source, found: summaryLine(result), workbook: wb }, labelSource(wb));
   await writeAtomically(htmlPath, renderHtml(report));
   await writeAtomically(textPath, renderText(report));
+  // exceljs and the demo load only when a command writes a workbook: recalc starts without them.
+  const { default: ExcelJS } = await import("exceljs");
   const book = new ExcelJS.Workbook();
   addAuditSheet(book, report);
   await writeAtomically(xlsxPath, Buffer.from(await book.xlsx.writeBuffer()));
@@ -213,6 +212,7 @@ async function main(argv: string[]): Promise<number> {
         return EXIT_EMPTY;
       }
       const report = buildAudit(result.cells, { title: `Nappe audit of ${basename(opts.file)}`, source: basename(opts.file), found: summaryLine(result), workbook: wb }, labelSource(wb));
+      const { writeHandoff } = await import("./handoff");
       const frozen = await writeHandoff(opts.file, out, result, report, limitsOf(flags));
       console.log(`${summaryLine(result, false, report.counts)}\nHand-off copy written: ${out}\n  ${frozen.nappe} NAPPE formulas frozen to their values${frozen.other ? `, ${frozen.other} formulas of another add-in frozen to their cached values` : ""}; the original is untouched.`);
       return report.counts.error ? 1 : 0;
@@ -226,6 +226,7 @@ async function main(argv: string[]): Promise<number> {
 
 /** The main job: build the demo workbook, recalculate it, print the sizing summary, write the audit. */
 async function demo(out: string): Promise<number> {
+  const { demoWorkbookBytes, DEMO_FILE } = await import("../demo/build");
   const path = join(out, DEMO_FILE);
   await writeAtomically(path, await demoWorkbookBytes());
   const { wb, result } = await load(path, {});
@@ -247,6 +248,7 @@ async function demo(out: string): Promise<number> {
   console.log(`\nWarnings and checks (${flagged.length + unitFindings.length}):`);
   for (const c of flagged) for (const m of c.messages) console.log(`  ${c.sheet}!${c.address}: ${m}`);
   for (const m of unitFindings) console.log(`  ${m}`);
+  const { writeHandoff } = await import("./handoff");
   await writeHandoff(path, join(out, "orchard-handoff.xlsx"), result, report, DEFAULT_LIMITS);
   console.log(`\n${summaryLine(result, false, report.counts)} (with the unit check)`);
   console.log(`Workbook: ${path}\nAudit report: ${join(out, "orchard-audit.html")}\nAudit sheet:  ${join(out, "orchard-audit.xlsx")}\nAudit text:   ${join(out, "orchard-audit.txt")}\nHand-off copy (values, no add-in needed): ${join(out, "orchard-handoff.xlsx")}`);

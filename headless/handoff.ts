@@ -13,7 +13,7 @@ import { type AuditReport, GENERAL_CAUTIONS } from "../workbook/audit";
 import { formatQuantity, formatValue } from "../workbook/format";
 import { writeAtomically } from "./atomic";
 import { addressOf, type CellValue, parseAddress } from "../workbook/model";
-import { type Limits, openPackage } from "./package";
+import { type Limits, openPackage, trimPackage } from "./package";
 import type { CellOutcome, RecalcResult } from "../workbook/recalc";
 import { addAuditSheet } from "./render";
 import { hasNappeCall, otherAddinFunctions } from "../workbook/storedForm";
@@ -38,7 +38,7 @@ function note(outcome: CellOutcome, when: string): string {
 export async function writeHandoff(source: string, target: string, result: RecalcResult, report: AuditReport, limits: Limits): Promise<{ nappe: number; other: number }> {
   const bytes = await readFile(source);
   // The same trimmed package the recalculation read: whole-sheet rules would expand cell by cell.
-  const pkg = await openPackage(bytes, source, limits);
+  const pkg = await trimPackage(await openPackage(bytes, source, limits));
   const book = new ExcelJS.Workbook();
   await book.xlsx.load((pkg.trimmed.length ? pkg.bytes : bytes) as unknown as ArrayBuffer);
   const when = new Date().toISOString().replace(/\.\d+Z$/, "Z");

@@ -1,9 +1,10 @@
 /**
- * The .xlsx package before exceljs sees it: checks that it is a workbook at all, keeps its size
- * within the memory budget, reads what exceljs would expand cell by cell (defined names) or
- * does not read (external links), and takes out the parts that exceljs expands cell by cell but
- * a recalculation never needs (data validations, conditional formats, very large merges), so
- * that a whole-sheet rule costs nothing. The original bytes are never changed on disk.
+ * The .xlsx package: checks that it is a workbook at all, keeps its size within the memory
+ * budget, reads its defined names and external links, and finds its worksheets' parts in the
+ * workbook's order (headless/sheetXml.ts reads their cells). For the hand-off copy, which exceljs
+ * writes, `trimPackage` takes out the parts that exceljs expands cell by cell but the copy never
+ * needs (data validations, conditional formats, very large merges), so that a whole-sheet rule
+ * costs nothing. The original bytes are never changed on disk.
  */
 import JSZip from "jszip";
 import type { DefinedName } from "../workbook/model";
@@ -46,19 +47,24 @@ export class Budget {
 }
 
 /**
- * Reading an .xlsx with exceljs takes about this many bytes of memory per byte of sheet XML
- * (measured by bench on generated sheets; a safe upper figure).
+ * Reading and recalculating an .xlsx takes at most about this many bytes of memory per byte of
+ * sheet XML (a safe upper figure: the 40 000-formula workbook of the bench, 2.5 MB of sheet XML,
+ * peaks near 170 MB with Node itself included).
  */
 const MEMORY_PER_XML_BYTE = 12;
 
 interface PackageContents {
-  /** The package with the parts a recalculation does not need taken out, for exceljs. */
-  bytes: Buffer;
+  zip: JSZip;
+  /** xl/workbook.xml as stored. */
+  workbookXml: string;
   definedNames: DefinedName[];
   /** External workbooks by their index in formulas ([1] → "prices.xlsx"). */
   externalLinks: Map<number, string>;
-  /** What was taken out that covered more than LARGE_RANGE cells ("Sheet2: data validation over A1:XFD1048576"). */
-  trimmed: string[];
+  /** Worksheets in the workbook's order, with their parts ("xl/worksheets/sheet1.xml"). */
+  sheets: { name: string; path: string }[];
+  /** The shared-strings and styles parts, where the package has them. */
+  sharedStringsPath?: string;
+  stylesPath?: string;
 }
 
 function attr(tag: string, name: string): string | undefined {
@@ -129,14 +135,14 @@ function uncompressedSize(file: JSZip.JSZipObject): number {
   return data?.uncompressedSize ?? 0;
 }
 
-/** Relationship id → target, from a .rels part. */
-async function relationships(zip: JSZip, path: string): Promise<Map<string, string>> {
+/** Relationship id → target and type, from a .rels part. */
+async function relationships(zip: JSZip, path: string): Promise<Map<string, { target: string; type: string }>> {
   const xml = await zip.file(path)?.async("string");
-  const out = new Map<string, string>();
+  const out = new Map<string, { target: string; type: string }>();
   for (const tag of xml?.match(/<Relationship\b[^>]*>/g) ?? []) {
     const id = attr(tag, "Id");
     const target = attr(tag, "Target");
-    if (id && target) out.set(id, target);
+    if (id && target) out.set(id, { target, type: attr(tag, "Type") ?? "" });
   }
   return out;
 }
@@ -149,17 +155,6 @@ function resolvePart(base: string, target: string): string {
     else if (p !== ".") parts.push(p);
   }
   return parts.join("/");
-}
-
-/** Worksheet part path → sheet name. */
-async function sheetPartNames(zip: JSZip, rels: Map<string, string>, names: string[]): Promise<Map<string, string>> {
-  const xml = (await zip.file("xl/workbook.xml")?.async("string")) ?? "";
-  const out = new Map<string, string>();
-  (xml.match(/<(?:\w+:)?sheet\b[^>]*>/g) ?? []).forEach((tag, i) => {
-    const target = rels.get(attr(tag, "r:id") ?? "");
-    if (target) out.set(resolvePart("xl/workbook.xml", target), names[i]);
-  });
-  return out;
 }
 
 /** Opens an .xlsx package (a zip with xl/workbook.xml). Throws WorkbookError for anything else. */
@@ -181,8 +176,9 @@ export async function openPackage(bytes: Buffer, file: string, limits: Limits = 
     throw new BudgetError(`${file}: its ${(xmlBytes / 2 ** 20).toFixed(0)} MB of XML would need about ${needed.toFixed(0)} MB of memory to read, over the memory budget of ${limits.megabytes} MB (raise it with --max-memory)`);
   }
 
-  let workbookXml = await workbookPart.async("string");
-  const sheetNames = (workbookXml.match(/<(?:\w+:)?sheet\b[^>]*>/g) ?? []).map((t) => attr(t, "name") ?? "");
+  const workbookXml = await workbookPart.async("string");
+  const sheetTags = workbookXml.match(/<(?:\w+:)?sheet\b[^>]*>/g) ?? [];
+  const sheetNames = sheetTags.map((t) => attr(t, "name") ?? "");
   const definedNames: DefinedName[] = [];
   for (const m of workbookXml.matchAll(/<(?:\w+:)?definedName\b([^>]*)>([\s\S]*?)<\/(?:\w+:)?definedName>/g)) {
     const name = attr(m[1], "name");
@@ -190,9 +186,6 @@ export async function openPackage(bytes: Buffer, file: string, limits: Limits = 
     const local = attr(m[1], "localSheetId");
     definedNames.push({ name, refersTo: unescapeXml(m[2]).trim(), sheet: local === undefined ? undefined : sheetNames[Number(local)] });
   }
-  // exceljs expands every defined name into its cells: the names are read here instead.
-  workbookXml = workbookXml.replace(element("definedNames"), "");
-  zip.file("xl/workbook.xml", workbookXml);
 
   const externalLinks = new Map<number, string>();
   const rels = await relationships(zip, "xl/_rels/workbook.xml.rels");
@@ -200,21 +193,41 @@ export async function openPackage(bytes: Buffer, file: string, limits: Limits = 
   for (const [i, tag] of refs.entries()) {
     const part = rels.get(attr(tag, "r:id") ?? "");
     if (!part) continue;
-    const path = resolvePart("xl/workbook.xml", part);
+    const path = resolvePart("xl/workbook.xml", part.target);
     const linkRels = await relationships(zip, path.replace(/([^/]+)$/, "_rels/$1.rels"));
-    externalLinks.set(i + 1, [...linkRels.values()][0] ?? path);
+    externalLinks.set(i + 1, [...linkRels.values()][0]?.target ?? path);
   }
 
+  const sheets: { name: string; path: string }[] = [];
+  sheetTags.forEach((tag, i) => {
+    const rel = rels.get(attr(tag, "r:id") ?? "");
+    // Chart sheets and dialog sheets hold no cells.
+    if (rel && /\/worksheet$/.test(rel.type)) sheets.push({ name: sheetNames[i], path: resolvePart("xl/workbook.xml", rel.target) });
+  });
+  const partOf = (type: string) => {
+    const rel = [...rels.values()].find((r) => r.type.endsWith(`/${type}`));
+    return rel ? resolvePart("xl/workbook.xml", rel.target) : undefined;
+  };
+  return { zip, workbookXml, definedNames, externalLinks, sheets, sharedStringsPath: partOf("sharedStrings"), stylesPath: partOf("styles") };
+}
+
+/**
+ * The package as exceljs should load it for the hand-off copy, with what exceljs would expand
+ * cell by cell taken out (defined names among them), and a description of each large thing taken
+ * out ("Sheet2: data validation over A1:XFD1048576").
+ */
+export async function trimPackage(pkg: PackageContents): Promise<{ bytes: Buffer; trimmed: string[] }> {
+  const { zip } = pkg;
+  zip.file("xl/workbook.xml", pkg.workbookXml.replace(element("definedNames"), ""));
   const trimmed: string[] = [];
-  const sheetParts = await sheetPartNames(zip, rels, sheetNames);
-  for (const path of Object.keys(zip.files)) {
-    if (!/^xl\/worksheets\/[^/]+\.xml$/i.test(path)) continue;
-    const xml = await zip.file(path)!.async("string");
+  for (const { name, path } of pkg.sheets) {
+    const xml = await zip.file(path)?.async("string");
+    if (xml === undefined) continue;
     const large: string[] = [];
     const out = trimSheetXml(xml, large);
     if (out !== xml) zip.file(path, out);
-    trimmed.push(...large.map((l) => `${sheetParts.get(path) ?? path}: ${l}`));
+    trimmed.push(...large.map((l) => `${name}: ${l}`));
   }
-  const out = await zip.generateAsync({ type: "nodebuffer", compression: "STORE" });
-  return { bytes: out, definedNames, externalLinks, trimmed };
+  const bytes = await zip.generateAsync({ type: "nodebuffer", compression: "STORE" });
+  return { bytes, trimmed };
 }

@@ -1,10 +1,10 @@
 /**
- * An in-memory workbook read from .xlsx with exceljs: values, formulas, cached results, number
- * formats and array-formula ranges, by sheet. Read-only: the file is never written.
+ * An in-memory workbook read from .xlsx: values, formulas, cached results, number formats and
+ * array-formula ranges, by sheet, read from the package's XML by headless/sheetXml.ts.
+ * Read-only: the file is never written.
  */
 import { readFile } from "node:fs/promises";
-import ExcelJS from "exceljs";
-import { fromExcelJS } from "../workbook/fromExcelJS";
+import { modelFromParts } from "./sheetXml";
 import type { WorkbookModel } from "../workbook/model";
 import { DEFAULT_LIMITS, type Limits, openPackage, WorkbookError } from "./package";
 
@@ -32,11 +32,12 @@ export async function readWorkbook(path: string, limits: Limits = DEFAULT_LIMITS
   }
   if (!bytes.subarray(0, 2).equals(ZIP_MAGIC)) throw new WorkbookError(`${path} is not an .xlsx workbook`);
   const pkg = await openPackage(bytes, path, limits);
-  const book = new ExcelJS.Workbook();
+  const text = async (part: string | undefined) => (part === undefined ? undefined : pkg.zip.file(part)?.async("string"));
   try {
-    await book.xlsx.load(pkg.bytes as unknown as ArrayBuffer);
+    const sheets = await Promise.all(pkg.sheets.map(async (s) => ({ name: s.name, xml: (await text(s.path)) ?? "" })));
+    const model = modelFromParts({ workbookXml: pkg.workbookXml, sheets, sharedStringsXml: await text(pkg.sharedStringsPath), stylesXml: await text(pkg.stylesPath) });
+    return { ...model, names: pkg.definedNames, externalLinks: pkg.externalLinks };
   } catch (e) {
     throw new WorkbookError(`${path} could not be read as an .xlsx workbook; it may be corrupt (${e instanceof Error ? e.message.split("\n")[0] : String(e)})`);
   }
-  return { ...fromExcelJS(book), names: pkg.definedNames, externalLinks: pkg.externalLinks };
 }

@@ -1,5 +1,5 @@
 /** Renderers of recalculation results and of the audit model: text table, HTML, .xlsx. */
-import ExcelJS from "exceljs";
+import type ExcelJS from "exceljs";
 import katex from "katex";
 import { type AuditReport, AUDIT_COLUMNS, AUDIT_WIDTHS, auditSheetRows, NOTHING_FOUND, wrappedLines } from "../workbook/audit";
 import { derivationText } from "../workbook/derivation";

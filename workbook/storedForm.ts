@@ -12,6 +12,7 @@
  */
 import { CATALOG } from "../functions/catalog";
 import type { DefinedName } from "./model";
+import { addressOf } from "./address";
 
 /** The stored prefix of a custom function of an add-in. */
 export const UDF_PREFIX = "_xldudf_";
@@ -282,6 +283,47 @@ function mapOutsideQuotes(formula: string, visit: (text: string) => string): str
     }
   }
   return out + visit(formula.slice(at));
+}
+
+const colNumber = (letters: string) => [...letters.toUpperCase()].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
+const colLetters = (col: number) => addressOf(1, col).slice(0, -1);
+
+/**
+ * A shared formula written out at another cell (ECMA-376 §18.3.1.40): each relative part of a
+ * reference (A1, A:A, 1:1) moves by `rows` and `cols`, $-anchored parts stay; strings, quoted
+ * sheet names and bracketed parts ([1], table columns) are left alone. A reference moved off the
+ * sheet becomes #REF!.
+ */
+export function shiftFormula(formula: string, rows: number, cols: number): string {
+  if (!rows && !cols) return formula;
+  const row = (anchor: string, r: string) => {
+    const n = anchor ? Number(r) : Number(r) + rows;
+    return n >= 1 ? `${anchor}${n}` : undefined;
+  };
+  const col = (anchor: string, c: string) => {
+    const n = anchor ? colNumber(c) : colNumber(c) + cols;
+    return n >= 1 ? `${anchor}${colLetters(n)}` : undefined;
+  };
+  const pattern =
+    /(\[[^\]]*\])|(?<![A-Za-z0-9_.\\$])(\$?)([A-Za-z]{1,3})(\$?)([1-9]\d*)(?![A-Za-z0-9_.(!\[])|(?<![A-Za-z0-9_.\\$])(\$?)([A-Za-z]{1,3}):(\$?)([A-Za-z]{1,3})(?![A-Za-z0-9_.(!\[])|(?<![A-Za-z0-9_.\\$:])(\$?)(\d+):(\$?)(\d+)(?![A-Za-z0-9_.:])/g;
+  return mapOutsideQuotes(formula, (part) =>
+    part.replace(pattern, (whole, bracket, ca, cl, ra, rn, c1a, c1, c2a, c2, r1a, r1, r2a, r2) => {
+      if (bracket) return whole;
+      if (cl !== undefined) {
+        const c = col(ca, cl);
+        const r = row(ra, rn);
+        return c && r ? `${c}${r}` : "#REF!";
+      }
+      if (c1 !== undefined) {
+        const a = col(c1a, c1);
+        const b = col(c2a, c2);
+        return a && b ? `${a}:${b}` : "#REF!";
+      }
+      const a = row(r1a, r1);
+      const b = row(r2a, r2);
+      return a && b ? `${a}:${b}` : "#REF!";
+    }),
+  );
 }
 
 /**
