@@ -39,7 +39,7 @@ export class Budget {
     if (seconds > this.limits.seconds) {
       throw new BudgetError(`${this.file}: stopped while ${stage} after ${seconds.toFixed(0)} s, over the time budget of ${this.limits.seconds} s (raise it with --max-seconds)`);
     }
-    const mb = process.memoryUsage().rss / 2 ** 20;
+    const mb = process.memoryUsage.rss() / 2 ** 20;
     if (mb > this.limits.megabytes) {
       throw new BudgetError(`${this.file}: stopped while ${stage}: ${mb.toFixed(0)} MB in use, over the memory budget of ${this.limits.megabytes} MB (raise it with --max-memory)`);
     }

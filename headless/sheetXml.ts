@@ -121,6 +121,8 @@ function readSheet(name: string, xml: string, strings: readonly string[], format
     const ref = attr(tag, "r");
     if (ref) ({ row, col } = parseAddress(ref));
     else col++;
+    // The stored reference is the address when it is plain (A1, not $A$1 or a1).
+    const address = ref && /^[A-Z]+\d+$/.test(ref) ? ref : addressOf(row, col);
     let body = "";
     if (m[3] !== "/") {
       const endTag = /<\/(?:\w+:)?c>/g;
@@ -140,7 +142,7 @@ function readSheet(name: string, xml: string, strings: readonly string[], format
       value = is === undefined ? cachedValue(type, v, strings) : textOf(is);
     } else value = cachedValue(type, v, strings);
     if (typeof value === "number" && format && (type === undefined || type === "n") && isDateFormat(format)) value = serialToIso(value, date1904);
-    const model: CellModel = { sheet: name, address: addressOf(row, col), row, col, value };
+    const model: CellModel = { sheet: name, address, row, col, value };
     if (f) {
       const fTag = f[1];
       let formula = f[2] === undefined ? "" : unescapeXml(f[2]);

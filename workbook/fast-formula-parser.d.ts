@@ -21,6 +21,8 @@ declare module "fast-formula-parser" {
     readonly error: string;
     readonly details: unknown;
     static NOT_IMPLEMENTED(name: string): FormulaError;
+    /** What the library throws for a formula it failed to evaluate: #ERROR! with the message and the cause. */
+    static ERROR(msg: string, details?: unknown): FormulaError;
   }
   export default class FormulaParser {
     constructor(config: {

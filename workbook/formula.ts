@@ -12,6 +12,7 @@
 import FormulaParser, { type CellRef, type FunctionArg, type RangeRef } from "fast-formula-parser";
 import { lex, type Token } from "fast-formula-parser/grammar/lexing";
 import { dottedName } from "./storedForm";
+import { compile, type Compiled, type FastToken, type LibraryParser, tokenize } from "./formulaFast";
 
 export type { FunctionArg, RangeRef };
 export const { FormulaError } = FormulaParser;
@@ -38,7 +39,43 @@ export function evaluatingParser(options: {
   const parser = new FormulaParser({ functions: options.functions, onCell: options.onCell, onRange: options.onRange });
   // Internal: the list of functions whose arguments keep their references.
   parser.funsPreserveRef.push(...options.keepReferences.map((n) => n.toUpperCase()));
-  return { parse: (formula, position) => parser.parse(formula, position, true) };
+  const library = parser as unknown as LibraryParser;
+  return {
+    parse: (formula, position) => {
+      const compiled = compiledFormula(formula);
+      if (!compiled) return parser.parse(formula, position, true);
+      // The library's own parse(), with our front end in place of its lexer and parser.
+      library.position = position;
+      library.async = false;
+      try {
+        return library.checkFormulaResult(compiled(library), true);
+      } catch (e) {
+        throw FormulaError.ERROR((e as Error).message, e);
+      }
+    },
+  };
+}
+
+/**
+ * Tokens and parsed form by formula text, a bounded cache: a recalculation reads a formula's
+ * references and then evaluates it, and the pane analyses the same formulas again and again.
+ */
+const FAST = new Map<string, { tokens: FastToken[] | undefined; compiled?: Compiled | null }>();
+
+function fastFormula(formula: string): { tokens: FastToken[] | undefined; compiled?: Compiled | null } {
+  let f = FAST.get(formula);
+  if (!f) {
+    if (FAST.size >= 2_000) FAST.clear();
+    f = { tokens: tokenize(formula) };
+    FAST.set(formula, f);
+  }
+  return f;
+}
+
+function compiledFormula(formula: string): Compiled | undefined {
+  const f = fastFormula(formula);
+  if (f.compiled === undefined) f.compiled = compile(f.tokens) ?? null;
+  return f.compiled ?? undefined;
 }
 
 /** The name of the function the library does not implement, when that is what an error says. */
@@ -167,7 +204,7 @@ function sheetOf(image: string): string {
  * INDIRECT or OFFSET), from the same lexer that evaluates it. Used to order a recalculation.
  */
 export function references(formula: string): FormulaRef[] {
-  const tokens = (lex(formula).tokens as Token[]).map((t) => ({ type: t.tokenType.name, image: t.image }));
+  const tokens = fastFormula(formula).tokens ?? (lex(formula).tokens as Token[]).map((t) => ({ type: t.tokenType.name, image: t.image }));
   const out: FormulaRef[] = [];
   const point = (image: string, type: string): { row: number; col: number } | undefined => {
     if (type === "Cell") {

@@ -8,7 +8,7 @@ import { CalcError } from "../functions/calc/_lib/result";
 import { evaluate, type Evaluation, type RawArg } from "../functions/bind/evaluate";
 import { CATALOG } from "../functions/catalog";
 import { type EvaluatingParser, evaluatingParser, FormulaError, type FormulaErrorValue, type FunctionArg, isParseError, MAX_COLUMN, MAX_ROW, notImplementedFunction, type RangeRef, references } from "./formula";
-import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAddress, type WorkbookModel } from "./model";
+import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAddress, type SheetModel, type WorkbookModel } from "./model";
 import { sheetPrefix } from "./address";
 import { displayFormula, dottedName, expandLet, externalLinkIndexes, hasNappeCall, otherAddinFunctions, resolveNames, UDF_PREFIX, unknownNappeFunctions } from "./storedForm";
 import { EXTRA_FUNCTIONS } from "./extraFunctions";
@@ -238,13 +238,24 @@ export class Recalculation {
     return here.slice(0, here.lastIndexOf("!"));
   }
 
+  private readonly sheetsByName = new Map<string, SheetModel | undefined>();
+  /** findSheet, remembered by name (every cell read asks). */
+  private sheet(name: string): SheetModel | undefined {
+    let s = this.sheetsByName.get(name);
+    if (s === undefined && !this.sheetsByName.has(name)) {
+      s = findSheet(this.wb, name);
+      this.sheetsByName.set(name, s);
+    }
+    return s;
+  }
+
   private scalarAt(sheet: string, row: number, col: number): CellValue {
     const v = this.valueAt(sheet, row, col);
     return Array.isArray(v) ? (v[0]?.[0] ?? null) : v;
   }
 
   private rangeValues(ref: RangeRef): CellValue[][] {
-    const sheet = findSheet(this.wb, ref.sheet);
+    const sheet = this.sheet(ref.sheet);
     let lastRow = ref.to.row;
     let lastCol = ref.to.col;
     if (sheet && (lastRow >= MAX_ROW || lastCol >= MAX_COLUMN)) {
@@ -307,7 +318,7 @@ export class Recalculation {
 
   /** Value of a cell, computing its formula (or the array formula it belongs to) when needed. */
   valueAt(sheetName: string, row: number, col: number): CellValue | CellValue[][] {
-    const sheet = findSheet(this.wb, sheetName);
+    const sheet = this.sheet(sheetName);
     if (!sheet) throw new FormulaError("#REF!", `there is no sheet named "${sheetName}"`);
     const cell = sheet.cells.get(cellKey(row, col));
     if (cell?.formula) {
@@ -318,7 +329,7 @@ export class Recalculation {
       }
       return c.value;
     }
-    const owner = this.spillOwner.get(`${sheet.name}!${cellKey(row, col)}`);
+    const owner = this.spillOwner.size ? this.spillOwner.get(`${sheet.name}!${cellKey(row, col)}`) : undefined;
     if (owner) {
       const c = this.computeNow(owner);
       if (c.error) {
@@ -341,13 +352,14 @@ export class Recalculation {
     }
     const out: CellModel[] = [];
     for (const ref of refs) {
-      const sheet = findSheet(this.wb, ref.sheet ?? cell.sheet);
+      const sheet = this.sheet(ref.sheet ?? cell.sheet);
       if (!sheet) continue;
       const single = ref.from.row === ref.to.row && ref.from.col === ref.to.col;
       if (single) {
-        const c = sheet.cells.get(cellKey(ref.from.row, ref.from.col));
+        const key = cellKey(ref.from.row, ref.from.col);
+        const c = sheet.cells.get(key);
         if (c?.formula) out.push(c);
-        const owner = this.spillOwner.get(`${sheet.name}!${cellKey(ref.from.row, ref.from.col)}`);
+        const owner = this.spillOwner.size ? this.spillOwner.get(`${sheet.name}!${key}`) : undefined;
         if (owner) out.push(owner);
         continue;
       }
@@ -382,36 +394,35 @@ export class Recalculation {
    * (an explicit stack, so a running total 20,000 rows long needs no deep recursion).
    */
   compute(cell: CellModel): Computed {
-    const keyOf = (c: CellModel) => `${c.sheet}!${cellKey(c.row, c.col)}`;
-    if (this.memo.has(keyOf(cell))) return this.memo.get(keyOf(cell))!;
-    const state = new Map<string, 1 | 2>();
+    const known = this.done.get(cell);
+    if (known) return known;
+    const state = new Map<CellModel, 1 | 2>();
     const stack: CellModel[] = [cell];
     while (stack.length) {
       const top = stack[stack.length - 1];
-      const key = keyOf(top);
-      if (this.memo.has(key) || state.get(key) === 2) {
+      if (this.done.has(top) || state.get(top) === 2) {
         stack.pop();
         continue;
       }
-      if (state.get(key) === 1) {
+      if (state.get(top) === 1) {
         stack.pop();
-        state.set(key, 2);
+        state.set(top, 2);
         this.computeNow(top);
         continue;
       }
-      state.set(key, 1);
-      for (const p of this.precedents(top)) {
-        const k = keyOf(p);
-        if (!this.memo.has(k) && !state.has(k)) stack.push(p);
-      }
+      state.set(top, 1);
+      for (const p of this.precedents(top)) if (!this.done.has(p) && !state.has(p)) stack.push(p);
     }
     return this.computeNow(cell);
   }
 
+  /** Computed formula cells by cell (the memo by key, without making the key). */
+  private readonly done = new Map<CellModel, Computed>();
+
   private computeNow(cell: CellModel): Computed {
+    const known = this.done.get(cell);
+    if (known) return known;
     const key = `${cell.sheet}!${cellKey(cell.row, cell.col)}`;
-    const done = this.memo.get(key);
-    if (done) return done;
     if (this.visiting.includes(key)) {
       const cycle = [...this.visiting.slice(this.visiting.indexOf(key)), key].map(keyText);
       return { value: "#REF!", error: "#REF!", message: `circular reference: ${cycle.join(" → ")}`, calls: [] };
@@ -422,6 +433,7 @@ export class Recalculation {
     if (++this.computedCount % 256 === 0) this.budget?.check("recalculating formulas");
     const result = this.evaluateCell(cell, key);
     this.memo.set(key, result);
+    this.done.set(cell, result);
     return result;
   }
 

@@ -104,13 +104,23 @@ export function dottedName(name: string): string | undefined {
   return undefined;
 }
 
+/**
+ * False when no name in the formula can be a NAPPE call or another add-in's (neither "NAPPE." nor
+ * "_xldudf_" appears, in any case): most plain formulas, answered without scanning their names.
+ */
+function mayCallAddin(formula: string): boolean {
+  return /nappe\.|_xldudf_/i.test(formula);
+}
+
 /** True when the formula calls a NAPPE function, in either form and any case. */
 export function hasNappeCall(formula: string): boolean {
+  if (!mayCallAddin(formula)) return false;
   return functionNames(formula).some((t) => classifyName(t.name).kind.endsWith("nappe"));
 }
 
 /** The names of other add-ins' custom functions the formula calls (as people read them). */
 export function otherAddinFunctions(formula: string): string[] {
+  if (!mayCallAddin(formula)) return [];
   return functionNames(formula)
     .map((t) => classifyName(t.name))
     .flatMap((c) => (c.kind === "other-addin" ? [c.written.slice(UDF_PREFIX.length)] : []));
@@ -118,6 +128,7 @@ export function otherAddinFunctions(formula: string): string[] {
 
 /** The NAPPE names the formula uses that the catalogue does not know, as written. */
 export function unknownNappeFunctions(formula: string): string[] {
+  if (!mayCallAddin(formula)) return [];
   return functionNames(formula).flatMap((t) => {
     const c = classifyName(t.name);
     return c.kind === "unknown-nappe" ? [c.written] : [];
@@ -156,6 +167,8 @@ function closingBracket(formula: string, from: number): number {
  * dropped, `_xlfn.ANCHORARRAY(B5)` as `B5#` and `_xlfn.SINGLE(x)` as `@x`.
  */
 export function displayFormula(formula: string): string {
+  // Nothing to rewrite without an add-in call or an _xlfn./_xlpm. prefix.
+  if (!/nappe\.|_xl|anchorarray|single\s*\(/i.test(formula)) return formula;
   let text = replaceNames(formula, (t) => {
     const dotted = dottedName(t.name);
     if (dotted) return dotted;
