@@ -13,6 +13,7 @@
  */
 import type { CellModel, CellValue, SheetModel, WorkbookModel } from "../workbook/model";
 import { addressOf, cellKey, parseAddress } from "../workbook/address";
+import { cellAddress } from "../workbook/formulaFast";
 import { unescapeXml } from "../workbook/xml";
 import { shiftFormula } from "../workbook/storedForm";
 
@@ -119,7 +120,7 @@ function readSheet(name: string, xml: string, strings: readonly string[], format
       continue;
     }
     const ref = attr(tag, "r");
-    if (ref) ({ row, col } = parseAddress(ref));
+    if (ref) ({ row, col } = cellAddress(ref));
     else col++;
     // The stored reference is the address when it is plain (A1, not $A$1 or a1).
     const address = ref && /^[A-Z]+\d+$/.test(ref) ? ref : addressOf(row, col);

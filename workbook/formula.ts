@@ -12,7 +12,7 @@
 import FormulaParser, { type CellRef, type FunctionArg, type RangeRef } from "fast-formula-parser";
 import { lex, type Token } from "fast-formula-parser/grammar/lexing";
 import { dottedName } from "./storedForm";
-import { compile, type Compiled, type FastToken, type LibraryParser, tokenize } from "./formulaFast";
+import { cellAddress, compile, type Compiled, type FastToken, type LibraryParser, tokenize } from "./formulaFast";
 
 export type { FunctionArg, RangeRef };
 export const { FormulaError } = FormulaParser;
@@ -207,10 +207,7 @@ export function references(formula: string): FormulaRef[] {
   const tokens = fastFormula(formula).tokens ?? (lex(formula).tokens as Token[]).map((t) => ({ type: t.tokenType.name, image: t.image }));
   const out: FormulaRef[] = [];
   const point = (image: string, type: string): { row: number; col: number } | undefined => {
-    if (type === "Cell") {
-      const m = /^\$?([A-Za-z]{1,3})\$?(\d+)$/.exec(image);
-      return m ? { row: Number(m[2]), col: colNumber(m[1]) } : undefined;
-    }
+    if (type === "Cell") return cellAddress(image);
     if (type === "Column") return { row: 0, col: colNumber(image) };
     if (type === "Number" && /^\d+$/.test(image)) return { row: Number(image), col: 0 };
     return undefined;

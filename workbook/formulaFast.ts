@@ -34,9 +34,15 @@ const NAME = /[a-zA-Z_][a-zA-Z0-9_.?]*/y;
 const NUMBER = /[0-9]+[.]?[0-9]*(?:[eE][+-][0-9]+)?/y;
 const SPACE = /\s+/y;
 
-function matchAt(re: RegExp, text: string, at: number): string | undefined {
+/** Length of the pattern's match at `at` (0 for none), without making a match array. */
+function lengthAt(re: RegExp, text: string, at: number): number {
   re.lastIndex = at;
-  return re.exec(text)?.[0];
+  return re.test(text) ? re.lastIndex - at : 0;
+}
+
+function matchAt(re: RegExp, text: string, at: number): string | undefined {
+  const n = lengthAt(re, text, at);
+  return n ? text.slice(at, at + n) : undefined;
 }
 
 /**
@@ -73,11 +79,11 @@ export function tokenize(text: string): FastToken[] | undefined {
       else if ((image = matchAt(SHEET, text, at))) type = "Sheet";
       else if ((image = matchAt(CELL, text, at))) {
         // The library's Cell and Column tokens give way to a longer Name (its longer_alt).
-        if ((matchAt(NAME, text, at)?.length ?? 0) > image.length) return undefined;
+        if (lengthAt(NAME, text, at) > image.length) return undefined;
         type = "Cell";
       } else if ((image = matchAt(BOOLEAN, text, at))) type = "Boolean";
       else if ((image = matchAt(COLUMN, text, at))) {
-        if ((matchAt(NAME, text, at)?.length ?? 0) > image.length) return undefined;
+        if (lengthAt(NAME, text, at) > image.length) return undefined;
         type = "Column";
       } else return undefined;
     } else if (ch === ",") [type, image] = ["Comma", ch];
@@ -120,6 +126,19 @@ export interface LibraryParser {
 /** A parsed formula: evaluating it calls the library's steps in the order its parser would. */
 export type Compiled = (p: LibraryParser) => unknown;
 
+/** A Cell token's parts, as the library's parseCellAddress reads them (grammar/utils.js). */
+export function cellAddress(image: string): { address: string; row: number; col: number } {
+  let i = image[0] === "$" ? 1 : 0;
+  let col = 0;
+  for (; i < image.length; i++) {
+    const c = image.charCodeAt(i) | 32; // lower case
+    if (c < 97 || c > 122) break;
+    col = col * 26 + (c - 96);
+  }
+  if (image[i] === "$") i++;
+  return { address: image, row: Number(image.slice(i)), col };
+}
+
 /** The library's binary operators by precedence, highest first (grammar/parsing.js). */
 const PRECEDENCE = [["^"], ["*", "/"], ["+", "-"], ["&"], ["<", ">", "=", "<>", "<=", ">="]];
 
@@ -159,17 +178,30 @@ class Parser {
       values.push(this.percent());
     }
     if (!ops.length) return values[0];
+    if (ops.length === 1) {
+      const [a, b] = values;
+      const op = ops[0];
+      return (p) => {
+        const left = a(p);
+        return p.utils.applyInfix(left, op, b(p));
+      };
+    }
+    // The library evaluates every operand left to right, then applies the operators level by
+    // level, each level left to right, folding its list as it goes: that order is fixed by the
+    // text, so it is worked out here once (step = index folded, operator).
+    const steps: [number, string][] = [];
+    const pending = [...ops];
+    for (const level of PRECEDENCE) {
+      for (let i = 0; i < pending.length; i++) {
+        if (!level.includes(pending[i])) continue;
+        steps.push([i, pending[i]]);
+        pending.splice(i, 1);
+        i--;
+      }
+    }
     return (p) => {
       const vs = values.map((v) => v(p));
-      const os = [...ops];
-      for (const level of PRECEDENCE) {
-        for (let i = 0; i < os.length; i++) {
-          if (!level.includes(os[i])) continue;
-          vs.splice(i, 2, p.utils.applyInfix(vs[i], os[i], vs[i + 1]));
-          os.splice(i, 1);
-          i--;
-        }
-      }
+      for (const [i, op] of steps) vs.splice(i, 2, p.utils.applyInfix(vs[i], op, vs[i + 1]));
       return vs[0];
     };
   }
@@ -219,7 +251,10 @@ class Parser {
     switch (t.type) {
       case "Cell": {
         this.at++;
-        return (p) => p.utils.parseCellAddress(t.image);
+        // What the library's parseCellAddress gives, worked out once: a new object each time,
+        // as the library fills in the sheet on the reference it is given.
+        const { address, row, col } = cellAddress(t.image);
+        return () => ({ ref: { address, col, row } });
       }
       case "Column": {
         this.at++;

@@ -116,16 +116,17 @@ function keyText(key: string): string {
   return `${key.slice(0, bang)}!${addressOf(r, c)}`;
 }
 
+const NO_CALLS: CallRecord[] = Object.freeze([]) as unknown as CallRecord[];
+
 /** The formula parsers of every Recalculation, one per nesting depth (see parserAt). */
 const SHARED_PARSERS: { parser: EvaluatingParser; route: { to?: Recalculation } }[] = [];
 
 export class Recalculation {
-  private readonly memo = new Map<string, Computed>();
   private readonly visiting: string[] = [];
   private readonly spillOwner = new Map<string, CellModel>();
   private readonly calls: CallRecord[][] = [];
   /** Formula cells whose failed results the formula being computed has read. */
-  private readonly failedReads: string[][] = [];
+  private readonly failedReads: CellModel[][] = [];
   /** Formula cells of each sheet, for ordering ranges. */
   private readonly formulaCells = new Map<string, CellModel[]>();
   private computedCount = 0;
@@ -311,9 +312,9 @@ export class Recalculation {
   }
 
   /** Notes that the formula being computed read a failed formula cell. */
-  private readFailed(key: string): void {
+  private readFailed(cell: CellModel): void {
     const list = this.failedReads[this.failedReads.length - 1];
-    if (list && !list.includes(key)) list.push(key);
+    if (list && !list.includes(cell)) list.push(cell);
   }
 
   /** Value of a cell, computing its formula (or the array formula it belongs to) when needed. */
@@ -324,7 +325,7 @@ export class Recalculation {
     if (cell?.formula) {
       const c = this.computeNow(cell);
       if (c.error) {
-        this.readFailed(`${cell.sheet}!${cellKey(cell.row, cell.col)}`);
+        this.readFailed(cell);
         return new FormulaError(c.error, c.message ?? c.error) as unknown as CellValue;
       }
       return c.value;
@@ -333,7 +334,7 @@ export class Recalculation {
     if (owner) {
       const c = this.computeNow(owner);
       if (c.error) {
-        this.readFailed(`${owner.sheet}!${cellKey(owner.row, owner.col)}`);
+        this.readFailed(owner);
         return new FormulaError(c.error, c.message ?? c.error) as unknown as CellValue;
       }
       if (Array.isArray(c.value)) return toCellValue(c.value[row - owner.row]?.[col - owner.col]);
@@ -377,11 +378,13 @@ export class Recalculation {
   }
 
   private readonly preparedText = new Map<CellModel, string>();
-  /** The formula as the parser takes it: defined names and LET written out. */
+  /** The formula as the parser takes it: defined names and LET written out (kept only where that changes it). */
   private prepared(cell: CellModel): string {
+    const formula = cell.formula!;
+    if (!this.wb.names?.length && !/LET\s*\(/i.test(formula)) return formula;
     let text = this.preparedText.get(cell);
     if (text === undefined) {
-      text = cell.formula!;
+      text = formula;
       if (this.wb.names?.length) text = resolveNames(text, cell.sheet, this.wb.names);
       if (/LET\s*\(/i.test(text)) text = expandLet(text);
       this.preparedText.set(cell, text);
@@ -416,7 +419,7 @@ export class Recalculation {
     return this.computeNow(cell);
   }
 
-  /** Computed formula cells by cell (the memo by key, without making the key). */
+  /** Computed formula cells. */
   private readonly done = new Map<CellModel, Computed>();
 
   private computeNow(cell: CellModel): Computed {
@@ -432,7 +435,6 @@ export class Recalculation {
     }
     if (++this.computedCount % 256 === 0) this.budget?.check("recalculating formulas");
     const result = this.evaluateCell(cell, key);
-    this.memo.set(key, result);
     this.done.set(cell, result);
     return result;
   }
@@ -457,7 +459,11 @@ export class Recalculation {
     this.calls.push([]);
     this.failedReads.push([]);
     let result: Computed;
-    const calls = () => this.calls[this.calls.length - 1];
+    // Most formulas call nothing of ours: they share one empty list instead of keeping their own.
+    const calls = () => {
+      const list = this.calls[this.calls.length - 1];
+      return list.length ? list : NO_CALLS;
+    };
     try {
       const out = this.parserAt(this.visiting.length - 1).parse(this.prepared(cell), { sheet: cell.sheet, row: cell.row, col: cell.col });
       if (out instanceof FormulaError) {
@@ -480,11 +486,11 @@ export class Recalculation {
     this.failedReads.pop();
     if (result.error) {
       // A failure that came from a precedent names it, and the cell where it started.
-      const first = failed.map((k) => [k, this.memo.get(k)] as const).find(([, c]) => c?.error);
+      const first = failed.map((c) => [`${c.sheet}!${c.address}`, this.done.get(c)] as const).find(([, c]) => c?.error);
       if (first && first[1] && !result.calls.some((c) => c.error)) {
-        const cause = first[1].cause ?? { cell: keyText(first[0]), message: first[1].message ?? first[1].error! };
-        const from = cause.cell !== keyText(first[0]) ? ` (it starts at ${cause.cell})` : "";
-        result.message = `reads ${keyText(first[0])}, which failed${from}: ${cause.message}`;
+        const cause = first[1].cause ?? { cell: first[0], message: first[1].message ?? first[1].error! };
+        const from = cause.cell !== first[0] ? ` (it starts at ${cause.cell})` : "";
+        result.message = `reads ${first[0]}, which failed${from}: ${cause.message}`;
         result.cause = cause;
       } else {
         result.cause = { cell: keyText(key), message: result.message ?? result.error };

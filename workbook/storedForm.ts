@@ -363,6 +363,7 @@ function substituteNames(formula: string, lookup: (name: string) => string | und
 
 /** The external workbooks a formula reads, by their index ([1]Sheet1!A1 → 1). */
 export function externalLinkIndexes(formula: string): number[] {
+  if (!formula.includes("[")) return [];
   const found = new Set<number>();
   let i = 0;
   while (i < formula.length) {
