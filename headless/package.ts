@@ -6,7 +6,7 @@
  * needs (data validations, conditional formats, very large merges), so that a whole-sheet rule
  * costs nothing. The original bytes are never changed on disk.
  */
-import JSZip from "jszip";
+import { ZipReader } from "./zip";
 import type { DefinedName } from "../workbook/model";
 import { unescapeXml } from "../workbook/xml";
 
@@ -54,7 +54,9 @@ export class Budget {
 const MEMORY_PER_XML_BYTE = 12;
 
 interface PackageContents {
-  zip: JSZip;
+  /** The package's bytes as read. */
+  bytes: Buffer;
+  zip: ZipReader;
   /** xl/workbook.xml as stored. */
   workbookXml: string;
   definedNames: DefinedName[];
@@ -129,15 +131,9 @@ function trimSheetXml(xml: string, large: string[] = []): string {
   return out;
 }
 
-function uncompressedSize(file: JSZip.JSZipObject): number {
-  // JSZip keeps the size from the zip's directory in a private field (see its index.d.ts).
-  const data = (file as unknown as { _data?: { uncompressedSize?: number } })._data;
-  return data?.uncompressedSize ?? 0;
-}
-
 /** Relationship id → target and type, from a .rels part. */
-async function relationships(zip: JSZip, path: string): Promise<Map<string, { target: string; type: string }>> {
-  const xml = await zip.file(path)?.async("string");
+function relationships(zip: ZipReader, path: string): Map<string, { target: string; type: string }> {
+  const xml = zip.text(path);
   const out = new Map<string, { target: string; type: string }>();
   for (const tag of xml?.match(/<Relationship\b[^>]*>/g) ?? []) {
     const id = attr(tag, "Id");
@@ -159,24 +155,25 @@ function resolvePart(base: string, target: string): string {
 
 /** Opens an .xlsx package (a zip with xl/workbook.xml). Throws WorkbookError for anything else. */
 export async function openPackage(bytes: Buffer, file: string, limits: Limits = DEFAULT_LIMITS): Promise<PackageContents> {
-  let zip: JSZip;
   try {
-    zip = await JSZip.loadAsync(bytes);
+    return readPackage(bytes, file, limits);
   } catch (e) {
+    if (e instanceof WorkbookError) throw e;
     throw new WorkbookError(`${file} could not be read as an .xlsx workbook; it may be corrupt (${e instanceof Error ? e.message.split("\n")[0] : String(e)})`);
   }
-  const workbookPart = zip.file("xl/workbook.xml");
-  if (!workbookPart) throw new WorkbookError(`${file} is a zip package but not an .xlsx workbook: it has no xl/workbook.xml`);
+}
+
+function readPackage(bytes: Buffer, file: string, limits: Limits): PackageContents {
+  const zip = new ZipReader(bytes);
+  if (!zip.entries.has("xl/workbook.xml")) throw new WorkbookError(`${file} is a zip package but not an .xlsx workbook: it has no xl/workbook.xml`);
   let xmlBytes = 0;
-  zip.forEach((path, f) => {
-    if (/\.xml$/i.test(path)) xmlBytes += uncompressedSize(f);
-  });
+  for (const e of zip.entries.values()) if (/\.xml$/i.test(e.name)) xmlBytes += e.uncompressedSize;
   const needed = (xmlBytes * MEMORY_PER_XML_BYTE) / 2 ** 20;
   if (needed > limits.megabytes) {
     throw new BudgetError(`${file}: its ${(xmlBytes / 2 ** 20).toFixed(0)} MB of XML would need about ${needed.toFixed(0)} MB of memory to read, over the memory budget of ${limits.megabytes} MB (raise it with --max-memory)`);
   }
 
-  const workbookXml = await workbookPart.async("string");
+  const workbookXml = zip.text("xl/workbook.xml") ?? "";
   const sheetTags = workbookXml.match(/<(?:\w+:)?sheet\b[^>]*>/g) ?? [];
   const sheetNames = sheetTags.map((t) => attr(t, "name") ?? "");
   const definedNames: DefinedName[] = [];
@@ -188,13 +185,13 @@ export async function openPackage(bytes: Buffer, file: string, limits: Limits = 
   }
 
   const externalLinks = new Map<number, string>();
-  const rels = await relationships(zip, "xl/_rels/workbook.xml.rels");
+  const rels = relationships(zip, "xl/_rels/workbook.xml.rels");
   const refs = workbookXml.match(/<(?:\w+:)?externalReference\b[^>]*>/g) ?? [];
   for (const [i, tag] of refs.entries()) {
     const part = rels.get(attr(tag, "r:id") ?? "");
     if (!part) continue;
     const path = resolvePart("xl/workbook.xml", part.target);
-    const linkRels = await relationships(zip, path.replace(/([^/]+)$/, "_rels/$1.rels"));
+    const linkRels = relationships(zip, path.replace(/([^/]+)$/, "_rels/$1.rels"));
     externalLinks.set(i + 1, [...linkRels.values()][0]?.target ?? path);
   }
 
@@ -208,7 +205,7 @@ export async function openPackage(bytes: Buffer, file: string, limits: Limits = 
     const rel = [...rels.values()].find((r) => r.type.endsWith(`/${type}`));
     return rel ? resolvePart("xl/workbook.xml", rel.target) : undefined;
   };
-  return { zip, workbookXml, definedNames, externalLinks, sheets, sharedStringsPath: partOf("sharedStrings"), stylesPath: partOf("styles") };
+  return { bytes, zip, workbookXml, definedNames, externalLinks, sheets, sharedStringsPath: partOf("sharedStrings"), stylesPath: partOf("styles") };
 }
 
 /**
@@ -217,7 +214,8 @@ export async function openPackage(bytes: Buffer, file: string, limits: Limits = 
  * out ("Sheet2: data validation over A1:XFD1048576").
  */
 export async function trimPackage(pkg: PackageContents): Promise<{ bytes: Buffer; trimmed: string[] }> {
-  const { zip } = pkg;
+  const { default: JSZip } = await import("jszip");
+  const zip = await JSZip.loadAsync(pkg.bytes);
   zip.file("xl/workbook.xml", pkg.workbookXml.replace(element("definedNames"), ""));
   const trimmed: string[] = [];
   for (const { name, path } of pkg.sheets) {

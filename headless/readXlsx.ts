@@ -32,10 +32,10 @@ export async function readWorkbook(path: string, limits: Limits = DEFAULT_LIMITS
   }
   if (!bytes.subarray(0, 2).equals(ZIP_MAGIC)) throw new WorkbookError(`${path} is not an .xlsx workbook`);
   const pkg = await openPackage(bytes, path, limits);
-  const text = async (part: string | undefined) => (part === undefined ? undefined : pkg.zip.file(part)?.async("string"));
+  const text = (part: string | undefined) => (part === undefined ? undefined : pkg.zip.text(part));
   try {
-    const sheets = await Promise.all(pkg.sheets.map(async (s) => ({ name: s.name, xml: (await text(s.path)) ?? "" })));
-    const model = modelFromParts({ workbookXml: pkg.workbookXml, sheets, sharedStringsXml: await text(pkg.sharedStringsPath), stylesXml: await text(pkg.stylesPath) });
+    const sheets = pkg.sheets.map((s) => ({ name: s.name, xml: text(s.path) ?? "" }));
+    const model = modelFromParts({ workbookXml: pkg.workbookXml, sheets, sharedStringsXml: text(pkg.sharedStringsPath), stylesXml: text(pkg.stylesPath) });
     return { ...model, names: pkg.definedNames, externalLinks: pkg.externalLinks };
   } catch (e) {
     throw new WorkbookError(`${path} could not be read as an .xlsx workbook; it may be corrupt (${e instanceof Error ? e.message.split("\n")[0] : String(e)})`);

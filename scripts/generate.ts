@@ -3,6 +3,7 @@
  *   functions/catalog/index.ts  (collects the topic files)
  *   functions/functions.ts      (the worksheet bindings; their JSDoc feeds functions.json)
  *   README.md                   (the function reference and unit tables between markers)
+ *   functions/units/unitFactors.ts (the common units' factors, worked out by mathjs)
  * With --check, writes nothing and exits 1 if any file differs from what it would write.
  */
 import { readdirSync, readFileSync, writeFileSync } from "node:fs";
@@ -144,6 +145,53 @@ function replaceBetween(text: string, name: string, body: string): string {
   return `${text.slice(0, i + start.length)}\n<!-- Generated from the catalogue by scripts/generate.ts; do not edit by hand. -->\n${body}\n${text.slice(j)}`;
 }
 
+/**
+ * Common units of each dimension, by the name they are read under (after the spelling rules of
+ * functions/units/quantity.ts). Their factors to the base unit are worked out here by the
+ * project's mathjs instance, so that reading "400 gpm" needs no mathjs at run time. Temperature
+ * is left out (its units have offsets); any unit not listed is still read by mathjs.
+ */
+const COMMON_UNITS: Record<string, string[]> = {
+  length: ["m", "mm", "cm", "km", "um", "in", "ft", "yd", "mi"],
+  area: ["m^2", "mm^2", "cm^2", "in^2", "ft^2"],
+  flow: ["m^3/s", "m^3/h", "m^3/min", "L/s", "L/min", "L/h", "gpm", "gal/min", "MGD", "igpm", "cfs", "cfm", "lps", "lpm", "ft^3/s", "ft^3/min"],
+  velocity: ["m/s", "ft/s", "km/h", "mi/h", "ft/min", "m/min"],
+  pressure: ["Pa", "kPa", "MPa", "GPa", "bar", "mbar", "psi", "psia", "ksi", "atm", "mmHg", "inHg", "mH2O", "ftH2O", "inH2O"],
+  power: ["W", "kW", "MW", "hp", "bhp"],
+  energy: ["J", "kJ", "MJ", "Wh", "kWh", "MWh", "BTU"],
+  density: ["kg/m^3", "g/cm^3", "lb/ft^3", "kg/L"],
+  viscosity: ["Pa s", "mPa s", "cP", "poise"],
+  kinematicViscosity: ["m^2/s", "mm^2/s", "cSt", "stokes", "ft^2/s"],
+  rotationalSpeed: ["rpm", "Hz"],
+  angle: ["deg", "rad"],
+  modulus: ["Pa", "kPa", "MPa", "GPa", "bar", "psi", "ksi"],
+  time: ["h", "s", "min", "day"],
+};
+
+async function unitFactors(): Promise<string> {
+  const { quantity, unitOf } = await import("../functions/units/mathjs");
+  const { DIMENSIONS } = await import("../functions/units/dimensions");
+  const table: Record<string, Record<string, number>> = {};
+  for (const [dim, names] of Object.entries(COMMON_UNITS)) {
+    const base = DIMENSIONS[dim as keyof typeof DIMENSIONS].base;
+    table[dim] = {};
+    for (const name of names) {
+      if (!unitOf(name).equalBase(unitOf(base))) throw new Error(`${name} is not a unit of ${dim}`);
+      // The same arithmetic as quantity.ts's conversion through mathjs, so the factor is the same number.
+      table[dim][name] = quantity(1, name).toNumber(base);
+    }
+  }
+  const body = Object.entries(table)
+    .map(([dim, units]) => `  ${dim}: { ${Object.entries(units).map(([n, f]) => `${JSON.stringify(n)}: ${f}`).join(", ")} },`)
+    .join("\n");
+  return `${HEADER.replace("from functions/catalog", "with mathjs")}
+/** Factors to each dimension's base unit (base = x · factor) of the common units, by name. */
+export const UNIT_FACTORS: Readonly<Record<string, Readonly<Record<string, number>>>> = {
+${body}
+};
+`;
+}
+
 const stale: string[] = [];
 function emit(rel: string, content: string): void {
   const path = join(root, rel);
@@ -171,6 +219,7 @@ async function main(): Promise<void> {
   let readme = readFileSync(join(root, "README.md"), "utf8");
   for (const [name, body] of Object.entries(sections)) readme = replaceBetween(readme, name, body);
   emit("README.md", readme);
+  emit("functions/units/unitFactors.ts", await unitFactors());
   if (check && stale.length) {
     console.error(`Out of date: ${stale.join(", ")}. Run npm run generate.`);
     process.exit(1);

@@ -83,3 +83,23 @@ describe("CONVERT", () => {
     expect(() => convertUnits(0, "degC", "3 degF")).toThrow(/^to_unit: /);
   });
 });
+
+describe("the common-unit table (functions/units/unitFactors.ts)", () => {
+  it("holds exactly the factors mathjs works out, so reading a unit gives the same number either way", async () => {
+    const { UNIT_FACTORS } = await import("../functions/units/unitFactors");
+    const { quantity } = await import("../functions/units/mathjs");
+    const { DIMENSIONS } = await import("../functions/units/dimensions");
+    let n = 0;
+    for (const [dim, units] of Object.entries(UNIT_FACTORS)) {
+      for (const [name, factor] of Object.entries(units)) {
+        expect({ dim, name, factor }).toEqual({ dim, name, factor: quantity(1, name).toNumber(DIMENSIONS[dim as keyof typeof DIMENSIONS].base) });
+        n++;
+      }
+    }
+    expect(n).toBeGreaterThan(80);
+  });
+  it("leaves units it does not list to mathjs (same result as a listed spelling)", () => {
+    // "gal/h" is not in the table; "L/h" is. 1 gal/h = 3.785411784 L/h exactly (NIST SP 811 B.8).
+    expect(rel(parseQuantity("flow", "1 gal/h", "flow").base, parseQuantity("flow", "3.785411784 L/h", "flow").base)).toBeLessThan(1e-15);
+  });
+});

@@ -8,7 +8,18 @@
  */
 import { create, createUnitDependencies, unitDependencies } from "mathjs";
 
-const math = create({ unitDependencies, createUnitDependencies });
+/**
+ * The instance, made on first use: setting up mathjs's units is most of the worksheet bundle's
+ * start-up, and the common units never need it (functions/units/unitFactors.ts).
+ */
+let instance: ReturnType<typeof create> | undefined;
+function math(): ReturnType<typeof create> {
+  if (!instance) {
+    instance = create({ unitDependencies, createUnitDependencies });
+    for (const u of TRADE_UNITS) instance.createUnit(u.name, u.definition, { override: u.override === true });
+  }
+  return instance;
+}
 
 /** Each added unit: name, definition (a number and units mathjs knows), and the note the docs print. */
 export const TRADE_UNITS: ReadonlyArray<{ name: string; definition: string; note: string; override?: boolean }> = [
@@ -36,20 +47,16 @@ export const TRADE_UNITS: ReadonlyArray<{ name: string; definition: string; note
   { name: "rpm", definition: `${1 / 60} Hz`, note: "revolution per minute (rotational speed; Hz is revolutions per second here)" },
 ];
 
-for (const u of TRADE_UNITS) {
-  math.createUnit(u.name, u.definition, { override: u.override === true });
-}
-
 export type MathUnit = import("mathjs").Unit;
 
 /** Parses "value unit" text with mathjs's unit parser (numbers and unit names only). */
 export function parseUnitText(text: string): MathUnit {
-  return math.Unit.parse(text);
+  return math().Unit.parse(text);
 }
 
 /** A unit with no value, from a unit name such as "gpm" or "m^3/h". */
 export function unitOf(name: string): MathUnit {
-  const unit = math.unit(name);
+  const unit = math().unit(name);
   // "-500 degC" parses as a quantity; a unit name must not carry a number of its own.
   if ((unit as MathUnit & { value: number | null }).value !== null) throw new Error(`"${name}" holds a number: expected a unit name alone`);
   return unit;
@@ -57,5 +64,5 @@ export function unitOf(name: string): MathUnit {
 
 /** Makes a quantity from a number and a unit name. */
 export function quantity(value: number, unitName: string): MathUnit {
-  return math.unit(value, unitName);
+  return math().unit(value, unitName);
 }

@@ -2,11 +2,13 @@
  * Reading worksheet values as quantities and writing results in a requested unit.
  * A bare number is in the dimension's base unit; text is a number followed by a unit
  * ("4000 gpm", "150 mm", "68 degF"); only that form is accepted, never an expression.
- * Parsed text and unit conversions are cached.
+ * Parsed text and unit conversions are cached; the common units' factors come from a table
+ * generated with mathjs (unitFactors.ts), so mathjs itself is set up only for other units.
  */
 import { CalcError } from "../calc/_lib/result";
 import { type Dimension, DIMENSIONS, hasUnit } from "./dimensions";
 import { type MathUnit, quantity, unitOf } from "./mathjs";
+import { UNIT_FACTORS } from "./unitFactors";
 
 const CACHE_LIMIT = 5000;
 const ALL_DIMENSIONS = Object.keys(DIMENSIONS) as Dimension[];
@@ -80,6 +82,9 @@ function conversionFor(arg: string, unitText: string, dim: Dimension): UnitConve
   const hit = cache.get(unitText);
   if (hit) return hit;
   const info = DIMENSIONS[dim];
+  // A common unit: its factor was worked out by mathjs when the table was generated.
+  const known = UNIT_FACTORS[dim]?.[normaliseUnitText(unitText)];
+  if (known !== undefined) return remember(cache, unitText, { unit: unitText, toBase: (x) => x * known, fromBase: (x) => x / known });
   let unit: MathUnit;
   try {
     unit = unitOf(normaliseUnitText(unitText));
