@@ -19,7 +19,7 @@ import { formatPercent, formatUnit, formatValue, setSignificantFigures } from ".
 import { writeAtomically } from "./atomic";
 import { Budget, DEFAULT_LIMITS, type Limits } from "./package";
 import { recalculate, type RecalcResult } from "../workbook/recalc";
-import { addAuditSheet, renderHtml, renderTable, renderText } from "./render";
+import { addAuditSheet, renderTable, renderText } from "./render";
 import { BudgetError, labelSource, readWorkbook, type WorkbookModel, WorkbookError } from "./readXlsx";
 
 class UsageError extends Error {}
@@ -153,6 +153,7 @@ function emptyNotice(file: string, result: RecalcResult): string {
 
 async function writeAudit(wb: WorkbookModel, result: RecalcResult, source: string, htmlPath: string, xlsxPath: string, textPath: string, title: string) {
   const report = buildAudit(result.cells, { title, source, found: summaryLine(result), workbook: wb }, labelSource(wb));
+  const { renderHtml } = await import("./renderHtml");
   await writeAtomically(htmlPath, renderHtml(report));
   await writeAtomically(textPath, renderText(report));
   // exceljs and the demo load only when a command writes a workbook: recalc starts without them.

@@ -26,7 +26,7 @@ const BUILT_IN_FORMATS: Record<number, string> = {
 };
 
 /** The parts the model is read from, as text. */
-export interface WorkbookParts {
+interface WorkbookParts {
   workbookXml: string;
   /** Worksheets in the workbook's order (chart sheets and dialog sheets left out). */
   sheets: { name: string; xml: string }[];
@@ -49,13 +49,13 @@ function textOf(xml: string): string {
   return unescapeXml(out);
 }
 
-export function sharedStrings(xml: string | undefined): string[] {
+function sharedStrings(xml: string | undefined): string[] {
   if (!xml) return [];
   return [...xml.matchAll(/<(?:\w+:)?si\b[^>]*?(?:\/>|>([\s\S]*?)<\/(?:\w+:)?si>)/g)].map((m) => textOf(m[1] ?? ""));
 }
 
 /** The number format of each cell style (the `s` index), "General" where none is set. */
-export function styleFormats(xml: string | undefined): string[] {
+function styleFormats(xml: string | undefined): string[] {
   if (!xml) return [];
   const custom = new Map<number, string>();
   for (const m of xml.matchAll(/<(?:\w+:)?numFmt\b[^>]*>/g)) {

@@ -7,7 +7,7 @@
 import { inflateRawSync } from "node:zlib";
 
 /** A part of the package, as its central directory entry describes it. */
-export interface ZipEntry {
+interface ZipEntry {
   name: string;
   /** 0 stored, 8 deflated. */
   method: number;

@@ -12,7 +12,7 @@ import ExcelJS from "exceljs";
 import { type Browser, chromium, type Locator, type Page } from "playwright-core";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { DEMO_FILE } from "../demo/build";
-import { renderHtml } from "../headless/render";
+import { renderHtml } from "../headless/renderHtml";
 import { readWorkbook } from "../headless/readXlsx";
 import { buildAudit } from "../workbook/audit";
 import { labelSource } from "../workbook/model";

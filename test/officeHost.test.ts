@@ -4,125 +4,12 @@
  * labels, writes, the formula scan and the audit sheet. It cannot check Excel itself.
  */
 import { afterEach, beforeEach, describe, expect, it } from "vitest";
-import { addressOf, parseAddress } from "../workbook/address";
+import { addressOf } from "../workbook/address";
 import { namesAnotherSheet, OfficeHost } from "../taskpane/host/office";
 import { auditOf, checkWorkbook } from "../taskpane/workbookCheck";
 import { explainCell } from "../taskpane/explain";
 import { run } from "./helpers";
-
-type Cell = { formula?: string; value: unknown; format?: string };
-class FakeSheet {
-  cells = new Map<string, Cell>();
-  deleted = false;
-  frozenRows = 0;
-  pageLayout: Record<string, unknown> = {};
-  names = { items: [] as { name: string; formula: string }[], load() {} };
-  constructor(public name: string) {}
-  get freezePanes() {
-    return { freezeRows: (n: number) => (this.frozenRows = n) };
-  }
-  getRange(address: string) {
-    const [a, b] = address.split(":");
-    const from = parseAddress(a);
-    const to = parseAddress(b ?? a);
-    return new FakeRange(this, from.row, from.col, to.row - from.row + 1, to.col - from.col + 1);
-  }
-  getRangeByIndexes(r: number, c: number, rows: number, cols: number) {
-    return new FakeRange(this, r + 1, c + 1, rows, cols);
-  }
-  getUsedRangeOrNullObject() {
-    const keys = [...this.cells.keys()].map((k) => parseAddress(k));
-    if (!keys.length) return { isNullObject: true, load() {} };
-    const maxR = Math.max(...keys.map((k) => k.row));
-    const maxC = Math.max(...keys.map((k) => k.col));
-    const r = new FakeRange(this, 1, 1, maxR, maxC);
-    return Object.assign(r, { isNullObject: false, rowIndex: 0, columnIndex: 0, rowCount: maxR, columnCount: maxC });
-  }
-  activate() {}
-  delete() {
-    this.deleted = true;
-  }
-  load() {}
-}
-class FakeRange {
-  format = { wrapText: false, verticalAlignment: "", font: { bold: false, color: "" }, fill: { color: "" }, columnWidth: 0 };
-  constructor(public sheet: FakeSheet, public row: number, public col: number, public rows: number, public cols: number) {}
-  load() {}
-  select() {
-    fake.selected = { sheet: this.sheet.name, address: addressOf(this.row, this.col) };
-  }
-  get address() {
-    return `${this.sheet.name}!${addressOf(this.row, this.col)}`;
-  }
-  get worksheet() {
-    return this.sheet;
-  }
-  private grid<T>(f: (c: Cell | undefined) => T): T[][] {
-    return Array.from({ length: this.rows }, (_, i) => Array.from({ length: this.cols }, (_, j) => f(this.sheet.cells.get(addressOf(this.row + i, this.col + j)))));
-  }
-  get values() {
-    return this.grid((c) => (c ? c.value : ""));
-  }
-  set values(v: unknown[][]) {
-    v.forEach((row, i) => row.forEach((x, j) => {
-      const address = addressOf(this.row + i, this.col + j);
-      this.sheet.cells.set(address, { value: x, format: this.sheet.cells.get(address)?.format });
-    }));
-  }
-  get formulas() {
-    return this.grid((c) => (c?.formula ? `=${c.formula}` : c ? c.value : ""));
-  }
-  set formulas(v: unknown[][]) {
-    v.forEach((row, i) => row.forEach((x, j) => this.sheet.cells.set(addressOf(this.row + i, this.col + j), { formula: String(x).replace(/^=/, ""), value: 0 })));
-  }
-  get numberFormat() {
-    return this.grid((c) => c?.format ?? "General");
-  }
-  set numberFormat(v: unknown[][]) {
-    v.forEach((row, i) => row.forEach((f, j) => {
-      const address = addressOf(this.row + i, this.col + j);
-      this.sheet.cells.set(address, { ...(this.sheet.cells.get(address) ?? { value: "" }), format: String(f) });
-    }));
-  }
-}
-const fake = { sheets: [] as FakeSheet[], active: { sheet: "Calc", address: "B2" }, selected: undefined as undefined | { sheet: string; address: string }, handlers: [] as (() => void)[], syncs: 0 };
-
-function install() {
-  const sheetByName = (n: string) => fake.sheets.find((s) => s.name === n && !s.deleted)!;
-  const context = {
-    workbook: {
-      // Workbook.name (ExcelApi 1.7): the file name the audit shows.
-      name: "Station sizing.xlsx",
-      load() {},
-      getActiveCell: () => sheetByName(fake.active.sheet).getRange(fake.active.address),
-      onSelectionChanged: { add: (h: () => void) => fake.handlers.push(h) },
-      names: { items: [{ name: "Flow", formula: "=Calc!$B$1" }], load() {} },
-      worksheets: {
-        getItem: sheetByName,
-        getItemOrNullObject: (n: string) => sheetByName(n) ?? { isNullObject: true },
-        add: (n: string) => {
-          const s = new FakeSheet(n);
-          fake.sheets.push(s);
-          return s;
-        },
-        load() {},
-        get items() {
-          return fake.sheets.filter((s) => !s.deleted);
-        },
-      },
-    },
-    // Every sync is one round trip to Excel.
-    sync: async () => void fake.syncs++,
-  };
-  (globalThis as Record<string, unknown>).Excel = { run: async (f: (c: typeof context) => unknown) => f(context), PageOrientation: { landscape: "Landscape" } };
-  const calc = new FakeSheet("Calc");
-  calc.cells.set("A1", { value: "Flow (gpm)" });
-  calc.cells.set("B1", { value: 400, format: '0 "gpm"' });
-  calc.cells.set("B2", { formula: 'NAPPE.VELOCITY(B1&" gpm", "4 in")', value: 3.11 });
-  calc.cells.set("B3", { formula: "B2*2", value: 6.22 });
-  calc.names.items.push({ name: "Pipe", formula: '="4 in"' });
-  fake.sheets = [calc];
-}
+import { fake, FakeSheet, install } from "./fixtures/fakeExcel";
 
 describe("Office.js adapter (against a stand-in for Excel's API)", () => {
   beforeEach(install);

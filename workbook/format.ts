@@ -55,6 +55,7 @@ export function formatPercent(fraction: number): string {
  * "ftH2O" → "ftH₂O", "kg*m" → "kg·m". Text that is not a unit name comes back unchanged.
  */
 export function formatUnit(unit: string): string {
+  if (!unit) return unit;
   return unit
     .replace(/\^\(?(-?\d+)\)?/g, (_, p: string) => superscript(p))
     .replace(/\bdeg\s?([CFR])\b/g, "°$1")

@@ -15,7 +15,7 @@
  */
 
 /** The token kinds the library's lexer gives, for the part of its vocabulary handled here. */
-export type TokenType = "String" | "SheetQuoted" | "Function" | "Sheet" | "Cell" | "Boolean" | "Column" | "Number" | "Comma" | "Colon" | "OpenParen" | "CloseParen" | "Op" | "Percent";
+type TokenType = "String" | "SheetQuoted" | "Function" | "Sheet" | "Cell" | "Boolean" | "Column" | "Number" | "Comma" | "Colon" | "OpenParen" | "CloseParen" | "Op" | "Percent";
 
 export interface FastToken {
   type: TokenType;

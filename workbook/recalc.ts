@@ -399,6 +399,9 @@ export class Recalculation {
   compute(cell: CellModel): Computed {
     const known = this.done.get(cell);
     if (known) return known;
+    // Most formulas read only constants and formulas already computed: no ordering to do.
+    const first = this.precedents(cell);
+    if (first.every((p) => this.done.has(p))) return this.computeNow(cell);
     const state = new Map<CellModel, 1 | 2>();
     const stack: CellModel[] = [cell];
     while (stack.length) {
@@ -433,7 +436,7 @@ export class Recalculation {
     if (this.visiting.length >= MAX_DEPTH) {
       return { value: "#REF!", error: "#REF!", message: `a chain of more than ${MAX_DEPTH} formulas reached through INDIRECT or OFFSET, each waiting on the next; Nappe cannot order it in advance`, calls: [] };
     }
-    if (++this.computedCount % 256 === 0) this.budget?.check("recalculating formulas");
+    if (++this.computedCount % 1024 === 0) this.budget?.check("recalculating formulas");
     const result = this.evaluateCell(cell, key);
     this.done.set(cell, result);
     return result;
