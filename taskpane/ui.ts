@@ -3,7 +3,6 @@
  * and the cautions, always in view. Built with DOM calls only (textContent, never HTML strings),
  * so workbook text can never become markup. Equations are rendered by KaTeX as MathML.
  */
-import katex from "katex";
 import { CATALOG } from "../functions/catalog";
 import type { FunctionSpec } from "../functions/catalog/types";
 import { type CallExplanation, type CellExplanation, explainCell } from "./explain";
@@ -31,17 +30,21 @@ export function el<K extends keyof HTMLElementTagNameMap>(tag: K, className?: st
   return node;
 }
 
+/** KaTeX, loaded the first time an equation is shown (its own chunk, katex.chunk.js): the pane's first load is smaller without it. */
+let katexLoading: Promise<typeof import("katex").default> | undefined;
+
 function equation(tex: string): HTMLElement {
   const box = el("div", "equation");
   // A long equation scrolls inside its box, never the pane; the box takes focus so the keyboard can scroll it.
   box.tabIndex = 0;
   box.setAttribute("role", "group");
   box.setAttribute("aria-label", "Equation (scrolls sideways when wider than the pane)");
-  try {
-    katex.render(tex, box, { output: "mathml", displayMode: true, throwOnError: false });
-  } catch {
-    box.textContent = tex;
-  }
+  box.setAttribute("aria-busy", "true");
+  katexLoading ??= import(/* webpackChunkName: "katex" */ "katex").then((m) => m.default);
+  katexLoading
+    .then((katex) => katex.render(tex, box, { output: "mathml", displayMode: true, throwOnError: false }))
+    .catch(() => (box.textContent = tex))
+    .finally(() => box.removeAttribute("aria-busy"));
   return box;
 }
 

@@ -107,6 +107,8 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
     await containsText(page.locator("#formula-bar"), "=NAPPE.HEAD(Inputs!B10, B5, \"m\")");
     const card = page.locator(".call").first();
     await hasExactText(card.locator("h3"), "NAPPE.HEAD");
+    // KaTeX is its own chunk, loaded when the first equation is shown.
+    await card.locator(".equation math").waitFor();
     expect(await card.locator(".equation math").count()).toBe(1);
     const rows = card.locator("table.args tr");
     await containsText(rows.nth(1), "Inputs!B10");

@@ -6,7 +6,81 @@
  * replaced by the exact one. Sources: NIST SP 811 (2008) appendix B.8 and B.9 factors; the
  * water columns are the conventional ones (1000 kg/m³ × standard gravity), as NIST SP 811 uses.
  */
-import { create, createUnitDependencies, unitDependencies } from "mathjs";
+import {
+  create,
+  createAbs,
+  createAddScalar,
+  createComplexClass,
+  createCreateUnit,
+  createDivideScalar,
+  createFormat,
+  createFractionClass,
+  createIsNumeric,
+  createMultiplyScalar,
+  createNumber,
+  createNumeric,
+  createSubtractScalar,
+  createTyped,
+  createUnitClass,
+  createUnitFunction,
+  factory,
+} from "mathjs";
+
+/*
+ * The Unit class and the two functions used, with their scalar dependencies only. mathjs's own
+ * pow, round, fix and equal also handle matrices, which pulls in its whole matrix library (and
+ * BigNumber, decimal.js): units of plain numbers need none of it. These factories give the same
+ * numbers for numbers (pow as mathjs's number case: Math.pow, with its rule for infinite powers;
+ * the others as Math.round, Math.trunc and equality within the configured relative tolerance).
+ */
+const createScalarPow = factory("pow", ["typed"], ({ typed }) =>
+  typed("pow", {
+    "number, number": (x: number, y: number) => {
+      if ((x * x < 1 && y === Infinity) || (x * x > 1 && y === -Infinity)) return 0;
+      if (Number.isInteger(y) || x >= 0) return Math.pow(x, y);
+      throw new Error("a negative number to a fractional power has no real value");
+    },
+  }),
+);
+const createScalarRound = factory("round", ["typed"], ({ typed }) => typed("round", { number: (x: number) => Math.round(x) }));
+const createScalarFix = factory("fix", ["typed"], ({ typed }) => typed("fix", { number: (x: number) => Math.trunc(x) }));
+const createScalarEqual = factory("equal", ["typed", "config"], ({ typed, config }) =>
+  typed("equal", { "number, number": (x: number, y: number) => x === y || Math.abs(x - y) <= (config as unknown as { relTol: number }).relTol * Math.max(Math.abs(x), Math.abs(y)) }),
+);
+/** BigNumber is never used (config.number stays "number"); the Unit class only needs the name. */
+const createNoBigNumber = factory(
+  "BigNumber",
+  [],
+  () =>
+    class NoBigNumber {
+      constructor() {
+        throw new Error("BigNumber values are not supported: units are read as plain numbers");
+      }
+    },
+  { isClass: true },
+);
+const unitFactories = {
+  createUnitClass,
+  createUnitFunction,
+  createCreateUnit,
+  createTyped,
+  createAddScalar,
+  createSubtractScalar,
+  createMultiplyScalar,
+  createDivideScalar,
+  createNumeric,
+  createAbs,
+  createFormat,
+  createNumber,
+  createIsNumeric,
+  createComplexClass,
+  createFractionClass,
+  createPow: createScalarPow,
+  createRound: createScalarRound,
+  createFix: createScalarFix,
+  createEqual: createScalarEqual,
+  createBigNumberClass: createNoBigNumber,
+};
 
 /**
  * The instance, made on first use: setting up mathjs's units is most of the worksheet bundle's
@@ -15,7 +89,7 @@ import { create, createUnitDependencies, unitDependencies } from "mathjs";
 let instance: ReturnType<typeof create> | undefined;
 function math(): ReturnType<typeof create> {
   if (!instance) {
-    instance = create({ unitDependencies, createUnitDependencies });
+    instance = create(unitFactories as unknown as Parameters<typeof create>[0]);
     for (const u of TRADE_UNITS) instance.createUnit(u.name, u.definition, { override: u.override === true });
   }
   return instance;
