@@ -45,8 +45,11 @@ export default async (env, argv) => {
   const dev = argv.mode === "development";
   const config = {
     devtool: dev ? "source-map" : false,
+    // The worksheet bundle is its own layer, so that its copy of the catalogue can leave out the
+    // documentation Excel's runtime never shows (scripts/specDocsLoader.cjs).
+    experiments: { layers: true },
     entry: {
-      functions: "./functions/functions.ts",
+      functions: { import: "./functions/functions.ts", layer: "worksheet" },
       taskpane: "./taskpane/taskpane.ts",
       preview: "./taskpane/preview.ts",
     },
@@ -58,7 +61,10 @@ export default async (env, argv) => {
       fallback: { fs: false, "node:fs/promises": false, path: false },
     },
     module: {
-      rules: [{ test: /\.ts$/, exclude: /node_modules/, use: { loader: "ts-loader", options: { transpileOnly: true } } }],
+      rules: [
+        { test: /\.ts$/, exclude: /node_modules/, use: { loader: "ts-loader", options: { transpileOnly: true } } },
+        { test: /functions[\\/]catalog[\\/][a-zA-Z]+\.ts$/, issuerLayer: "worksheet", enforce: "pre", use: path.join(root, "scripts/specDocsLoader.cjs") },
+      ],
     },
     performance: { hints: false },
     plugins: [

@@ -1,21 +1,31 @@
 /**
- * Bundle budget, run after every production build: the worksheet-functions bundle must stay at
- * or under 400 KB minified (mathjs is tree-shaken to the units it uses, and is about 70 % of it).
- * Fails the build above it. Raised from 350 KB when the five envelope functions came in; the
- * speed issue's target is 250 KB.
+ * Bundle budgets, run after every production build; the build fails above either.
+ *  - functions.js, the worksheet bundle Excel loads: at most 250 KB minified (the speed issue's
+ *    target; mathjs is built from its unit factories only, and the catalogue's documentation is
+ *    left out of this bundle by scripts/specDocsLoader.cjs).
+ *  - The pane's first load, the scripts taskpane.html loads before its first view: taskpane.js
+ *    (KaTeX and Chart.js are chunks loaded when first needed). The issue's target is 400 KB; the
+ *    formula library and mathjs still sit in it, so the budget holds today's size (a ratchet: lower
+ *    it as the pane shrinks, never raise it without saying why).
  */
 import { readFileSync, statSync } from "node:fs";
 import { join } from "node:path";
 import { gzipSync } from "node:zlib";
 
-export const FUNCTIONS_BUDGET_BYTES = 400 * 1024;
+const BUDGETS: [file: string, bytes: number, note: string][] = [
+  ["functions.js", 250 * 1024, "the worksheet bundle"],
+  ["taskpane.js", 680 * 1024, "the pane's first load (target 400 KB, not yet met)"],
+];
 
-const file = join(import.meta.dirname, "..", "dist", "functions.js");
-const bytes = statSync(file).size;
-const gzip = gzipSync(readFileSync(file)).length;
-const line = `functions.js: ${(bytes / 1024).toFixed(1)} KB minified, ${(gzip / 1024).toFixed(1)} KB gzipped (budget ${FUNCTIONS_BUDGET_BYTES / 1024} KB minified)`;
-if (bytes > FUNCTIONS_BUDGET_BYTES) {
-  console.error(`Bundle budget exceeded: ${line}`);
-  process.exit(1);
+let failed = false;
+for (const [name, budget, note] of BUDGETS) {
+  const file = join(import.meta.dirname, "..", "dist", name);
+  const bytes = statSync(file).size;
+  const gzip = gzipSync(readFileSync(file)).length;
+  const line = `${name}: ${(bytes / 1024).toFixed(1)} KB minified, ${(gzip / 1024).toFixed(1)} KB gzipped (budget ${budget / 1024} KB minified, ${note})`;
+  if (bytes > budget) {
+    console.error(`Bundle budget exceeded: ${line}`);
+    failed = true;
+  } else console.log(line);
 }
-console.log(line);
+if (failed) process.exit(1);

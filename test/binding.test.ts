@@ -52,6 +52,20 @@ describe("built bundle registration", () => {
   });
 });
 
+describe("the worksheet bundle carries the calculations, not the documentation", () => {
+  it("has no spec's assumptions or cautions (scripts/specDocsLoader.cjs); the pane's bundle keeps them", () => {
+    const worksheet = readFileSync(join(dist, "functions.js"), "utf8");
+    const pane = readFileSync(join(dist, "taskpane.js"), "utf8");
+    // Plain-ASCII texts (the minifier may write other characters as escapes), long enough to be unique.
+    const texts = CATALOG.flatMap((s) => [...s.assumptions, s.purpose]).filter((t) => t.length > 40 && /^[ -~]+$/.test(t));
+    expect(texts.length).toBeGreaterThan(30);
+    for (const t of texts) {
+      expect(worksheet.includes(t), t).toBe(false);
+      expect(pane.includes(t), t).toBe(true);
+    }
+  });
+});
+
 describe("generated functions.json agrees with the catalogue", () => {
   const metadata = JSON.parse(readFileSync(join(dist, "functions.json"), "utf8")) as {
     functions: { id: string; name: string; description: string; parameters: { name: string; type: string; optional?: boolean; dimensionality?: string }[]; result: { type?: string; dimensionality?: string } }[];
