@@ -59,6 +59,8 @@ describe("the .xlsx reader gives the model exceljs gives", () => {
       row(3, c("B3", { v: 4 }), c("C3", { f: "", v: 8, shared: { si: 0 } }), c("D3", { f: "", v: 9, shared: { si: 1 } })),
       row(4, c("B4", { v: 5 }), c("C4", { f: "", v: 10, shared: { si: 0 } }), c("D4", { f: "", v: 14, shared: { si: 1 } }), c("E4", { f: '_xldudf_NAPPE_CONVERT(1,"ft","m")', v: 0.3048, array: "E4", dynamic: true })),
       row(6, c("A6", { v: "Merged label" })),
+      // Rich inline text, text typed as a formula result, an error and FALSE as constants, an escaped character.
+      `<row r="9"><c r="A9" t="inlineStr"><is><r><t xml:space="preserve">Head </t></r><r><rPr><b/></rPr><t>(ft)</t></r></is></c><c r="B9" t="str"><v>a &amp; b</v></c><c r="C9" t="e"><v>#N/A</v></c><c r="D9" t="b"><v>0</v></c><c r="E9"><v>1.5E-3</v></c></row>`,
     ].join("");
     writeFileSync(path, await xlsxPackage([{ name: "Stored", rows, after: '<mergeCells count="1"><mergeCell ref="A6:C7"/></mergeCells>' }, { name: "Second sheet", rows: row(1, c("A1", { f: "Stored!C4+1", v: 11 })) }]));
     const wb = await sameAsExcelJS(path);
@@ -66,6 +68,7 @@ describe("the .xlsx reader gives the model exceljs gives", () => {
     expect(cells.get("4:3")?.formula).toBe("B4*2");
     expect(cells.get("4:4")?.formula).toBe("SUM($B$1:B4)");
     expect(cells.get("7:3")?.value).toBe("Merged label");
+    expect([1, 2, 3, 4, 5].map((col) => cells.get(`9:${col}`)?.value)).toEqual(["Head (ft)", "a & b", "#N/A", false, 0.0015]);
   });
 
   it("on a workbook exceljs writes: number formats, dates, rich text, hyperlinks, merges, a hidden sheet, filled formulas", async () => {
@@ -122,5 +125,36 @@ describe("where the reader follows ECMA-376 rather than exceljs", () => {
     expect(cells.get("2:1")?.value).toBe("rpm & more");
     // Day 0 of the 1904 system is 1 January 1904 (ECMA-376 §18.17.4.1).
     expect(cells.get("2:2")?.value).toBe("1904-01-01T00:00:00.000Z");
+  });
+});
+
+describe("the package reader (headless/zip.ts) on zips other programs write", () => {
+  it("reads stored (uncompressed) parts as well as deflated ones, and gives the same model", async () => {
+    const JSZip = (await import("jszip")).default;
+    const deflated = readFileSync(join(root, "test/fixtures/libreoffice-saved.xlsx"));
+    const stored = await (await JSZip.loadAsync(deflated)).generateAsync({ type: "nodebuffer", compression: "STORE" });
+    const path = join(dir, "stored-parts.xlsx");
+    writeFileSync(path, stored);
+    expect(canonical(await readWorkbook(path))).toEqual(canonical(await readWorkbook(join(root, "test/fixtures/libreoffice-saved.xlsx"))));
+  });
+
+  it("says the file is damaged when a part's data is corrupt, instead of failing inside", async () => {
+    const bytes = Buffer.from(readFileSync(join(root, "test/fixtures/libreoffice-saved.xlsx")));
+    // Overwrite the middle of the first sheet's compressed data (found through its local header).
+    const name = Buffer.from("xl/worksheets/sheet1.xml");
+    const at = bytes.indexOf(name);
+    bytes.fill(0xff, at + name.length + 40, at + name.length + 400);
+    const path = join(dir, "damaged.xlsx");
+    writeFileSync(path, bytes);
+    await expect(readWorkbook(path)).rejects.toThrow(/could not be read as an \.xlsx workbook; it may be corrupt/);
+  });
+
+  it("refuses a Zip64 package with a plain reason", async () => {
+    const bytes = Buffer.from(readFileSync(join(root, "test/fixtures/libreoffice-saved.xlsx")));
+    const end = bytes.lastIndexOf(Buffer.from([0x50, 0x4b, 0x05, 0x06]));
+    bytes.writeUInt32LE(0xffffffff, end + 16); // the directory's offset, as Zip64 writes it
+    const path = join(dir, "zip64.xlsx");
+    writeFileSync(path, bytes);
+    await expect(readWorkbook(path)).rejects.toThrow(/Zip64/);
   });
 });
