@@ -68,6 +68,9 @@ export default async (env, argv) => {
     },
     performance: { hints: false },
     plugins: [
+      // The pane loads the formula library as a chunk of its own (formula.chunk.js), the first
+      // time it analyses a formula: its first script stays small (taskpane/formulaLibraryLazy.ts).
+      new webpack.NormalModuleReplacementPlugin(/(^|[\\/])formulaLibrary$/, path.join(root, "taskpane/formulaLibraryLazy.ts")),
       // No code generation from strings in any shipped bundle (see taskpane/stubs).
       new webpack.NormalModuleReplacementPlugin(/chevrotain[\\/]lib(_esm)?[\\/]src[\\/]generate[\\/]generate_public\.js$/, path.join(root, "taskpane/stubs/chevrotainNoCodegen.js")),
       new CustomFunctionsMetadataPlugin({ output: "functions.json", input: "./functions/functions.ts" }),

@@ -8,6 +8,7 @@
  * formula, g = 9.81, a density of 1000, gauge for absolute pressure, a gpm/ft³/s slip).
  */
 import { evaluate, type Evaluation, type RawArg } from "../functions/bind/evaluate";
+import { formulaLibraryReady } from "../workbook/formulaLibrary";
 import type { Step } from "../functions/calc/_lib/result";
 import { haalandFriction, swameeJainFriction } from "../functions/calc/friction";
 import { CATALOG_BY_ID } from "../functions/catalog";
@@ -206,6 +207,7 @@ function causesOf(spec: FunctionSpec, formulas: string, ratio: number, departed:
  * overrides the suggested inputs (argument → "B7" or a literal such as "20 degC").
  */
 export async function crossCheckCell(port: HostPort, sheet: string, address: string, specId: string, options: { tolerance?: number; mapping?: Record<string, string> } = {}): Promise<CrossCheckResult> {
+  await formulaLibraryReady();
   const spec = CATALOG_BY_ID.get(specId);
   if (!spec) throw new Error(`no function NAPPE.${specId}`);
   const hand = await handCell(port, sheet, address);

@@ -19,6 +19,7 @@ import type { LabelSource, UnitFinding } from "../workbook/unitCheck";
 import { type ChartData, chartFor, withNpsha } from "./chartData";
 import { toBase } from "../functions/units/quantity";
 import type { CellSnapshot, HostPort } from "./host/port";
+import { formulaLibraryReady } from "../workbook/formulaLibrary";
 
 interface UnitWarning {
   message: string;
@@ -241,6 +242,7 @@ export async function explainCell(port: HostPort, sheet: string, address: string
 
 /** Evaluates the cell's formula over a snapshot of its precedents and explains every NAPPE call. */
 export async function analyseCell(port: HostPort, sheet: string, address: string, shared: AnalysisCache = {}): Promise<CellAnalysis> {
+  await formulaLibraryReady();
   const { cell, names } = await port.cellAndNames(sheet, address);
   const base = { sheet, address, value: formatValue(cell.value), calls: [] as CallExplanation[] };
   if (!cell.formula) {

@@ -4,6 +4,7 @@
  * it. Loads nothing but this page's own files and /workbook.json.
  */
 import { addressOf, type CellModel, cellKey, type DefinedName, parseAddress, type WorkbookModel } from "../workbook/model";
+import { formulaLibraryReady } from "../workbook/formulaLibrary";
 import { formatValue } from "../workbook/format";
 import { MemoryHost } from "./host/memory";
 import { el, mountPane } from "./ui";
@@ -93,7 +94,8 @@ function showSelection(host: MemoryHost, target: HTMLElement, formulaBar: HTMLEl
 }
 
 async function start(): Promise<void> {
-  const response = await fetch("workbook.json");
+  // The in-memory host recalculates the workbook as it is made: the formula library first.
+  const [response] = await Promise.all([fetch("workbook.json"), formulaLibraryReady()]);
   const json = (await response.json()) as WorkbookJson;
   const host = new MemoryHost(toModel(json));
   const state = { sheet: host.workbook.sheets[0]?.name ?? "" };

@@ -6,6 +6,7 @@
  * two units.
  */
 import { addressOf, parseAddress, splitReference } from "../workbook/address";
+import { formulaLibraryReady } from "../workbook/formulaLibrary";
 import { callSites, evaluationOrder, replaceArgument } from "../workbook/formula";
 import { displayFormula } from "../workbook/storedForm";
 import type { HostPort } from "./host/port";
@@ -30,6 +31,7 @@ function cellNamed(text: string, here: string): string | undefined {
 
 /** Every other place reading `input` ("Inputs!B14") as a bare number, with its fix joining `unit`. */
 export async function sameInputFixes(port: HostPort, input: { sheet: string; address: string }, unit: string, except: { sheet: string; address: string }): Promise<SameInputFix[]> {
+  await formulaLibraryReady();
   const target = `${input.sheet}!${input.address.toUpperCase()}`;
   const out: SameInputFix[] = [];
   const seen = new Set<string>([`${except.sheet}!${except.address}`]);

@@ -4,6 +4,7 @@
  * audit sheet built from the same audit model as the headless report.
  */
 import { type AuditReport, AUDIT_WIDTHS, auditSheetRows, buildAudit } from "../workbook/audit";
+import { formulaLibraryReady } from "../workbook/formulaLibrary";
 import type { CellOutcome, Status } from "../workbook/recalc";
 import type { LabelSource } from "../workbook/unitCheck";
 import type { WorkbookModel } from "../workbook/model";
@@ -46,6 +47,7 @@ function mergeLabels(sources: LabelSource[]): LabelSource {
  * in-memory host uses: the round trips to Excel do not grow with the number of formulas.
  */
 export async function checkWorkbook(port: HostPort, onProgress?: (done: number, total: number) => void, yieldEvery = 25): Promise<WorkbookCheck> {
+  await formulaLibraryReady();
   const local = new MemoryHost(await port.workbookSnapshot(), { recalculate: false });
   const cells = await local.nappeFormulaCells();
   const rows: CheckRow[] = [];

@@ -8,7 +8,7 @@ import { dirname, join, relative, resolve } from "node:path";
 import FormulaParser from "fast-formula-parser";
 import { lex } from "fast-formula-parser/grammar/lexing";
 import { describe, expect, it } from "vitest";
-import { callSites, directPrecedents, evaluatingParser, FormulaError, isParseError, notImplementedFunction, references } from "../workbook/formula";
+import { callSites, directPrecedents, evaluatingParser, FormulaError, isParseError, MAX_COLUMN, MAX_ROW, notImplementedFunction, references } from "../workbook/formula";
 import { recalculate } from "../workbook/recalc";
 import type { WorkbookModel } from "../workbook/model";
 
@@ -61,9 +61,9 @@ describe("layers", () => {
     const cycles = [...pairs].filter((p) => pairs.has(p.split("→").reverse().join("→")));
     expect(cycles).toEqual([]);
   });
-  it("only workbook/formula.ts imports the formula library", () => {
-    const users = files.filter((f) => /from "fast-formula-parser/.test(readFileSync(f, "utf8"))).map((f) => relative(root, f));
-    expect(users).toEqual(["workbook/formula.ts"]);
+  it("only workbook/formula.ts uses the formula library (formulaLibrary.ts and the pane's lazy twin only load it)", () => {
+    const users = files.filter((f) => !f.endsWith(".d.ts") && /from "fast-formula-parser|import\(\/\*[^*]*\*\/ "fast-formula-parser/.test(readFileSync(f, "utf8"))).map((f) => relative(root, f)).sort();
+    expect(users).toEqual(["taskpane/formulaLibraryLazy.ts", "workbook/formula.ts", "workbook/formulaLibrary.ts"]);
   });
 });
 
@@ -95,6 +95,10 @@ describe("the formula library's internals the adapter relies on (fast-formula-pa
   });
   it("marks a parse error as isParseError reads it", () => {
     expect(isParseError(failureOf("1+("))).toBe(true);
+  });
+  it("has the sheet bounds formula.ts writes as constants, and one error class in its small module and its main one", () => {
+    expect([MAX_ROW, MAX_COLUMN]).toEqual([FormulaParser.MAX_ROW, FormulaParser.MAX_COLUMN]);
+    expect(FormulaError).toBe(FormulaParser.FormulaError);
   });
   it("has the dependency parser directPrecedents uses", () => {
     expect(directPrecedents("A1+Data!B2:C3", { sheet: "S", row: 5, col: 5 })).toEqual([

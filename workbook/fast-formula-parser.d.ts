@@ -48,3 +48,8 @@ declare module "fast-formula-parser/grammar/lexing" {
   }
   export function lex(text: string): { tokens: Token[]; errors: unknown[] };
 }
+
+declare module "fast-formula-parser/formulas/error" {
+  import { FormulaError } from "fast-formula-parser";
+  export default FormulaError;
+}

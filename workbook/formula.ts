@@ -9,17 +9,20 @@
  * arguments "as written" and apply unit fixes), the references its text names (to order a
  * recalculation), its direct precedents (the pane's snapshot), and evaluating parsers.
  */
-import FormulaParser, { type CellRef, type FunctionArg, type RangeRef } from "fast-formula-parser";
-import { lex, type Token } from "fast-formula-parser/grammar/lexing";
+import type { CellRef, FunctionArg, RangeRef } from "fast-formula-parser";
+import type { Token } from "fast-formula-parser/grammar/lexing";
+import FormulaErrorClass from "fast-formula-parser/formulas/error";
+import { formulaLibrary } from "./formulaLibrary";
 import { dottedName } from "./storedForm";
 import { cellAddress, compile, type Compiled, type FastToken, type LibraryParser, tokenize } from "./formulaFast";
 
 export type { FunctionArg, RangeRef };
-export const { FormulaError } = FormulaParser;
+/** The library's error value (its small module of its own: usable before the parser is loaded). */
+export const FormulaError = FormulaErrorClass;
 export type FormulaErrorValue = InstanceType<typeof FormulaError>;
 /** The sheet's last row and column, as the library bounds whole-column and whole-row ranges. */
-export const MAX_ROW = FormulaParser.MAX_ROW;
-export const MAX_COLUMN = FormulaParser.MAX_COLUMN;
+export const MAX_ROW = 1048576;
+export const MAX_COLUMN = 16384;
 
 export interface EvaluatingParser {
   /** Evaluates a formula (without "=") at a position; arrays allowed. */
@@ -36,7 +39,7 @@ export function evaluatingParser(options: {
   onCell: (ref: CellRef) => unknown;
   onRange: (ref: RangeRef) => unknown[][];
 }): EvaluatingParser {
-  const parser = new FormulaParser({ functions: options.functions, onCell: options.onCell, onRange: options.onRange });
+  const parser = new (formulaLibrary().FormulaParser)({ functions: options.functions, onCell: options.onCell, onRange: options.onRange });
   // Internal: the list of functions whose arguments keep their references.
   parser.funsPreserveRef.push(...options.keepReferences.map((n) => n.toUpperCase()));
   const library = parser as unknown as LibraryParser;
@@ -98,13 +101,14 @@ export interface PrecedentRef {
   to?: { row: number; col: number };
 }
 
-const { DepParser } = FormulaParser as unknown as { DepParser: new () => { parse(f: string, pos: { sheet: string; row: number; col: number }): PrecedentRef[] } };
+type DependencyParser = { parse(f: string, pos: { sheet: string; row: number; col: number }): PrecedentRef[] };
 
 /** One dependency parser, made on first use: making one costs far more than a parse, and parse starts afresh each time. */
-let depParser: InstanceType<typeof DepParser> | undefined;
+let depParser: DependencyParser | undefined;
 
 /** The cells and ranges a formula reads directly, from the library's dependency parser. */
 export function directPrecedents(formula: string, position: { sheet: string; row: number; col: number }): PrecedentRef[] {
+  const { DepParser } = formulaLibrary().FormulaParser as unknown as { DepParser: new () => DependencyParser };
   return [...(depParser ??= new DepParser()).parse(formula, position)];
 }
 
@@ -128,7 +132,7 @@ export interface CallSite {
 
 /** Every function call in a formula (without "="), outermost first. Throws on text the lexer cannot read. */
 export function callSites(formula: string): CallSite[] {
-  const { tokens } = lex(formula);
+  const { tokens } = formulaLibrary().lex(formula);
   const roots: CallSite[] = [];
   const stack: { call?: CallSite; argStart: number }[] = [];
   const closeArg = (frame: { call?: CallSite; argStart: number }, at: number) => {
@@ -204,7 +208,7 @@ function sheetOf(image: string): string {
  * INDIRECT or OFFSET), from the same lexer that evaluates it. Used to order a recalculation.
  */
 export function references(formula: string): FormulaRef[] {
-  const tokens = fastFormula(formula).tokens ?? (lex(formula).tokens as Token[]).map((t) => ({ type: t.tokenType.name, image: t.image }));
+  const tokens = fastFormula(formula).tokens ?? (formulaLibrary().lex(formula).tokens as Token[]).map((t) => ({ type: t.tokenType.name, image: t.image }));
   const out: FormulaRef[] = [];
   const point = (image: string, type: string): { row: number; col: number } | undefined => {
     if (type === "Cell") return cellAddress(image);
