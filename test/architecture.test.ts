@@ -96,6 +96,15 @@ describe("the formula library's internals the adapter relies on (fast-formula-pa
   it("marks a parse error as isParseError reads it", () => {
     expect(isParseError(failureOf("1+("))).toBe(true);
   });
+  it("the pane's lazy twin of formulaLibrary.ts has the same exports, refuses before the chunk is loaded, then gives the library", async () => {
+    const lazy = await import("../taskpane/formulaLibraryLazy");
+    const eager = await import("../workbook/formulaLibrary");
+    expect(Object.keys(lazy).sort()).toEqual(Object.keys(eager).sort());
+    expect(() => lazy.formulaLibrary()).toThrow(/still loading/);
+    await lazy.formulaLibraryReady();
+    expect(lazy.formulaLibrary().FormulaParser).toBe(FormulaParser);
+    expect(lazy.formulaLibrary().lex).toBe(lex);
+  });
   it("has the sheet bounds formula.ts writes as constants, and one error class in its small module and its main one", () => {
     expect([MAX_ROW, MAX_COLUMN]).toEqual([FormulaParser.MAX_ROW, FormulaParser.MAX_COLUMN]);
     expect(FormulaError).toBe(FormulaParser.FormulaError);
