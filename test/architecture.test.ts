@@ -105,6 +105,11 @@ describe("the formula library's internals the adapter relies on (fast-formula-pa
     expect(lazy.formulaLibrary().FormulaParser).toBe(FormulaParser);
     expect(lazy.formulaLibrary().lex).toBe(lex);
   });
+  it("has the evaluation steps the fast front end calls (workbook/formulaFast.ts), as methods of the names it uses", () => {
+    const parser = new FormulaParser({}) as unknown as { utils: Record<string, unknown> } & Record<string, unknown>;
+    for (const m of ["applyInfix", "applyPrefix", "applyPostfix", "applyRange", "parseCol", "toNumber", "toString", "toBoolean", "isFormulaError"]) expect(typeof parser.utils[m], m).toBe("function");
+    for (const m of ["callFunction", "checkFormulaResult"]) expect(typeof parser[m], m).toBe("function");
+  });
   it("has the sheet bounds formula.ts writes as constants, and one error class in its small module and its main one", () => {
     expect([MAX_ROW, MAX_COLUMN]).toEqual([FormulaParser.MAX_ROW, FormulaParser.MAX_COLUMN]);
     expect(FormulaError).toBe(FormulaParser.FormulaError);

@@ -1,9 +1,10 @@
 /**
  * The adapter of the formula library, fast-formula-parser (MIT, pinned to an exact version in
- * package.json): the only module that imports it, and the only one that touches its internals
- * (its lexer, its list of functions whose arguments keep their references, its dependency
- * parser, the wording of its "not implemented" error). test/architecture.test.ts fails if
- * any of those internals change.
+ * package.json): the only module that uses it (formulaLibrary.ts, or the pane's lazy twin, only
+ * loads it), and the only one that touches its internals (its lexer, its list of functions whose
+ * arguments keep their references, its dependency parser, its evaluation steps, which
+ * formulaFast.ts's front end calls, the wording of its "not implemented" error).
+ * test/architecture.test.ts fails if any of those internals change.
  *
  * What it offers: a formula's calls with their arguments' source text and position (to show
  * arguments "as written" and apply unit fixes), the references its text names (to order a
