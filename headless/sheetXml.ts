@@ -168,7 +168,7 @@ function readSheet(name: string, xml: string, strings: readonly string[], format
   return { name, cells };
 }
 
-/** A merged area larger than this is left as it is (the package reader reports it). */
+/** A merged area larger than this is left as it is, not written into every cell (as before with exceljs, which read the package with such merges taken out). */
 const LARGE_MERGE = 100_000;
 
 /** A merged area's other cells show its first cell's value, as Excel displays them. */
