@@ -24,7 +24,12 @@ export function renderTable(cells: readonly CellOutcome[]): string {
     c.status,
   ]);
   const limits = [16, 8, 48, 28, 10, 14, 10, 7];
-  const widths = head.map((h, j) => Math.min(limits[j], Math.max(h.length, ...rows.map((r) => r[j].length))));
+  // A loop, not Math.max(...rows): spreading a few hundred thousand rows overflows the call stack.
+  const widths = head.map((h, j) => {
+    let w = h.length;
+    for (const r of rows) if (r[j].length > w) w = r[j].length;
+    return Math.min(limits[j], w);
+  });
   const line = (r: string[]) => r.map((v, j) => clip(v, widths[j]).padEnd(widths[j])).join("  ").trimEnd();
   const out = [line(head), widths.map((w) => "-".repeat(w)).join("  ")];
   cells.forEach((c, i) => {

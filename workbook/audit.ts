@@ -152,16 +152,21 @@ export function auditSheetRows(report: AuditReport): { rows: string[][]; headerR
   if (s && s.results.length) {
     rows.push([KEY_RESULTS, s.basis]);
     blockHeaders.push(rows.length);
-    rows.push(["Cell", "Label", "Value", "Exact"], ...s.results.map((r) => [r.cell, r.label, r.value, r.exact]), []);
+    rows.push(["Cell", "Label", "Value", "Exact"]);
+    for (const r of s.results) rows.push([r.cell, r.label, r.value, r.exact]);
+    rows.push([]);
   }
   if (s && s.inputs.length) {
     rows.push([INPUTS, "The constant cells the NAPPE formulas read, and how each was read."]);
     blockHeaders.push(rows.length);
-    rows.push(["Cell", "Label", "Value", "Exact", "Read as"], ...s.inputs.map((r) => [r.cell, r.label, r.value, r.exact, r.readAs]), []);
+    rows.push(["Cell", "Label", "Value", "Exact", "Read as"]);
+    for (const r of s.inputs) rows.push([r.cell, r.label, r.value, r.exact, r.readAs]);
+    rows.push([]);
   }
   if (blockHeaders.length) rows.push(["Every NAPPE formula, with its derivation"]);
   const headerRow = rows.length;
-  rows.push(...auditRows(report));
+  // One at a time: push(...rows) overflows the call stack for a few hundred thousand rows.
+  for (const row of auditRows(report)) rows.push(row);
   return { rows, headerRow, preamble, blockHeaders };
 }
 

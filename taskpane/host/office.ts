@@ -268,7 +268,7 @@ export class OfficeHost implements HostPort {
       await context.sync();
       if (!existing.isNullObject) existing.delete();
       const ws = context.workbook.worksheets.add(name);
-      const width = Math.max(...rows.map((r) => r.length));
+      const width = rows.reduce((w, r) => Math.max(w, r.length), 0);
       const values = rows.map((r) => [...r, ...Array(width - r.length).fill("")]);
       const range = ws.getRangeByIndexes(0, 0, values.length, width);
       range.numberFormat = values.map((r) => r.map(() => "@"));
