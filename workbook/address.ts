@@ -4,10 +4,16 @@ export function cellKey(row: number, col: number): string {
   return `${row}:${col}`;
 }
 
-function columnLetters(col: number): string {
+/** 1 → "A", 28 → "AB". */
+export function columnLetters(col: number): string {
   let s = "";
   for (let n = col; n > 0; n = Math.floor((n - 1) / 26)) s = String.fromCharCode(65 + ((n - 1) % 26)) + s;
   return s;
+}
+
+/** "AB" → 28 ("$" and case ignored). */
+export function columnNumber(letters: string): number {
+  return [...letters.replace(/\$/g, "").toUpperCase()].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
 }
 
 export function addressOf(row: number, col: number): string {

@@ -14,6 +14,7 @@ import type { CellRef, FunctionArg, RangeRef } from "fast-formula-parser";
 import type { Token } from "fast-formula-parser/grammar/lexing";
 import FormulaErrorClass from "fast-formula-parser/formulas/error";
 import { formulaLibrary } from "./formulaLibrary";
+import { columnNumber } from "./address";
 import { dottedName } from "./storedForm";
 import { cellAddress, compile, type Compiled, type FastToken, type LibraryParser, tokenize } from "./formulaFast";
 
@@ -195,9 +196,6 @@ interface FormulaRef {
 }
 
 
-function colNumber(letters: string): number {
-  return [...letters.replace(/\$/g, "").toUpperCase()].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
-}
 
 function sheetOf(image: string): string {
   const name = image.slice(0, -1);
@@ -213,7 +211,7 @@ export function references(formula: string): FormulaRef[] {
   const out: FormulaRef[] = [];
   const point = (image: string, type: string): { row: number; col: number } | undefined => {
     if (type === "Cell") return cellAddress(image);
-    if (type === "Column") return { row: 0, col: colNumber(image) };
+    if (type === "Column") return { row: 0, col: columnNumber(image) };
     if (type === "Number" && /^\d+$/.test(image)) return { row: Number(image), col: 0 };
     return undefined;
   };

@@ -12,7 +12,7 @@
  */
 import { CATALOG } from "../functions/catalog";
 import type { DefinedName } from "./model";
-import { addressOf } from "./address";
+import { columnLetters, columnNumber } from "./address";
 
 /** The stored prefix of a custom function of an add-in. */
 export const UDF_PREFIX = "_xldudf_";
@@ -298,9 +298,6 @@ function mapOutsideQuotes(formula: string, visit: (text: string) => string): str
   return out + visit(formula.slice(at));
 }
 
-const colNumber = (letters: string) => [...letters.toUpperCase()].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
-const colLetters = (col: number) => addressOf(1, col).slice(0, -1);
-
 /**
  * A shared formula written out at another cell (ECMA-376 §18.3.1.40): each relative part of a
  * reference (A1, A:A, 1:1) moves by `rows` and `cols`, $-anchored parts stay; strings, quoted
@@ -314,8 +311,8 @@ export function shiftFormula(formula: string, rows: number, cols: number): strin
     return n >= 1 ? `${anchor}${n}` : undefined;
   };
   const col = (anchor: string, c: string) => {
-    const n = anchor ? colNumber(c) : colNumber(c) + cols;
-    return n >= 1 ? `${anchor}${colLetters(n)}` : undefined;
+    const n = anchor ? columnNumber(c) : columnNumber(c) + cols;
+    return n >= 1 ? `${anchor}${columnLetters(n)}` : undefined;
   };
   const pattern =
     /(\[[^\]]*\])|(?<![A-Za-z0-9_.\\$])(\$?)([A-Za-z]{1,3})(\$?)([1-9]\d*)(?![A-Za-z0-9_.(!\[])|(?<![A-Za-z0-9_.\\$])(\$?)([A-Za-z]{1,3}):(\$?)([A-Za-z]{1,3})(?![A-Za-z0-9_.(!\[])|(?<![A-Za-z0-9_.\\$:])(\$?)(\d+):(\$?)(\d+)(?![A-Za-z0-9_.:])/g;
