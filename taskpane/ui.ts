@@ -300,7 +300,7 @@ function renderCell(target: HTMLElement, cell: CellExplanation, ctx: PaneContext
   if (cell.chart) {
     // Chart.js loads when a cell first has a chart, not with the pane: a slot of the chart's height waits for it.
     const chart = cell.chart;
-    const slot = el("div", "chart chart-slot");
+    const slot = el("div", "chart-slot");
     target.append(slot);
     import(/* webpackChunkName: "chart" */ "./chart")
       .then(({ drawChart }) => slot.replaceWith(drawChart(chart)))

@@ -195,10 +195,19 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
   });
 
   it("draws the pump and system curves with the operating point for a duty-point cell", async () => {
+    // Chart.js arrives late, as on a slow connection: the test must wait for the drawn chart,
+    // not for the slot that holds its place (CI once read the slot).
+    await page.route("**/chart.chunk.js", async (route) => {
+      await new Promise((resolve) => setTimeout(resolve, 500));
+      await route.continue();
+    });
+    await page.goto(preview.url, { waitUntil: "domcontentloaded" });
     await page.getByRole("tab", { name: "This cell" }).click();
     await selectCell(page, "Calc", "B28");
+    await page.locator(".cell-view .chart-slot").first().waitFor();
     const chart = page.locator(".cell-view .chart").first();
     await chart.waitFor();
+    await page.unroute("**/chart.chunk.js");
     const op = (await chart.getAttribute("data-operating-point"))!.split(",").map(Number);
     expect(op[0]).toBeCloseTo(87.4559, 3);
     expect(op[1]).toBeCloseTo(102.3, 3);
