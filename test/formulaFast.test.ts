@@ -8,8 +8,9 @@
 import FormulaParser from "fast-formula-parser";
 import { lex, type Token } from "fast-formula-parser/grammar/lexing";
 import { describe, expect, it } from "vitest";
-import { evaluatingParser, type FunctionArg, type RangeRef } from "../workbook/formula";
-import { compile, tokenize } from "../workbook/formulaFast";
+import { evaluatingParser, type FunctionArg, type RangeRef, references } from "../workbook/formula";
+import { compile, shapeKey, tokenize } from "../workbook/formulaFast";
+import { shiftFormula } from "../workbook/storedForm";
 import { EXTRA_FUNCTIONS } from "../workbook/extraFunctions";
 
 const { FormulaError } = FormulaParser;
@@ -98,8 +99,12 @@ function parsers() {
   const functions = EXTRA_FUNCTIONS as Record<string, (...args: FunctionArg[]) => unknown>;
   const library = new FormulaParser({ functions, onCell, onRange });
   const ours = evaluatingParser({ functions, keepReferences: [], onCell, onRange });
-  const position = { sheet: "Sheet1", row: 3, col: 2 };
-  return { log, library: (f: string) => library.parse(f, position, true), ours: (f: string) => ours.parse(f, position) };
+  const here = { sheet: "Sheet1", row: 3, col: 2 };
+  return {
+    log,
+    library: (f: string, position = here) => library.parse(f, position, true),
+    ours: (f: string, position = here) => ours.parse(f, position),
+  };
 }
 
 const seed = Number(process.env.NAPPE_FUZZ_SEED ?? 20261202);
@@ -129,6 +134,51 @@ describe("the fast front end gives what the formula library gives", () => {
       const expectedLog = [...p.log];
       expect({ f, got: run(p.ours, f, p.log), log: p.log }).toEqual({ f, got: expected, log: expectedLog });
     }
+  });
+
+  it("shares one parse between a formula and its copies filled to other cells, each giving the library's result at its own cell", () => {
+    const rnd = random(seed + 2);
+    const p = parsers();
+    let shared = 0;
+    for (let i = 0; i < 2000; i++) {
+      const f = formulaOf(rnd);
+      const [dr, dc] = [Math.floor(rnd() * 40), Math.floor(rnd() * 5)];
+      const at = { sheet: "Sheet1", row: 3, col: 2 };
+      const to = { sheet: "Sheet1", row: 3 + dr, col: 2 + dc };
+      // The copy as Excel writes a formula filled from one cell to another (ECMA-376's shared formulas).
+      const copy = shiftFormula(f, dr, dc);
+      const key = shapeKey(f, at.row, at.col);
+      if (key !== undefined && key === shapeKey(copy, to.row, to.col) && copy !== f) shared++;
+      for (const [formula, position] of [[f, at], [copy, to]] as const) {
+        const expected = run((x) => p.library(x, position), formula, p.log);
+        const expectedLog = [...p.log];
+        const got = run((x) => p.ours(x, position), formula, p.log);
+        expect({ formula, position, got, log: p.log }).toEqual({ formula, position, got: expected, log: expectedLog });
+        // The references that order a recalculation, from the shared shape, are those the text names.
+        let refs: unknown;
+        try {
+          refs = references(formula, position);
+        } catch {
+          continue;
+        }
+        expect({ formula, refs }).toEqual({ formula, refs: references(formula) });
+      }
+    }
+    // Many copies share their original's parse (761 with this seed). The rest name no relative
+    // cell, shift whole rows or columns (A:A, 1:2, written as they are in the key), or fall to the library.
+    expect(shared).toBeGreaterThan(500);
+  });
+
+  it("keeps apart what only looks alike: fixed parts, lower-case references, text and sheet names", () => {
+    expect(shapeKey("A1*2", 1, 2)).toBe(shapeKey("A2*2", 2, 2));
+    expect(shapeKey("$A1*2", 1, 2)).toBe(shapeKey("$A2*2", 2, 5));
+    expect(shapeKey("A$1*2", 1, 2)).not.toBe(shapeKey("A$2*2", 2, 2));
+    expect(shapeKey("$A$1", 1, 1)).not.toBe(shapeKey("$A$2", 2, 1));
+    expect(shapeKey("a1*2", 1, 2)).not.toBe(shapeKey("a2*2", 2, 2));
+    expect(shapeKey('"A1"&A1', 1, 2)).not.toBe(shapeKey('"A2"&A2', 2, 2));
+    expect(shapeKey("A1!B1", 1, 1)).not.toBe(shapeKey("A2!B1", 2, 1));
+    expect(shapeKey("LOG10(A1)", 1, 2)).toBe(shapeKey("LOG10(A2)", 2, 2));
+    expect(shapeKey("A1+Name1", 1, 2)).toBeUndefined();
   });
 
   it("tokenizes as the library's lexer does wherever it tokenizes at all", () => {

@@ -16,7 +16,7 @@ import FormulaErrorClass from "fast-formula-parser/formulas/error";
 import { formulaLibrary } from "./formulaLibrary";
 import { columnNumber } from "./address";
 import { dottedName } from "./storedForm";
-import { cellAddress, compile, type Compiled, type FastToken, type LibraryParser, tokenize } from "./formulaFast";
+import { cellParts, compile, relativeInShape, type Compiled, type FastToken, type LibraryParser, shapeKey, tokenize } from "./formulaFast";
 
 export type { FunctionArg, RangeRef };
 /** The library's error value (its small module of its own: usable before the parser is loaded). */
@@ -47,7 +47,7 @@ export function evaluatingParser(options: {
   const library = parser as unknown as LibraryParser;
   return {
     parse: (formula, position) => {
-      const compiled = compiledFormula(formula);
+      const compiled = compiledFormula(formula, position);
       if (!compiled) return parser.parse(formula, position, true);
       // The library's own parse(), with our front end in place of its lexer and parser.
       library.position = position;
@@ -62,25 +62,40 @@ export function evaluatingParser(options: {
 }
 
 /**
- * Tokens and parsed form by formula text, a bounded cache: a recalculation reads a formula's
- * references and then evaluates it, and the pane analyses the same formulas again and again.
+ * A formula's shape (see shapeKey): its tokens as read at the cell it was first met in, parsed
+ * and its references found when first asked for. Formulas filled down a column share one.
  */
-const FAST = new Map<string, { tokens: FastToken[] | undefined; compiled?: Compiled | null }>();
-
-function fastFormula(formula: string): { tokens: FastToken[] | undefined; compiled?: Compiled | null } {
-  let f = FAST.get(formula);
-  if (!f) {
-    if (FAST.size >= 2_000) FAST.clear();
-    f = { tokens: tokenize(formula) };
-    FAST.set(formula, f);
-  }
-  return f;
+interface Shape {
+  tokens: FastToken[];
+  origin: { row: number; col: number };
+  compiled?: Compiled | null;
+  refs?: ShapeRef[];
 }
 
-function compiledFormula(formula: string): Compiled | undefined {
-  const f = fastFormula(formula);
-  if (f.compiled === undefined) f.compiled = compile(f.tokens) ?? null;
-  return f.compiled ?? undefined;
+/** Shapes by key, a bounded cache: a recalculation reads a formula's references and then evaluates it, and the pane analyses the same formulas again and again. */
+const SHAPES = new Map<string, Shape>();
+/** The last formula asked about, at its cell: its references and its evaluation come one after the other. */
+let last: { formula: string; row: number; col: number; shape: Shape | undefined } | undefined;
+
+/** The formula's shape at a cell, or undefined when the fast front end cannot tokenize it. */
+function shapeOf(formula: string, at: { row: number; col: number }): Shape | undefined {
+  if (last && last.formula === formula && last.row === at.row && last.col === at.col) return last.shape;
+  const key = shapeKey(formula, at.row, at.col);
+  let shape = key === undefined ? undefined : SHAPES.get(key);
+  if (key !== undefined && !shape) {
+    if (SHAPES.size >= 5_000) SHAPES.clear();
+    shape = { tokens: tokenize(formula)!, origin: { row: at.row, col: at.col } };
+    SHAPES.set(key, shape);
+  }
+  last = { formula, row: at.row, col: at.col, shape };
+  return shape;
+}
+
+function compiledFormula(formula: string, at: { row: number; col: number }): Compiled | undefined {
+  const shape = shapeOf(formula, at);
+  if (!shape) return undefined;
+  if (shape.compiled === undefined) shape.compiled = compile(shape.tokens, shape.origin) ?? null;
+  return shape.compiled ?? undefined;
 }
 
 /** The name of the function the library does not implement, when that is what an error says. */
@@ -195,24 +210,38 @@ interface FormulaRef {
   to: { row: number; col: number };
 }
 
+/** One corner of a reference in a shape: row 0 for a whole column, column 0 for a whole row; relative parts as offsets from the formula's cell. */
+interface ShapePoint {
+  row: number;
+  col: number;
+  rowRelative: boolean;
+  colRelative: boolean;
+}
 
+interface ShapeRef {
+  sheet?: string;
+  a: ShapePoint;
+  b: ShapePoint;
+}
 
 function sheetOf(image: string): string {
   const name = image.slice(0, -1);
   return name.startsWith("'") ? name.slice(1, -1).replace(/''/g, "'") : name;
 }
 
-/**
- * The cell and range references a formula names in its text (not those reached through
- * INDIRECT or OFFSET), from the same lexer that evaluates it. Used to order a recalculation.
- */
-export function references(formula: string): FormulaRef[] {
-  const tokens = fastFormula(formula).tokens ?? (formulaLibrary().lex(formula).tokens as Token[]).map((t) => ({ type: t.tokenType.name, image: t.image }));
-  const out: FormulaRef[] = [];
-  const point = (image: string, type: string): { row: number; col: number } | undefined => {
-    if (type === "Cell") return cellAddress(image);
-    if (type === "Column") return { row: 0, col: columnNumber(image) };
-    if (type === "Number" && /^\d+$/.test(image)) return { row: Number(image), col: 0 };
+/** The references in a formula's tokens, relative to `origin` where shapeKey writes them relative (none given: as written). */
+function shapeRefs(tokens: readonly { type: string; image: string }[], origin?: { row: number; col: number }): ShapeRef[] {
+  const out: ShapeRef[] = [];
+  const point = (image: string, type: string): ShapePoint | undefined => {
+    if (type === "Cell") {
+      const c = cellParts(image);
+      const relative = origin !== undefined && relativeInShape(c);
+      const rowRelative = relative && !c.rowFixed;
+      const colRelative = relative && !c.colFixed;
+      return { row: rowRelative ? c.row - origin!.row : c.row, col: colRelative ? c.col - origin!.col : c.col, rowRelative, colRelative };
+    }
+    if (type === "Column") return { row: 0, col: columnNumber(image), rowRelative: false, colRelative: false };
+    if (type === "Number" && /^\d+$/.test(image)) return { row: Number(image), col: 0, rowRelative: false, colRelative: false };
     return undefined;
   };
   for (let i = 0; i < tokens.length; i++) {
@@ -237,10 +266,36 @@ export function references(formula: string): FormulaRef[] {
     }
     // A bare number or column letters alone is not a reference: only as part of A:A or 1:1.
     if (end === j && tokens[j].type !== "Cell") continue;
-    const from = { row: Math.min(a.row, b.row) || 1, col: Math.min(a.col, b.col) || 1 };
-    const to = { row: a.row && b.row ? Math.max(a.row, b.row) : MAX_ROW, col: a.col && b.col ? Math.max(a.col, b.col) : MAX_COLUMN };
-    out.push({ sheet, from, to });
+    out.push({ sheet, a, b });
     i = end;
   }
   return out;
+}
+
+/** A shape's references placed at a cell. */
+function placed(refs: readonly ShapeRef[], at: { row: number; col: number }): FormulaRef[] {
+  return refs.map(({ sheet, a, b }) => {
+    const ar = a.rowRelative ? at.row + a.row : a.row;
+    const ac = a.colRelative ? at.col + a.col : a.col;
+    const br = b.rowRelative ? at.row + b.row : b.row;
+    const bc = b.colRelative ? at.col + b.col : b.col;
+    const from = { row: Math.min(ar, br) || 1, col: Math.min(ac, bc) || 1 };
+    const to = { row: ar && br ? Math.max(ar, br) : MAX_ROW, col: ac && bc ? Math.max(ac, bc) : MAX_COLUMN };
+    return { sheet, from, to };
+  });
+}
+
+/**
+ * The cell and range references a formula names in its text (not those reached through
+ * INDIRECT or OFFSET), from the same lexer that evaluates it. Used to order a recalculation.
+ * The cell the formula is in (`at`) only lets formulas filled down a column share the work.
+ */
+export function references(formula: string, at: { row: number; col: number } = { row: 1, col: 1 }): FormulaRef[] {
+  const shape = shapeOf(formula, at);
+  if (!shape) {
+    const tokens = (formulaLibrary().lex(formula).tokens as Token[]).map((t) => ({ type: t.tokenType.name, image: t.image }));
+    return placed(shapeRefs(tokens), at);
+  }
+  shape.refs ??= shapeRefs(shape.tokens, shape.origin);
+  return placed(shape.refs, at);
 }

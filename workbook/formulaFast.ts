@@ -40,72 +40,129 @@ function lengthAt(re: RegExp, text: string, at: number): number {
   return re.test(text) ? re.lastIndex - at : 0;
 }
 
-function matchAt(re: RegExp, text: string, at: number): string | undefined {
-  const n = lengthAt(re, text, at);
-  return n ? text.slice(at, at + n) : undefined;
-}
-
 /**
- * The formula's tokens as the library's lexer would give them, or undefined when it holds a
- * token this front end leaves to the library (a name, an error literal, @, [ ], { }, ;, a
- * single-quoted string that is not a sheet name).
+ * Walks the formula's tokens as the library's lexer would find them, calling `emit` with each
+ * one's kind and span; false when it holds a token this front end leaves to the library (a
+ * name, an error literal, @, [ ], { }, ;, a single-quoted string that is not a sheet name).
  */
-export function tokenize(text: string): FastToken[] | undefined {
-  const out: FastToken[] = [];
+function scan(text: string, emit: (type: TokenType, start: number, end: number) => void): boolean {
   let at = 0;
   while (at < text.length) {
     const ch = text[at];
     const code = text.charCodeAt(at);
     let type: TokenType | undefined;
-    let image: string | undefined;
+    let n = 0;
     // Each first character can only start some of the library's tokens: try those, in its order.
-    const space = code <= 32 || code >= 0x7f ? matchAt(SPACE, text, at) : undefined;
-    if (space) {
-      at += space.length;
-      continue;
+    if (code <= 32 || code >= 0x7f) {
+      const space = lengthAt(SPACE, text, at);
+      if (space) {
+        at += space;
+        continue;
+      }
     }
     if (ch === '"') {
-      if (!(image = matchAt(STRING, text, at))) return undefined;
+      if (!(n = lengthAt(STRING, text, at))) return false;
       type = "String";
     } else if (ch === "'") {
-      if (!(image = matchAt(SHEET_QUOTED, text, at))) return undefined;
+      if (!(n = lengthAt(SHEET_QUOTED, text, at))) return false;
       type = "SheetQuoted";
     } else if (code >= 48 && code <= 57) {
-      if ((image = matchAt(SHEET, text, at))) type = "Sheet";
-      else if ((image = matchAt(NUMBER, text, at))) type = "Number";
-      else return undefined;
+      if ((n = lengthAt(SHEET, text, at))) type = "Sheet";
+      else if ((n = lengthAt(NUMBER, text, at))) type = "Number";
+      else return false;
     } else if ((code >= 65 && code <= 90) || (code >= 97 && code <= 122) || ch === "_" || ch === "$" || ch === "." || code >= 0x7f) {
-      if ((image = matchAt(FUNCTION, text, at))) type = "Function";
-      else if ((image = matchAt(SHEET, text, at))) type = "Sheet";
-      else if ((image = matchAt(CELL, text, at))) {
+      if ((n = lengthAt(FUNCTION, text, at))) type = "Function";
+      else if ((n = lengthAt(SHEET, text, at))) type = "Sheet";
+      else if ((n = lengthAt(CELL, text, at))) {
         // The library's Cell and Column tokens give way to a longer Name (its longer_alt).
-        if (lengthAt(NAME, text, at) > image.length) return undefined;
+        if (lengthAt(NAME, text, at) > n) return false;
         type = "Cell";
-      } else if ((image = matchAt(BOOLEAN, text, at))) type = "Boolean";
-      else if ((image = matchAt(COLUMN, text, at))) {
-        if (lengthAt(NAME, text, at) > image.length) return undefined;
+      } else if ((n = lengthAt(BOOLEAN, text, at))) type = "Boolean";
+      else if ((n = lengthAt(COLUMN, text, at))) {
+        if (lengthAt(NAME, text, at) > n) return false;
         type = "Column";
-      } else return undefined;
-    } else if (ch === ",") [type, image] = ["Comma", ch];
-    else if (ch === ":") [type, image] = ["Colon", ch];
-    else if (ch === "(") [type, image] = ["OpenParen", ch];
-    else if (ch === ")") [type, image] = ["CloseParen", ch];
-    else if (ch === "%") [type, image] = ["Percent", ch];
-    else if (ch === "*" || ch === "+" || ch === "/" || ch === "-" || ch === "&" || ch === "^" || ch === "=") [type, image] = ["Op", ch];
+      } else return false;
+    } else if (ch === ",") [type, n] = ["Comma", 1];
+    else if (ch === ":") [type, n] = ["Colon", 1];
+    else if (ch === "(") [type, n] = ["OpenParen", 1];
+    else if (ch === ")") [type, n] = ["CloseParen", 1];
+    else if (ch === "%") [type, n] = ["Percent", 1];
+    else if (ch === "*" || ch === "+" || ch === "/" || ch === "-" || ch === "&" || ch === "^" || ch === "=") [type, n] = ["Op", 1];
     else if (ch === "<" || ch === ">") {
-      const two = text.slice(at, at + 2);
-      image = two === "<>" || two === ">=" || two === "<=" ? two : ch;
+      const next = text[at + 1];
+      n = (ch === "<" && next === ">") || next === "=" ? 2 : 1;
       type = "Op";
-    } else return undefined; // #errors, @, [ ], { }, ; and anything else
-    out.push({ type, image });
-    at += image.length;
+    } else return false; // #errors, @, [ ], { }, ; and anything else
+    emit(type, at, at + n);
+    at += n;
   }
-  return out;
+  return true;
+}
+
+/** The formula's tokens as the library's lexer would give them, or undefined where scan() gives up. */
+export function tokenize(text: string): FastToken[] | undefined {
+  const out: FastToken[] = [];
+  return scan(text, (type, start, end) => out.push({ type, image: text.slice(start, end) })) ? out : undefined;
+}
+
+/** A Cell token's parts: column and row, each with or without $. */
+export interface CellParts {
+  col: number;
+  row: number;
+  colFixed: boolean;
+  rowFixed: boolean;
+  /** Written in capitals, as Excel stores references: only these are written relative in a shape. */
+  upper: boolean;
+}
+
+export function cellParts(text: string, start = 0, end = text.length): CellParts {
+  let i = start;
+  const colFixed = text[i] === "$";
+  if (colFixed) i++;
+  let col = 0;
+  let upper = true;
+  for (; i < end; i++) {
+    const c = text.charCodeAt(i);
+    if (c >= 97 && c <= 122) upper = false;
+    else if (c < 65 || c > 90) break;
+    col = col * 26 + ((c | 32) - 96);
+  }
+  const rowFixed = text[i] === "$";
+  if (rowFixed) i++;
+  let row = 0;
+  for (; i < end; i++) row = row * 10 + (text.charCodeAt(i) - 48);
+  return { col, row, colFixed, rowFixed, upper };
+}
+
+/** Written relative to the formula's cell in a shape: capitalised, and not fixed in both parts. */
+export function relativeInShape(c: CellParts): boolean {
+  return c.upper && !(c.colFixed && c.rowFixed);
+}
+
+/**
+ * The key of a formula's shape at a cell: its text with each capitalised cell reference written
+ * relative to that cell (fixed parts as written), so a formula filled down a column gives one key
+ * and is parsed once. Two texts with one key differ only in references that point the same way
+ * from their cells, which the lexer reads alike (only digits and capitals change, and what
+ * follows is the same). Undefined where scan() gives up, or where the text holds the marker.
+ */
+export function shapeKey(text: string, row: number, col: number): string | undefined {
+  if (text.includes("\0")) return undefined;
+  let key = "";
+  let from = 0;
+  const ok = scan(text, (type, start, end) => {
+    if (type !== "Cell") return;
+    const c = cellParts(text, start, end);
+    if (!relativeInShape(c)) return;
+    key += `${text.slice(from, start)}\0${c.colFixed ? `$${c.col}` : c.col - col},${c.rowFixed ? `$${c.row}` : c.row - row}\0`;
+    from = end;
+  });
+  return ok ? key + text.slice(from) : undefined;
 }
 
 /** What the library's parser object offers the evaluation (fast-formula-parser grammar/hooks.js and utils.js). */
 export interface LibraryParser {
-  position: unknown;
+  position: { sheet: string; row: number; col: number };
   async: boolean;
   utils: {
     parseCellAddress(address: string): unknown;
@@ -126,17 +183,10 @@ export interface LibraryParser {
 /** A parsed formula: evaluating it calls the library's steps in the order its parser would. */
 export type Compiled = (p: LibraryParser) => unknown;
 
-/** A Cell token's parts, as the library's parseCellAddress reads them (grammar/utils.js). */
-export function cellAddress(image: string): { address: string; row: number; col: number } {
-  let i = image[0] === "$" ? 1 : 0;
-  let col = 0;
-  for (; i < image.length; i++) {
-    const c = image.charCodeAt(i) | 32; // lower case
-    if (c < 97 || c > 122) break;
-    col = col * 26 + (c - 96);
-  }
-  if (image[i] === "$") i++;
-  return { address: image, row: Number(image.slice(i)), col };
+/** A cell address's row and column ("B7", "$B$7", "b7"). */
+export function cellAddress(image: string): { row: number; col: number } {
+  const { row, col } = cellParts(image);
+  return { row, col };
 }
 
 /** The library's binary operators by precedence, highest first (grammar/parsing.js). */
@@ -149,7 +199,11 @@ const OPERAND_START = new Set<TokenType>(["String", "SheetQuoted", "Function", "
 /** Parses the tokens by the library's grammar; throws Unsupported for what it leaves to the library. */
 class Parser {
   private at = 0;
-  constructor(private readonly tokens: FastToken[]) {}
+  /** With an origin, capitalised relative references are read from the evaluating cell's position (see shapeKey). */
+  constructor(
+    private readonly tokens: FastToken[],
+    private readonly origin?: { row: number; col: number },
+  ) {}
 
   private peek(): FastToken | undefined {
     return this.tokens[this.at];
@@ -251,10 +305,22 @@ class Parser {
     switch (t.type) {
       case "Cell": {
         this.at++;
-        // What the library's parseCellAddress gives, worked out once: a new object each time,
-        // as the library fills in the sheet on the reference it is given.
-        const { address, row, col } = cellAddress(t.image);
-        return () => ({ ref: { address, col, row } });
+        // A new reference object each time, as the library's parseCellAddress gives (it fills in
+        // the sheet on the reference it is given). Its `address` text is left out: the library
+        // never reads it, and nothing of ours does.
+        const c = cellParts(t.image);
+        const origin = this.origin;
+        if (!origin || !relativeInShape(c)) {
+          const { row, col } = c;
+          return () => ({ ref: { col, row } });
+        }
+        const dc = c.colFixed ? 0 : c.col - origin.col;
+        const dr = c.rowFixed ? 0 : c.row - origin.row;
+        const col = c.colFixed ? c.col : 0;
+        const row = c.rowFixed ? c.row : 0;
+        const rowOf = c.rowFixed ? () => row : (p: LibraryParser) => p.position.row + dr;
+        const colOf = c.colFixed ? () => col : (p: LibraryParser) => p.position.col + dc;
+        return (p) => ({ ref: { col: colOf(p), row: rowOf(p) } });
       }
       case "Column": {
         this.at++;
@@ -308,11 +374,15 @@ class Parser {
   }
 }
 
-/** The formula (as its tokens) parsed for evaluation, or undefined when it is left to the library. */
-export function compile(tokens: FastToken[] | undefined): Compiled | undefined {
+/**
+ * The formula (as its tokens) parsed for evaluation, or undefined when it is left to the library.
+ * Given the cell it was written in, the result serves every formula of the same shapeKey, each
+ * evaluated with the library's position set to its own cell.
+ */
+export function compile(tokens: FastToken[] | undefined, origin?: { row: number; col: number }): Compiled | undefined {
   if (!tokens?.length) return undefined;
   try {
-    return new Parser(tokens).whole();
+    return new Parser(tokens, origin).whole();
   } catch (e) {
     if (e instanceof Unsupported) return undefined;
     throw e;

@@ -347,7 +347,7 @@ export class Recalculation {
   private precedents(cell: CellModel): CellModel[] {
     let refs;
     try {
-      refs = references(this.prepared(cell));
+      refs = references(this.prepared(cell), cell);
     } catch {
       return [];
     }
