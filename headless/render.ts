@@ -30,7 +30,15 @@ export function renderTable(cells: readonly CellOutcome[]): string {
     for (const r of rows) if (r[j].length > w) w = r[j].length;
     return Math.min(limits[j], w);
   });
-  const line = (r: string[]) => r.map((v, j) => clip(v, widths[j]).padEnd(widths[j])).join("  ").trimEnd();
+  // Each column padded to its width, two spaces between columns, no trailing spaces.
+  const line = (r: string[]) => {
+    let text = "";
+    for (let j = 0; j < r.length; j++) {
+      const v = clip(r[j], widths[j]);
+      text += j < r.length - 1 ? v + " ".repeat(widths[j] - v.length + 2) : v;
+    }
+    return text.trimEnd();
+  };
   const out = [line(head), widths.map((w) => "-".repeat(w)).join("  ")];
   cells.forEach((c, i) => {
     out.push(line(rows[i]));

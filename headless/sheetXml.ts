@@ -101,6 +101,26 @@ function cachedValue(type: string | undefined, text: string | undefined, strings
   }
 }
 
+// The patterns readSheet applies to every cell, made once (a literal in the loop is a new object each time).
+const CELL_END = /<\/(?:\w+:)?c>/g;
+const FORMULA = /<(?:\w+:)?f\b([^>]*?)(?:\/>|>([\s\S]*?)<\/(?:\w+:)?f>)/;
+const VALUE = /<(?:\w+:)?v\b[^>]*>([\s\S]*?)<\/(?:\w+:)?v>/;
+const INLINE = /<(?:\w+:)?is\b[^>]*>([\s\S]*?)<\/(?:\w+:)?is>/;
+
+/** True when the body holds an element of that one-letter name, with or without a namespace prefix (a quick test before the pattern). */
+function holds(body: string, letter: string): boolean {
+  return body.includes(`<${letter}`) || body.includes(`:${letter}`);
+}
+
+/** True for a plain address (A1, not $A$1 or a1): the stored reference is then the cell's address as it stands. */
+function plainAddress(ref: string): boolean {
+  let i = 0;
+  while (i < ref.length && ref.charCodeAt(i) >= 65 && ref.charCodeAt(i) <= 90) i++;
+  if (i === 0 || i === ref.length) return false;
+  for (; i < ref.length; i++) if (ref.charCodeAt(i) < 48 || ref.charCodeAt(i) > 57) return false;
+  return true;
+}
+
 /** One sheet's cells from its XML. */
 function readSheet(name: string, xml: string, strings: readonly string[], formats: readonly string[], date1904: boolean): SheetModel {
   const cells = new Map<string, CellModel>();
@@ -122,24 +142,22 @@ function readSheet(name: string, xml: string, strings: readonly string[], format
     const ref = attr(tag, "r");
     if (ref) ({ row, col } = cellAddress(ref));
     else col++;
-    // The stored reference is the address when it is plain (A1, not $A$1 or a1).
-    const address = ref && /^[A-Z]+\d+$/.test(ref) ? ref : addressOf(row, col);
+    const address = ref && plainAddress(ref) ? ref : addressOf(row, col);
     let body = "";
     if (m[3] !== "/") {
-      const endTag = /<\/(?:\w+:)?c>/g;
-      endTag.lastIndex = tags.lastIndex;
-      const e = endTag.exec(data);
+      CELL_END.lastIndex = tags.lastIndex;
+      const e = CELL_END.exec(data);
       body = data.slice(tags.lastIndex, e ? e.index : data.length);
       tags.lastIndex = e ? e.index + e[0].length : data.length;
     }
     const type = attr(tag, "t");
     const styleIndex = attr(tag, "s");
     const format = styleIndex === undefined ? undefined : formats[Number(styleIndex)];
-    const f = /<(?:\w+:)?f\b([^>]*?)(?:\/>|>([\s\S]*?)<\/(?:\w+:)?f>)/.exec(body);
-    const v = /<(?:\w+:)?v\b[^>]*>([\s\S]*?)<\/(?:\w+:)?v>/.exec(body)?.[1];
+    const f = holds(body, "f") ? FORMULA.exec(body) : null;
+    const v = holds(body, "v") ? VALUE.exec(body)?.[1] : undefined;
     let value: CellValue;
     if (type === "inlineStr") {
-      const is = /<(?:\w+:)?is\b[^>]*>([\s\S]*?)<\/(?:\w+:)?is>/.exec(body)?.[1];
+      const is = INLINE.exec(body)?.[1];
       value = is === undefined ? cachedValue(type, v, strings) : textOf(is);
     } else value = cachedValue(type, v, strings);
     if (typeof value === "number" && format && (type === undefined || type === "n") && isDateFormat(format)) value = serialToIso(value, date1904);

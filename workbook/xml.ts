@@ -2,6 +2,7 @@
 
 /** Replaces the five named entities and numeric character references. */
 export function unescapeXml(text: string): string {
+  if (!text.includes("&")) return text;
   return text.replace(/&(lt|gt|amp|quot|apos|#x[0-9a-f]+|#\d+);/gi, (_, e: string) => {
     const lower = e.toLowerCase();
     if (lower === "lt") return "<";
