@@ -122,7 +122,11 @@ function commandConfig() {
     optimization: { minimize: true },
     // One file: the modules reached by import() (exceljs, the demo, the hand-off copy) are still
     // evaluated only when a command needs them, so `nappe recalc` starts without them.
-    plugins: [new webpack.optimize.LimitChunkCountPlugin({ maxChunks: 1 })],
+    plugins: [
+      new webpack.optimize.LimitChunkCountPlugin({ maxChunks: 1 }),
+      // The formula library's parser loads when first needed (headless/formulaLibraryCommand.ts).
+      new webpack.NormalModuleReplacementPlugin(/(^|[\\/])formulaLibrary$/, path.join(root, "headless/formulaLibraryCommand.ts")),
+    ],
     performance: { hints: false },
   };
 }

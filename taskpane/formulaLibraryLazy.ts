@@ -13,8 +13,9 @@ export function formulaLibraryReady(): Promise<void> {
   loading ??= Promise.all([
     import(/* webpackChunkName: "formula" */ "fast-formula-parser"),
     import(/* webpackChunkName: "formula" */ "fast-formula-parser/grammar/lexing"),
-  ]).then(([parser, lexing]) => {
-    library = { FormulaParser: parser.default, lex: lexing.lex };
+    import(/* webpackChunkName: "formula" */ "../workbook/formulaSteps"),
+  ]).then(([parser, lexing, steps]) => {
+    library = { FormulaParser: parser.default, lex: lexing.lex, steps: steps.STEPS };
   });
   return loading;
 }

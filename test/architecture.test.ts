@@ -61,9 +61,9 @@ describe("layers", () => {
     const cycles = [...pairs].filter((p) => pairs.has(p.split("→").reverse().join("→")));
     expect(cycles).toEqual([]);
   });
-  it("only workbook/formula.ts uses the formula library (formulaLibrary.ts and the pane's lazy twin only load it)", () => {
-    const users = files.filter((f) => !f.endsWith(".d.ts") && /from "fast-formula-parser|import\(\/\*[^*]*\*\/ "fast-formula-parser/.test(readFileSync(f, "utf8"))).map((f) => relative(root, f)).sort();
-    expect(users).toEqual(["taskpane/formulaLibraryLazy.ts", "workbook/formula.ts", "workbook/formulaLibrary.ts"]);
+  it("only workbook/formula.ts uses the formula library (formulaLibrary.ts, its twins and formulaSteps.ts only load it)", () => {
+    const users = files.filter((f) => !f.endsWith(".d.ts") && /from "fast-formula-parser|import\(\/\*[^*]*\*\/ "fast-formula-parser|require\("fast-formula-parser/.test(readFileSync(f, "utf8"))).map((f) => relative(root, f)).sort();
+    expect(users).toEqual(["headless/formulaLibraryCommand.ts", "taskpane/formulaLibraryLazy.ts", "workbook/formula.ts", "workbook/formulaLibrary.ts", "workbook/formulaSteps.ts"]);
   });
 });
 
@@ -104,6 +104,17 @@ describe("the formula library's internals the adapter relies on (fast-formula-pa
     await lazy.formulaLibraryReady();
     expect(lazy.formulaLibrary().FormulaParser).toBe(FormulaParser);
     expect(lazy.formulaLibrary().lex).toBe(lex);
+    expect(lazy.formulaLibrary().steps).toBe(eager.formulaLibrary().steps);
+  });
+  it("the command's twin of formulaLibrary.ts has the same exports, and loads the parser and lexer only when asked for them", async () => {
+    const command = await import("../headless/formulaLibraryCommand");
+    const eager = await import("../workbook/formulaLibrary");
+    expect(Object.keys(command).sort()).toEqual(Object.keys(eager).sort());
+    expect(Object.keys(command.formulaLibrary()).sort()).toEqual(Object.keys(eager.formulaLibrary()).sort());
+    expect(command.formulaLibrary().steps).toBe(eager.formulaLibrary().steps);
+    expect(command.formulaLibrary().FormulaParser).toBe(FormulaParser);
+    expect(command.formulaLibrary().lex).toBe(lex);
+    // The built command does not load them for ordinary formulas: test/headless.test.ts.
   });
   it("has the evaluation steps the fast front end calls (workbook/formulaFast.ts), as methods of the names it uses", () => {
     const parser = new FormulaParser({}) as unknown as { utils: Record<string, unknown> } & Record<string, unknown>;

@@ -3,6 +3,7 @@
  * hand-built workbook whose expected values come from the reference tests, the reports, and
  * bad input.
  */
+import { execFile } from "node:child_process";
 import { createHash } from "node:crypto";
 import { copyFileSync, existsSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
@@ -112,6 +113,28 @@ describe("the demo workbook", () => {
 });
 
 describe("the nappe command", () => {
+  it("loads the formula library's parser only for a formula the fast front end leaves to it", async () => {
+    const dir = tempDir();
+    const book = new ExcelJS.Workbook();
+    const ws = book.addWorksheet("Plain");
+    for (let r = 1; r <= 3; r++) {
+      ws.getCell(r, 1).value = r;
+      ws.getCell(r, 2).value = { formula: `IF(A${r}>1,SQRT(A${r}),A${r}*2)+Plain!A1` };
+    }
+    const plain = await save(book, join(dir, "plain.xlsx"));
+    ws.getCell(4, 2).value = { formula: "SUM({1,2,3})" }; // an array constant: the library's parser
+    const constant = await save(book, join(dir, "constant.xlsx"));
+    const run = (file: string) =>
+      new Promise<{ stdout: string; stderr: string }>((done) =>
+        execFile(process.execPath, ["--require", join(root, "test/fixtures/loadedModules.cjs"), join(root, "bin/nappe.mjs"), "recalc", "--all", "--allow-empty", file], (_, stdout, stderr) => done({ stdout, stderr })),
+      );
+    const a = await run(plain);
+    expect(a.stdout).toMatch(/Plain\s+B3\s+=IF\(A3>1,SQRT\(A3\),A3\*2\)\+Plain!A1\s+2\.732\s/);
+    expect(a.stderr).toContain("loaded: []");
+    const b = await run(constant);
+    expect(b.stdout).toMatch(/Plain\s+B4\s+=SUM\(\{1,2,3\}\)\s+6\s/);
+    expect(b.stderr).toMatch(/loaded: \[.*"fast-formula-parser".*\]/);
+  });
   it("recalc prints the table and exits 0 on the demo workbook", async () => {
     const r = await nappe("recalc", join(root, "demo", DEMO_FILE));
     expect(r.code).toBe(0);

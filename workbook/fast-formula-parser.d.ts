@@ -53,3 +53,26 @@ declare module "fast-formula-parser/formulas/error" {
   import { FormulaError } from "fast-formula-parser";
   export default FormulaError;
 }
+
+// The library's evaluation modules, which load without its parser (workbook/formulaSteps.ts).
+declare module "fast-formula-parser/formulas/helpers" {
+  export const FormulaHelpers: {
+    isRangeRef(value: unknown): unknown;
+    isCellRef(value: unknown): unknown;
+    checkFunctionResult(result: unknown): unknown;
+  };
+  export const Address: { columnNameToNumber(name: string): number };
+}
+
+declare module "fast-formula-parser/formulas/operators" {
+  type Binary = (a: unknown, op: string, b: unknown, aIsArray: boolean, bIsArray: boolean) => unknown;
+  export const Prefix: { unaryOp(prefixes: string[], value: unknown, isArray: boolean): unknown };
+  export const Postfix: { percentOp(value: unknown, postfix: string, isArray: boolean): unknown };
+  export const Infix: { compareOp: Binary; concatOp: Binary; mathOp: Binary };
+  export const Operators: { compareOp: string[]; concatOp: string[]; mathOp: string[] };
+}
+
+declare module "fast-formula-parser/formulas/functions/*" {
+  const functions: Record<string, (...args: never[]) => unknown>;
+  export default functions;
+}

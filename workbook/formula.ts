@@ -13,10 +13,11 @@
 import type { CellRef, FunctionArg, RangeRef } from "fast-formula-parser";
 import type { Token } from "fast-formula-parser/grammar/lexing";
 import FormulaErrorClass from "fast-formula-parser/formulas/error";
-import { formulaLibrary } from "./formulaLibrary";
+import { type FormulaLibrary, formulaLibrary } from "./formulaLibrary";
+import { Evaluator } from "./formulaEvaluator";
 import { columnNumber } from "./address";
 import { dottedName } from "./storedForm";
-import { cellParts, compile, relativeInShape, type Compiled, type FastToken, type LibraryParser, shapeKey, tokenize } from "./formulaFast";
+import { cellParts, compile, relativeInShape, type Compiled, type FastToken, shapeKey, tokenize } from "./formulaFast";
 
 export type { FunctionArg, RangeRef };
 /** The library's error value (its small module of its own: usable before the parser is loaded). */
@@ -41,19 +42,27 @@ export function evaluatingParser(options: {
   onCell: (ref: CellRef) => unknown;
   onRange: (ref: RangeRef) => unknown[][];
 }): EvaluatingParser {
-  const parser = new (formulaLibrary().FormulaParser)({ functions: options.functions, onCell: options.onCell, onRange: options.onRange });
-  // Internal: the list of functions whose arguments keep their references.
-  parser.funsPreserveRef.push(...options.keepReferences.map((n) => n.toUpperCase()));
-  const library = parser as unknown as LibraryParser;
+  // The library's parser, made only for a formula the fast front end leaves to it: making one
+  // loads its grammar, which costs more than most workbooks take to evaluate.
+  let parser: InstanceType<FormulaLibrary["FormulaParser"]> | undefined;
+  const libraryParser = () => {
+    if (!parser) {
+      parser = new (formulaLibrary().FormulaParser)({ functions: options.functions, onCell: options.onCell, onRange: options.onRange });
+      // Internal: the list of functions whose arguments keep their references.
+      parser.funsPreserveRef.push(...options.keepReferences.map((n) => n.toUpperCase()));
+    }
+    return parser;
+  };
+  let evaluator: Evaluator | undefined;
   return {
     parse: (formula, position) => {
       const compiled = compiledFormula(formula, position);
-      if (!compiled) return parser.parse(formula, position, true);
+      if (!compiled) return libraryParser().parse(formula, position, true);
       // The library's own parse(), with our front end in place of its lexer and parser.
-      library.position = position;
-      library.async = false;
+      evaluator ??= new Evaluator(formulaLibrary().steps, options);
+      evaluator.position = position;
       try {
-        return library.checkFormulaResult(compiled(library), true);
+        return evaluator.checkFormulaResult(compiled(evaluator), true);
       } catch (e) {
         throw FormulaError.ERROR((e as Error).message, e);
       }

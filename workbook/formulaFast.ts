@@ -165,7 +165,6 @@ export interface LibraryParser {
   position: { sheet: string; row: number; col: number };
   async: boolean;
   utils: {
-    parseCellAddress(address: string): unknown;
     parseCol(column: string): unknown;
     applyRange(refs: unknown[]): unknown;
     applyPrefix(prefixes: string[], value: unknown): unknown;

@@ -6,8 +6,9 @@
  */
 import FormulaParser from "fast-formula-parser";
 import { lex } from "fast-formula-parser/grammar/lexing";
+import { STEPS } from "./formulaSteps";
 
-const LIBRARY = { FormulaParser, lex };
+const LIBRARY = { FormulaParser, lex, steps: STEPS };
 export type FormulaLibrary = typeof LIBRARY;
 
 /** Resolves once the library can be used (at once here). */

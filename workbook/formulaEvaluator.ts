@@ -1,0 +1,217 @@
+/**
+ * The formula library's evaluation steps for the fast front end (workbook/formulaFast.ts), run
+ * without building the library's parser: the parser brings Chevrotain and its grammar, which
+ * cost the command more at every start than a large workbook's formulas take to parse.
+ *
+ * Adapted from fast-formula-parser 1.0.19 (MIT): the synchronous paths of its parser object
+ * (grammar/hooks.js: getCell, getRange, retrieveRef, callFunction, checkFormulaResult, and the
+ * function lists its constructor makes) and of its Utils (grammar/utils.js: the prefix, postfix,
+ * infix and range steps, extractRefValue, the literals), in the library's order, with its own
+ * operators, helpers and function library (workbook/formulaSteps.ts). test/formulaFast.test.ts
+ * compares values, errors with their messages, and the cells read, with the library itself.
+ */
+import { FormulaError } from "./formula";
+import type { LibraryParser } from "./formulaFast";
+import type { LibrarySteps } from "./formulaSteps";
+
+type Fn = (...args: unknown[]) => unknown;
+type LibraryUtils = LibraryParser["utils"];
+type Ref = { sheet?: string; row?: number; col?: number; from?: { row: number; col: number }; to?: { row: number; col: number } };
+
+const MAX_ROW = 1048576;
+const MAX_COLUMN = 16384;
+/** Functions given the evaluator and their arguments as written (hooks.js funsNeedContextAndNoDataRetrieve). */
+const CONTEXT_NO_RETRIEVE = new Set(["ROW", "ROWS", "COLUMN", "COLUMNS", "SUMIF", "INDEX", "AVERAGEIF", "IF"]);
+/** Functions given the evaluator first (hooks.js funsNeedContext). */
+const CONTEXT = new Set([...CONTEXT_NO_RETRIEVE, "OFFSET", "INDIRECT", "CHOOSE", "WEBSERVICE"]);
+
+export interface EvaluatorConfig {
+  functions: Record<string, (...args: never[]) => unknown>;
+  keepReferences: readonly string[];
+  onCell: (ref: never) => unknown;
+  onRange: (ref: never) => unknown[][];
+}
+
+export class Evaluator implements LibraryParser {
+  position = { sheet: "", row: 0, col: 0 };
+  async = false;
+  readonly utils: Steps;
+  private readonly functions: Record<string, Fn>;
+  /** Functions for which a left-out argument is 0; for the others it is "". */
+  private readonly nullAs0: Set<string>;
+  /** Functions whose arguments keep the reference they were written as. */
+  private readonly keepRef: Set<string>;
+
+  constructor(
+    private readonly steps: LibrarySteps,
+    private readonly config: EvaluatorConfig,
+  ) {
+    const f = steps.functions;
+    this.functions = Object.assign({}, f.date, f.statistical, f.information, f.reference, f.engineering, f.logical, f.text, f.math, f.trigonometry, f.web, config.functions) as Record<string, Fn>;
+    this.nullAs0 = new Set([f.math, f.trigonometry, f.logical, f.engineering, f.reference, f.statistical, f.date].flatMap((group) => Object.keys(group)));
+    this.keepRef = new Set([...Object.keys(f.information), ...config.keepReferences.map((n) => n.toUpperCase())]);
+    this.utils = new Steps(this, steps);
+  }
+
+  retrieveRef(valueOrRef: unknown): unknown {
+    const h = this.steps.FormulaHelpers;
+    if (h.isRangeRef(valueOrRef)) return this.getRange((valueOrRef as { ref: Ref }).ref);
+    if (h.isCellRef(valueOrRef)) return this.getCell((valueOrRef as { ref: Ref }).ref);
+    return valueOrRef;
+  }
+
+  private getCell(ref: Ref): unknown {
+    if (ref.sheet == null) ref.sheet = this.position ? this.position.sheet : undefined;
+    return this.config.onCell(ref as never);
+  }
+
+  private getRange(ref: Ref): unknown {
+    if (ref.sheet == null) ref.sheet = this.position ? this.position.sheet : undefined;
+    return this.config.onRange(ref as never);
+  }
+
+  callFunction(name: string, args: unknown[]): unknown {
+    return this.steps.FormulaHelpers.checkFunctionResult(this.call(name, args));
+  }
+
+  private call(name: string, args: unknown[]): unknown {
+    if (name.indexOf("_xlfn.") === 0) name = name.slice(6);
+    name = name.toUpperCase();
+    const nullValue = this.nullAs0.has(name) ? 0 : "";
+    if (!CONTEXT_NO_RETRIEVE.has(name)) {
+      const h = this.steps.FormulaHelpers;
+      const keep = this.keepRef.has(name);
+      args = args.map((arg) => {
+        if (arg === null) return { value: nullValue, isArray: false, omitted: true };
+        const res = this.utils.extractRefValue(arg) as { val: unknown; isArray: boolean };
+        if (keep) return { value: res.val, isArray: res.isArray, ref: (arg as { ref?: Ref }).ref };
+        return { value: res.val, isArray: res.isArray, isRangeRef: !!h.isRangeRef(arg), isCellRef: !!h.isCellRef(arg) };
+      });
+    }
+    const fn = this.functions[name];
+    if (!fn) throw FormulaError.NOT_IMPLEMENTED(name);
+    let res: unknown;
+    try {
+      res = CONTEXT.has(name) ? fn(this, ...args) : fn(...args);
+    } catch (e) {
+      // The library lets functions throw its error as their result.
+      if (e instanceof FormulaError) return e;
+      throw e;
+    }
+    if (res === undefined) throw FormulaError.NOT_IMPLEMENTED(name);
+    return res;
+  }
+
+  checkFormulaResult(result: unknown, allowReturnArray = false): unknown {
+    if (typeof result === "number") {
+      if (isNaN(result)) return new FormulaError("#VALUE!");
+      if (!isFinite(result)) return new FormulaError("#NUM!");
+      return result + 0; // -0 as 0
+    }
+    // As the library: null is an object here, and reading its .ref below throws (a #ERROR! to the caller).
+    if (typeof result !== "object") return result;
+    if (result instanceof FormulaError) return result;
+    if (allowReturnArray) {
+      if ((result as { ref?: Ref }).ref) result = this.retrieveRef(result);
+      // A union or anything else that is neither a value nor an array.
+      if (typeof result === "object" && !Array.isArray(result) && result != null) return new FormulaError("#VALUE!");
+      return result;
+    }
+    const ref = (result as { ref?: Ref }).ref;
+    if (ref && ref.row && !ref.from) return this.retrieveRef(result);
+    if (ref && ref.from && ref.from.col === ref.to!.col) return this.retrieveRef({ ref: { row: ref.from.row, col: ref.from.col } });
+    if (Array.isArray(result)) return (result as unknown[][])[0][0];
+    return new FormulaError("#VALUE!");
+  }
+}
+
+/** The library's Utils steps the fast front end calls. */
+class Steps implements LibraryUtils {
+  constructor(
+    private readonly context: Evaluator,
+    private readonly steps: LibrarySteps,
+  ) {}
+
+  extractRefValue(obj: unknown): { val: unknown; isArray: boolean } {
+    const isArray = Array.isArray(obj);
+    if ((obj as { ref?: unknown }).ref) return { val: this.context.retrieveRef(obj), isArray };
+    return { val: obj, isArray };
+  }
+
+  isFormulaError(obj: unknown): boolean {
+    return obj instanceof FormulaError;
+  }
+
+  parseCol(column: string): { ref: Ref } {
+    return { ref: { col: this.steps.Address.columnNameToNumber(column), row: undefined } };
+  }
+
+  private parseRow(row: unknown): { ref: Ref } {
+    const n = Number(row);
+    if (!Number.isInteger(n)) throw Error("Row number must be integer.");
+    return { ref: { col: undefined, row: n } };
+  }
+
+  applyPrefix(prefixes: string[], value: unknown): unknown {
+    const { val, isArray } = this.extractRefValue(value);
+    if (this.isFormulaError(val)) return val;
+    return this.steps.Prefix.unaryOp(prefixes, val, isArray);
+  }
+
+  applyPostfix(value: unknown, postfix: string): unknown {
+    const { val, isArray } = this.extractRefValue(value);
+    if (this.isFormulaError(val)) return val;
+    return this.steps.Postfix.percentOp(val, postfix, isArray);
+  }
+
+  applyInfix(value1: unknown, infix: string, value2: unknown): unknown {
+    const a = this.extractRefValue(value1);
+    const b = this.extractRefValue(value2);
+    if (this.isFormulaError(a.val)) return a.val;
+    if (this.isFormulaError(b.val)) return b.val;
+    const { Infix, Operators } = this.steps;
+    if (Operators.compareOp.includes(infix)) return Infix.compareOp(a.val, infix, b.val, a.isArray, b.isArray);
+    if (Operators.concatOp.includes(infix)) return Infix.concatOp(a.val, infix, b.val, a.isArray, b.isArray);
+    if (Operators.mathOp.includes(infix)) return Infix.mathOp(a.val, infix, b.val, a.isArray, b.isArray);
+    throw new Error(`Unrecognized infix: ${infix}`);
+  }
+
+  applyRange(refs: unknown[]): unknown {
+    let maxRow = -1;
+    let maxCol = -1;
+    let minRow = MAX_ROW + 1;
+    let minCol = MAX_COLUMN + 1;
+    for (let item of refs) {
+      if (this.isFormulaError(item)) continue;
+      if (typeof item === "number") item = this.parseRow(item);
+      const ref = (item as { ref: Ref }).ref;
+      if (ref.row === undefined) {
+        minRow = 1;
+        maxRow = MAX_ROW;
+      }
+      if (ref.col === undefined) {
+        minCol = 1;
+        maxCol = MAX_COLUMN;
+      }
+      // As the library compares: undefined against a number is false either way.
+      if ((ref.row as number) > maxRow) maxRow = ref.row!;
+      if ((ref.row as number) < minRow) minRow = ref.row!;
+      if ((ref.col as number) > maxCol) maxCol = ref.col!;
+      if ((ref.col as number) < minCol) minCol = ref.col!;
+    }
+    if (maxRow === minRow && maxCol === minCol) return { ref: { row: maxRow, col: maxCol } };
+    return { ref: { from: { row: minRow, col: minCol }, to: { row: maxRow, col: maxCol } } };
+  }
+
+  toNumber(image: string): number {
+    return Number(image);
+  }
+
+  toString(image: string): string {
+    return image.substring(1, image.length - 1).replace(/""/g, '"');
+  }
+
+  toBoolean(image: string): boolean {
+    return image === "TRUE";
+  }
+}
