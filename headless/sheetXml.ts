@@ -182,7 +182,8 @@ function readSheet(name: string, xml: string, strings: readonly string[], format
     if (value === null && !model.formula) continue;
     cells.set(cellKey(row, col), model);
   }
-  mergedCells(name, xml, cells);
+  // Merged areas come after the cells in a worksheet (the element order of ECMA-376 Part 1's CT_Worksheet): only that part is searched.
+  mergedCells(name, end >= 0 ? xml.slice(end) : xml, cells);
   return { name, cells };
 }
 

@@ -281,30 +281,43 @@ function shapeRefs(tokens: readonly { type: string; image: string }[], origin?: 
   return out;
 }
 
-/** A shape's references placed at a cell. */
-function placed(refs: readonly ShapeRef[], at: { row: number; col: number }): FormulaRef[] {
-  return refs.map(({ sheet, a, b }) => {
+/** What eachReference calls for each reference: the sheet named (undefined for the formula's own) and the rectangle; false stops. */
+type ReferenceVisitor = (sheet: string | undefined, fromRow: number, fromCol: number, toRow: number, toCol: number) => boolean | void;
+
+/** Calls `visit` for each of a shape's references placed at a cell; false when a visit stopped it. */
+function eachPlaced(refs: readonly ShapeRef[], at: { row: number; col: number }, visit: ReferenceVisitor): boolean {
+  for (const { sheet, a, b } of refs) {
     const ar = a.rowRelative ? at.row + a.row : a.row;
     const ac = a.colRelative ? at.col + a.col : a.col;
     const br = b.rowRelative ? at.row + b.row : b.row;
     const bc = b.colRelative ? at.col + b.col : b.col;
-    const from = { row: Math.min(ar, br) || 1, col: Math.min(ac, bc) || 1 };
-    const to = { row: ar && br ? Math.max(ar, br) : MAX_ROW, col: ac && bc ? Math.max(ac, bc) : MAX_COLUMN };
-    return { sheet, from, to };
-  });
+    const ok = visit(sheet, Math.min(ar, br) || 1, Math.min(ac, bc) || 1, ar && br ? Math.max(ar, br) : MAX_ROW, ac && bc ? Math.max(ac, bc) : MAX_COLUMN);
+    if (ok === false) return false;
+  }
+  return true;
 }
 
 /**
- * The cell and range references a formula names in its text (not those reached through
- * INDIRECT or OFFSET), from the same lexer that evaluates it. Used to order a recalculation.
- * The cell the formula is in (`at`) only lets formulas filled down a column share the work.
+ * Calls `visit` for each cell and range reference a formula names in its text (not those reached
+ * through INDIRECT or OFFSET), from the same lexer that evaluates it, without building a list:
+ * a recalculation asks for every formula. False when a visit returned false. The cell the
+ * formula is in (`at`) lets formulas filled down a column share the work.
  */
-export function references(formula: string, at: { row: number; col: number } = { row: 1, col: 1 }): FormulaRef[] {
+export function eachReference(formula: string, at: { row: number; col: number }, visit: ReferenceVisitor): boolean {
   const shape = shapeOf(formula, at);
   if (!shape) {
     const tokens = (formulaLibrary().lex(formula).tokens as Token[]).map((t) => ({ type: t.tokenType.name, image: t.image }));
-    return placed(shapeRefs(tokens), at);
+    return eachPlaced(shapeRefs(tokens), at, visit);
   }
   shape.refs ??= shapeRefs(shape.tokens, shape.origin);
-  return placed(shape.refs, at);
+  return eachPlaced(shape.refs, at, visit);
+}
+
+/** The references a formula names in its text, as a list (see eachReference). */
+export function references(formula: string, at: { row: number; col: number } = { row: 1, col: 1 }): FormulaRef[] {
+  const out: FormulaRef[] = [];
+  eachReference(formula, at, (sheet, fromRow, fromCol, toRow, toCol) => {
+    out.push({ sheet, from: { row: fromRow, col: fromCol }, to: { row: toRow, col: toCol } });
+  });
+  return out;
 }

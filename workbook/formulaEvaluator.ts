@@ -83,9 +83,11 @@ export class Evaluator implements LibraryParser {
       const keep = this.keepRef.has(name);
       args = args.map((arg) => {
         if (arg === null) return { value: nullValue, isArray: false, omitted: true };
-        const res = this.utils.extractRefValue(arg) as { val: unknown; isArray: boolean };
-        if (keep) return { value: res.val, isArray: res.isArray, ref: (arg as { ref?: Ref }).ref };
-        return { value: res.val, isArray: res.isArray, isRangeRef: !!h.isRangeRef(arg), isCellRef: !!h.isCellRef(arg) };
+        // extractRefValue, without its pair object.
+        const isArray = Array.isArray(arg);
+        const value = (arg as { ref?: unknown }).ref ? this.retrieveRef(arg) : arg;
+        if (keep) return { value, isArray, ref: (arg as { ref?: Ref }).ref };
+        return { value, isArray, isRangeRef: !!h.isRangeRef(arg), isCellRef: !!h.isCellRef(arg) };
       });
     }
     const fn = this.functions[name];
@@ -152,27 +154,34 @@ class Steps implements LibraryUtils {
     return { ref: { col: undefined, row: n } };
   }
 
+  /** extractRefValue's value alone (its isArray is Array.isArray of the operand as given). */
+  private valueOf(obj: unknown): unknown {
+    return (obj as { ref?: unknown }).ref ? this.context.retrieveRef(obj) : obj;
+  }
+
   applyPrefix(prefixes: string[], value: unknown): unknown {
-    const { val, isArray } = this.extractRefValue(value);
+    const val = this.valueOf(value);
     if (this.isFormulaError(val)) return val;
-    return this.steps.Prefix.unaryOp(prefixes, val, isArray);
+    return this.steps.Prefix.unaryOp(prefixes, val, Array.isArray(value));
   }
 
   applyPostfix(value: unknown, postfix: string): unknown {
-    const { val, isArray } = this.extractRefValue(value);
+    const val = this.valueOf(value);
     if (this.isFormulaError(val)) return val;
-    return this.steps.Postfix.percentOp(val, postfix, isArray);
+    return this.steps.Postfix.percentOp(val, postfix, Array.isArray(value));
   }
 
   applyInfix(value1: unknown, infix: string, value2: unknown): unknown {
-    const a = this.extractRefValue(value1);
-    const b = this.extractRefValue(value2);
-    if (this.isFormulaError(a.val)) return a.val;
-    if (this.isFormulaError(b.val)) return b.val;
+    const a = this.valueOf(value1);
+    const b = this.valueOf(value2);
+    if (this.isFormulaError(a)) return a;
+    if (this.isFormulaError(b)) return b;
     const { Infix, Operators } = this.steps;
-    if (Operators.compareOp.includes(infix)) return Infix.compareOp(a.val, infix, b.val, a.isArray, b.isArray);
-    if (Operators.concatOp.includes(infix)) return Infix.concatOp(a.val, infix, b.val, a.isArray, b.isArray);
-    if (Operators.mathOp.includes(infix)) return Infix.mathOp(a.val, infix, b.val, a.isArray, b.isArray);
+    const aIsArray = Array.isArray(value1);
+    const bIsArray = Array.isArray(value2);
+    if (Operators.compareOp.includes(infix)) return Infix.compareOp(a, infix, b, aIsArray, bIsArray);
+    if (Operators.concatOp.includes(infix)) return Infix.concatOp(a, infix, b, aIsArray, bIsArray);
+    if (Operators.mathOp.includes(infix)) return Infix.mathOp(a, infix, b, aIsArray, bIsArray);
     throw new Error(`Unrecognized infix: ${infix}`);
   }
 

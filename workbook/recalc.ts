@@ -7,7 +7,7 @@
 import { CalcError } from "../functions/calc/_lib/result";
 import { evaluate, type Evaluation, type RawArg } from "../functions/bind/evaluate";
 import { CATALOG } from "../functions/catalog";
-import { type EvaluatingParser, evaluatingParser, FormulaError, type FormulaErrorValue, type FunctionArg, isParseError, MAX_COLUMN, MAX_ROW, notImplementedFunction, type RangeRef, references } from "./formula";
+import { type EvaluatingParser, evaluatingParser, FormulaError, type FormulaErrorValue, type FunctionArg, eachReference, isParseError, MAX_COLUMN, MAX_ROW, notImplementedFunction, type RangeRef } from "./formula";
 import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAddress, type SheetModel, type WorkbookModel } from "./model";
 import { sheetPrefix } from "./address";
 import { displayFormula, dottedName, expandLet, externalLinkIndexes, hasNappeCall, otherAddinFunctions, resolveNames, UDF_PREFIX, unknownNappeFunctions } from "./storedForm";
@@ -343,38 +343,37 @@ export class Recalculation {
     return cell ? cell.value : null;
   }
 
-  /** The formula cells a formula's text refers to (spill owners included). */
-  private precedents(cell: CellModel): CellModel[] {
-    let refs;
+  /**
+   * Calls `visit` for each formula cell a formula's text refers to (spill owners included), until
+   * a visit returns false; false then. Most formulas read a few single cells: no list is made.
+   */
+  private eachPrecedent(cell: CellModel, visit: (precedent: CellModel) => boolean | void): boolean {
     try {
-      refs = references(this.prepared(cell), cell);
-    } catch {
-      return [];
-    }
-    const out: CellModel[] = [];
-    for (const ref of refs) {
-      const sheet = this.sheet(ref.sheet ?? cell.sheet);
-      if (!sheet) continue;
-      const single = ref.from.row === ref.to.row && ref.from.col === ref.to.col;
-      if (single) {
-        const key = cellKey(ref.from.row, ref.from.col);
-        const c = sheet.cells.get(key);
-        if (c?.formula) out.push(c);
-        const owner = this.spillOwner.size ? this.spillOwner.get(`${sheet.name}!${key}`) : undefined;
-        if (owner) out.push(owner);
-        continue;
-      }
-      for (const c of this.formulaCells.get(sheet.name) ?? []) {
-        if (c.row >= ref.from.row && c.row <= ref.to.row && c.col >= ref.from.col && c.col <= ref.to.col) out.push(c);
-        else if (c.arrayRef) {
-          const [a, b] = c.arrayRef.split(":");
-          const p = parseAddress(a);
-          const q = parseAddress(b ?? a);
-          if (q.row >= ref.from.row && p.row <= ref.to.row && q.col >= ref.from.col && p.col <= ref.to.col) out.push(c);
+      return eachReference(this.prepared(cell), cell, (sheetName, fromRow, fromCol, toRow, toCol) => {
+        const sheet = this.sheet(sheetName ?? cell.sheet);
+        if (!sheet) return true;
+        if (fromRow === toRow && fromCol === toCol) {
+          const key = cellKey(fromRow, fromCol);
+          const c = sheet.cells.get(key);
+          if (c?.formula && visit(c) === false) return false;
+          const owner = this.spillOwner.size ? this.spillOwner.get(`${sheet.name}!${key}`) : undefined;
+          return !owner || visit(owner) !== false;
         }
-      }
+        for (const c of this.formulaCells.get(sheet.name) ?? []) {
+          let inside = c.row >= fromRow && c.row <= toRow && c.col >= fromCol && c.col <= toCol;
+          if (!inside && c.arrayRef) {
+            const [a, b] = c.arrayRef.split(":");
+            const p = parseAddress(a);
+            const q = parseAddress(b ?? a);
+            inside = q.row >= fromRow && p.row <= toRow && q.col >= fromCol && p.col <= toCol;
+          }
+          if (inside && visit(c) === false) return false;
+        }
+        return true;
+      });
+    } catch {
+      return true; // text the lexer cannot read has no references to order by
     }
-    return out;
   }
 
   private readonly preparedText = new Map<CellModel, string>();
@@ -400,8 +399,7 @@ export class Recalculation {
     const known = this.done.get(cell);
     if (known) return known;
     // Most formulas read only constants and formulas already computed: no ordering to do.
-    const first = this.precedents(cell);
-    if (first.every((p) => this.done.has(p))) return this.computeNow(cell);
+    if (this.eachPrecedent(cell, (p) => this.done.has(p))) return this.computeNow(cell);
     const state = new Map<CellModel, 1 | 2>();
     const stack: CellModel[] = [cell];
     while (stack.length) {
@@ -417,7 +415,9 @@ export class Recalculation {
         continue;
       }
       state.set(top, 1);
-      for (const p of this.precedents(top)) if (!this.done.has(p) && !state.has(p)) stack.push(p);
+      this.eachPrecedent(top, (p) => {
+        if (!this.done.has(p) && !state.has(p)) stack.push(p);
+      });
     }
     return this.computeNow(cell);
   }
