@@ -29,6 +29,8 @@ export class BudgetError extends WorkbookError {}
 /** Checks elapsed time and heap use against the limits; call it often in long loops. */
 export class Budget {
   private readonly started = Date.now();
+  /** When memory was last read: reading it costs far more than reading the clock, so at most every 50 ms. */
+  private memoryReadAt = -Infinity;
   constructor(
     readonly limits: Limits = DEFAULT_LIMITS,
     private readonly file = "the workbook",
@@ -39,6 +41,9 @@ export class Budget {
     if (seconds > this.limits.seconds) {
       throw new BudgetError(`${this.file}: stopped while ${stage} after ${seconds.toFixed(0)} s, over the time budget of ${this.limits.seconds} s (raise it with --max-seconds)`);
     }
+    const now = Date.now();
+    if (now - this.memoryReadAt < 50) return;
+    this.memoryReadAt = now;
     const mb = process.memoryUsage.rss() / 2 ** 20;
     if (mb > this.limits.megabytes) {
       throw new BudgetError(`${this.file}: stopped while ${stage}: ${mb.toFixed(0)} MB in use, over the memory budget of ${this.limits.megabytes} MB (raise it with --max-memory)`);

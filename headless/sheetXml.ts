@@ -101,15 +101,38 @@ function cachedValue(type: string | undefined, text: string | undefined, strings
   }
 }
 
-// The patterns readSheet applies to every cell, made once (a literal in the loop is a new object each time).
-const CELL_END = /<\/(?:\w+:)?c>/g;
-const FORMULA = /<(?:\w+:)?f\b([^>]*?)(?:\/>|>([\s\S]*?)<\/(?:\w+:)?f>)/;
-const VALUE = /<(?:\w+:)?v\b[^>]*>([\s\S]*?)<\/(?:\w+:)?v>/;
-const INLINE = /<(?:\w+:)?is\b[^>]*>([\s\S]*?)<\/(?:\w+:)?is>/;
+/** Where a tag's name that starts at `from` ends: at white space, "/" or ">". */
+function nameEnd(s: string, from: number): number {
+  let i = from;
+  for (; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    if (c === 62 || c === 47 || c <= 32) break;
+  }
+  return i;
+}
 
-/** True when the body holds an element of that one-letter name, with or without a namespace prefix (a quick test before the pattern). */
-function holds(body: string, letter: string): boolean {
-  return body.includes(`<${letter}`) || body.includes(`:${letter}`);
+/** True when the tag name s[from, to) is `local`, with or without a namespace prefix (x:c). */
+function named(s: string, from: number, to: number, local: string): boolean {
+  const n = local.length;
+  if (to - from < n || !s.startsWith(local, to - n)) return false;
+  return to - from === n || s.charCodeAt(to - n - 1) === 58;
+}
+
+/** The start of the closing tag of `local` at or after `from`, and the index after it; undefined when there is none. */
+function closingTag(s: string, from: number, local: string): { start: number; end: number } | undefined {
+  for (let k = s.indexOf("</", from); k >= 0; k = s.indexOf("</", k + 2)) {
+    const ne = nameEnd(s, k + 2);
+    if (!named(s, k + 2, ne, local)) continue;
+    const gt = s.indexOf(">", ne);
+    return gt < 0 ? undefined : { start: k, end: gt + 1 };
+  }
+  return undefined;
+}
+
+/** A cell's child element: its attribute text and its content (undefined when it closes itself). */
+interface Child {
+  attrs: string;
+  content: string | undefined;
 }
 
 /** True for a plain address (A1, not $A$1 or a1): the stored reference is then the cell's address as it stands. */
@@ -121,7 +144,10 @@ function plainAddress(ref: string): boolean {
   return true;
 }
 
-/** One sheet's cells from its XML. */
+/**
+ * One sheet's cells from its XML, read with a scanner of tags (indexOf, no pattern per cell): a
+ * large sheet has tens of thousands of cells. Elements may carry a namespace prefix (x:c).
+ */
 function readSheet(name: string, xml: string, strings: readonly string[], formats: readonly string[], date1904: boolean): SheetModel {
   const cells = new Map<string, CellModel>();
   const shared = new Map<string, { formula: string; row: number; col: number }>();
@@ -130,41 +156,76 @@ function readSheet(name: string, xml: string, strings: readonly string[], format
   const data = start >= 0 ? xml.slice(start, end >= 0 ? end : xml.length) : "";
   let row = 0;
   let col = 0;
-  const tags = /<(?:\w+:)?(row|c)\b([^>]*?)(\/?)>/g;
-  for (let m = tags.exec(data); m; m = tags.exec(data)) {
-    const tag = m[2];
-    if (m[1] === "row") {
-      const r = attr(tag, "r");
+  let at = 0;
+  for (;;) {
+    const lt = data.indexOf("<", at);
+    if (lt < 0) break;
+    const ne = nameEnd(data, lt + 1);
+    const gt = data.indexOf(">", ne);
+    if (gt < 0) break;
+    at = gt + 1;
+    const selfClosing = data.charCodeAt(gt - 1) === 47;
+    if (named(data, lt + 1, ne, "row")) {
+      const r = attr(data.slice(ne, gt), "r");
       row = r ? Number(r) : row + 1;
       col = 0;
       continue;
     }
+    if (!named(data, lt + 1, ne, "c")) continue;
+    const tag = data.slice(ne, selfClosing ? gt - 1 : gt);
     const ref = attr(tag, "r");
     if (ref) ({ row, col } = cellAddress(ref));
     else col++;
     const address = ref && plainAddress(ref) ? ref : addressOf(row, col);
-    let body = "";
-    if (m[3] !== "/") {
-      CELL_END.lastIndex = tags.lastIndex;
-      const e = CELL_END.exec(data);
-      body = data.slice(tags.lastIndex, e ? e.index : data.length);
-      tags.lastIndex = e ? e.index + e[0].length : data.length;
+    // The cell's children up to its closing tag: the first f, v and is of each.
+    let f: Child | undefined;
+    let v: string | undefined;
+    let is: string | undefined;
+    while (!selfClosing) {
+      const lt2 = data.indexOf("<", at);
+      if (lt2 < 0) {
+        at = data.length;
+        break;
+      }
+      if (data.charCodeAt(lt2 + 1) === 47) {
+        const ne2 = nameEnd(data, lt2 + 2);
+        const gt2 = data.indexOf(">", ne2);
+        at = gt2 < 0 ? data.length : gt2 + 1;
+        if (named(data, lt2 + 2, ne2, "c")) break;
+        continue;
+      }
+      const ne2 = nameEnd(data, lt2 + 1);
+      const gt2 = data.indexOf(">", ne2);
+      if (gt2 < 0) {
+        at = data.length;
+        break;
+      }
+      at = gt2 + 1;
+      const which = named(data, lt2 + 1, ne2, "f") ? "f" : named(data, lt2 + 1, ne2, "v") ? "v" : named(data, lt2 + 1, ne2, "is") ? "is" : undefined;
+      if (!which) continue;
+      const closes = data.charCodeAt(gt2 - 1) === 47;
+      let content: string | undefined;
+      if (!closes) {
+        const close = closingTag(data, at, which);
+        if (!close) continue;
+        content = data.slice(at, close.start);
+        at = close.end;
+      }
+      if (which === "f") f ??= { attrs: data.slice(ne2, closes ? gt2 - 1 : gt2), content };
+      else if (which === "v") v ??= content;
+      else is ??= content;
     }
     const type = attr(tag, "t");
     const styleIndex = attr(tag, "s");
     const format = styleIndex === undefined ? undefined : formats[Number(styleIndex)];
-    const f = holds(body, "f") ? FORMULA.exec(body) : null;
-    const v = holds(body, "v") ? VALUE.exec(body)?.[1] : undefined;
     let value: CellValue;
-    if (type === "inlineStr") {
-      const is = INLINE.exec(body)?.[1];
-      value = is === undefined ? cachedValue(type, v, strings) : textOf(is);
-    } else value = cachedValue(type, v, strings);
+    if (type === "inlineStr") value = is === undefined ? cachedValue(type, v, strings) : textOf(is);
+    else value = cachedValue(type, v, strings);
     if (typeof value === "number" && format && (type === undefined || type === "n") && isDateFormat(format)) value = serialToIso(value, date1904);
     const model: CellModel = { sheet: name, address, row, col, value };
     if (f) {
-      const fTag = f[1];
-      let formula = f[2] === undefined ? "" : unescapeXml(f[2]);
+      const fTag = f.attrs;
+      let formula = f.content === undefined ? "" : unescapeXml(f.content);
       const fType = attr(fTag, "t");
       if (fType === "shared") {
         const si = attr(fTag, "si") ?? "";
