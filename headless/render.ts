@@ -6,6 +6,9 @@ import { formatNumber, formatSpillText, formatUnit, formatValue } from "../workb
 import type { CellOutcome } from "../workbook/recalc";
 import { spillsRows } from "../workbook/summary";
 
+/** Spaces to pad columns with (wider than the widest column and its gap). */
+const SPACES = " ".repeat(64);
+
 function clip(text: string, width: number): string {
   return text.length <= width ? text : `${text.slice(0, width - 1)}…`;
 }
@@ -13,35 +16,40 @@ function clip(text: string, width: number): string {
 /** The recalculation as a fixed-width table, with each cell's messages under it. */
 export function renderTable(cells: readonly CellOutcome[]): string {
   const head = ["sheet", "cell", "formula", "value", "unit", "cached", "difference", "status"];
-  const rows = cells.map((c) => [
-    c.sheet,
-    c.address,
-    c.formula,
-    Array.isArray(c.value) ? spillsRows(c.value.length) : formatValue(c.value),
-    Array.isArray(c.value) ? "" : formatUnit(c.unit),
-    c.cached === null || Array.isArray(c.value) ? "" : typeof c.cached === "number" ? formatNumber(c.cached) : String(c.cached),
-    c.difference === null ? "" : c.difference === 0 ? "0" : c.difference.toExponential(1),
-    c.status,
-  ]);
   const limits = [16, 8, 48, 28, 10, 14, 10, 7];
-  // A loop, not Math.max(...rows): spreading a few hundred thousand rows overflows the call stack.
+  const k = head.length;
+  // Every cell's texts in one flat list (row i, column j at i·k + j): a list per row costs a large
+  // workbook tens of thousands of small arrays.
+  const texts: string[] = new Array(cells.length * k);
+  cells.forEach((c, i) => {
+    const spill = Array.isArray(c.value);
+    texts[i * k] = c.sheet;
+    texts[i * k + 1] = c.address;
+    texts[i * k + 2] = c.formula;
+    texts[i * k + 3] = Array.isArray(c.value) ? spillsRows(c.value.length) : formatValue(c.value);
+    texts[i * k + 4] = spill ? "" : formatUnit(c.unit);
+    texts[i * k + 5] = c.cached === null || spill ? "" : typeof c.cached === "number" ? formatNumber(c.cached) : String(c.cached);
+    texts[i * k + 6] = c.difference === null ? "" : c.difference === 0 ? "0" : c.difference.toExponential(1);
+    texts[i * k + 7] = c.status;
+  });
+  // A loop, not Math.max(...texts): spreading a few hundred thousand values overflows the call stack.
   const widths = head.map((h, j) => {
     let w = h.length;
-    for (const r of rows) if (r[j].length > w) w = r[j].length;
+    for (let i = j; i < texts.length; i += k) if (texts[i].length > w) w = texts[i].length;
     return Math.min(limits[j], w);
   });
   // Each column padded to its width, two spaces between columns, no trailing spaces.
-  const line = (r: string[]) => {
+  const line = (row: readonly string[], from: number) => {
     let text = "";
-    for (let j = 0; j < r.length; j++) {
-      const v = clip(r[j], widths[j]);
-      text += j < r.length - 1 ? v + " ".repeat(widths[j] - v.length + 2) : v;
+    for (let j = 0; j < k; j++) {
+      const v = clip(row[from + j], widths[j]);
+      text += j < k - 1 ? v + SPACES.slice(0, widths[j] - v.length + 2) : v;
     }
     return text.trimEnd();
   };
-  const out = [line(head), widths.map((w) => "-".repeat(w)).join("  ")];
+  const out = [line(head, 0), widths.map((w) => "-".repeat(w)).join("  ")];
   cells.forEach((c, i) => {
-    out.push(line(rows[i]));
+    out.push(line(texts, i * k));
     for (const m of c.messages) out.push(`    ${c.status === "error" ? "!" : "-"} ${m}`);
   });
   return out.join("\n");
