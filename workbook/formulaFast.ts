@@ -40,6 +40,30 @@ function lengthAt(re: RegExp, text: string, at: number): number {
   return re.test(text) ? re.lastIndex - at : 0;
 }
 
+function isDigit(c: number): boolean {
+  return c >= 48 && c <= 57;
+}
+
+/** Letters (A-Z, a-z) from `at`. */
+function lettersAt(text: string, at: number): number {
+  let i = at;
+  for (; i < text.length; i++) {
+    const c = text.charCodeAt(i) | 32;
+    if (c < 97 || c > 122) break;
+  }
+  return i - at;
+}
+
+/**
+ * True when a character (NaN past the end) could continue a run of letters and digits into a
+ * longer token of the library's: a Sheet name's characters or its "!", a Name's "_", "." or "?",
+ * a number's "." or exponent. "(" (a Function) is checked where it matters.
+ */
+function mayExtend(c: number): boolean {
+  if (c !== c) return false;
+  return (c >= 48 && c <= 57) || (c >= 65 && c <= 90) || (c >= 97 && c <= 122) || c === 95 || c === 46 || c === 63 || c === 33 || c === 36 || c >= 0x7f;
+}
+
 /**
  * Walks the formula's tokens as the library's lexer would find them, calling `emit` with each
  * one's kind and span; false when it holds a token this front end leaves to the library (a
@@ -67,11 +91,27 @@ function scan(text: string, emit: (type: TokenType, start: number, end: number) 
       if (!(n = lengthAt(SHEET_QUOTED, text, at))) return false;
       type = "SheetQuoted";
     } else if (code >= 48 && code <= 57) {
-      if ((n = lengthAt(SHEET, text, at))) type = "Sheet";
+      // The common case first: digits that nothing after them could extend (a Sheet's "!", a
+      // decimal point, an exponent, a name character) are a Number, as the patterns below decide.
+      let end = at + 1;
+      while (end < text.length && isDigit(text.charCodeAt(end))) end++;
+      if (!mayExtend(text.charCodeAt(end))) type = "Number";
+      if (type) n = end - at;
+      else if ((n = lengthAt(SHEET, text, at))) type = "Sheet";
       else if ((n = lengthAt(NUMBER, text, at))) type = "Number";
       else return false;
     } else if ((code >= 65 && code <= 90) || (code >= 97 && code <= 122) || ch === "_" || ch === "$" || ch === "." || code >= 0x7f) {
-      if ((n = lengthAt(FUNCTION, text, at))) type = "Function";
+      // The common case first: one to three letters and a row number with nothing after them that
+      // could extend a Function, Sheet or Name, which is the Cell the patterns below would find.
+      const letters = lettersAt(text, at);
+      if (letters >= 1 && letters <= 3 && text.charCodeAt(at + letters) >= 49 && text.charCodeAt(at + letters) <= 57) {
+        let end = at + letters + 1;
+        while (end < text.length && isDigit(text.charCodeAt(end))) end++;
+        if (!mayExtend(text.charCodeAt(end)) && text.charCodeAt(end) !== 40) [type, n] = ["Cell", end - at];
+      }
+      if (type) {
+        // found above
+      } else if ((n = lengthAt(FUNCTION, text, at))) type = "Function";
       else if ((n = lengthAt(SHEET, text, at))) type = "Sheet";
       else if ((n = lengthAt(CELL, text, at))) {
         // The library's Cell and Column tokens give way to a longer Name (its longer_alt).

@@ -110,10 +110,9 @@ function toCellValue(v: unknown): CellValue {
   return String(v);
 }
 
-function keyText(key: string): string {
-  const bang = key.lastIndexOf("!");
-  const [r, c] = key.slice(bang + 1).split(":").map(Number);
-  return `${key.slice(0, bang)}!${addressOf(r, c)}`;
+/** A cell as messages name it: "Sheet!B4". */
+function cellText(cell: CellModel): string {
+  return `${cell.sheet}!${addressOf(cell.row, cell.col)}`;
 }
 
 const NO_CALLS: CallRecord[] = Object.freeze([]) as unknown as CallRecord[];
@@ -122,11 +121,13 @@ const NO_CALLS: CallRecord[] = Object.freeze([]) as unknown as CallRecord[];
 const SHARED_PARSERS: { parser: EvaluatingParser; route: { to?: Recalculation } }[] = [];
 
 export class Recalculation {
-  private readonly visiting: string[] = [];
+  /** The formula cells being computed, outermost first. */
+  private readonly visiting: CellModel[] = [];
   private readonly spillOwner = new Map<string, CellModel>();
-  private readonly calls: CallRecord[][] = [];
+  /** The NAPPE calls of each formula being computed (null until its first call). */
+  private readonly calls: (CallRecord[] | null)[] = [];
   /** Formula cells whose failed results the formula being computed has read. */
-  private readonly failedReads: CellModel[][] = [];
+  private readonly failedReads: (CellModel[] | null)[] = [];
   /** Formula cells of each sheet, for ordering ranges. */
   private readonly formulaCells = new Map<string, CellModel[]>();
   private computedCount = 0;
@@ -184,7 +185,7 @@ export class Recalculation {
   private callNappe(id: string, args: FunctionArg[]): unknown {
     const here = this.currentSheet();
     const record: CallRecord = { id, refs: args.map((a) => rangeText(a.ref, here)) };
-    this.calls[this.calls.length - 1]?.push(record);
+    if (this.calls.length) (this.calls[this.calls.length - 1] ??= []).push(record);
     const raws: RawArg[] = [];
     for (const a of args) {
       if (a.value instanceof FormulaError) throw a.value;
@@ -225,8 +226,7 @@ export class Recalculation {
       const v = arg.value as unknown;
       return Array.isArray(v) ? ((v as CellValue[][])[0]?.[0] ?? null) : (v as CellValue);
     }
-    const here = this.visiting[this.visiting.length - 1];
-    const [r, c] = here.slice(here.lastIndexOf("!") + 1).split(":").map(Number);
+    const { row: r, col: c } = this.visiting[this.visiting.length - 1];
     const sheet = ref.sheet ?? this.currentSheet();
     if (ref.from.row === ref.to.row && ref.from.col === ref.to.col) return this.scalarAt(sheet, ref.from.row, ref.from.col);
     if (ref.from.col === ref.to.col && r >= ref.from.row && r <= ref.to.row) return this.scalarAt(sheet, r, ref.from.col);
@@ -235,8 +235,7 @@ export class Recalculation {
   }
 
   private currentSheet(): string {
-    const here = this.visiting[this.visiting.length - 1] ?? "";
-    return here.slice(0, here.lastIndexOf("!"));
+    return this.visiting[this.visiting.length - 1]?.sheet ?? "";
   }
 
   private readonly sheetsByName = new Map<string, SheetModel | undefined>();
@@ -281,11 +280,10 @@ export class Recalculation {
 
   private readonly ranges = new Map<string, CellValue[][]>();
 
-  /** True when the cell of a visiting key lies in the range (its value is not final yet). */
-  private inRange(visitingKey: string, sheet: string, from: { row: number; col: number }, lastRow: number, lastCol: number): boolean {
-    const bang = visitingKey.lastIndexOf("!");
-    if (visitingKey.slice(0, bang).toLowerCase() !== sheet.toLowerCase()) return false;
-    const [r, c] = visitingKey.slice(bang + 1).split(":").map(Number);
+  /** True when a cell being computed lies in the range (its value is not final yet). */
+  private inRange(cell: CellModel, sheet: string, from: { row: number; col: number }, lastRow: number, lastCol: number): boolean {
+    if (cell.sheet.toLowerCase() !== sheet.toLowerCase()) return false;
+    const { row: r, col: c } = cell;
     return r >= from.row && r <= lastRow && c >= from.col && c <= lastCol;
   }
 
@@ -313,8 +311,9 @@ export class Recalculation {
 
   /** Notes that the formula being computed read a failed formula cell. */
   private readFailed(cell: CellModel): void {
-    const list = this.failedReads[this.failedReads.length - 1];
-    if (list && !list.includes(cell)) list.push(cell);
+    if (!this.failedReads.length) return;
+    const list = (this.failedReads[this.failedReads.length - 1] ??= []);
+    if (!list.includes(cell)) list.push(cell);
   }
 
   /** Value of a cell, computing its formula (or the array formula it belongs to) when needed. */
@@ -428,21 +427,20 @@ export class Recalculation {
   private computeNow(cell: CellModel): Computed {
     const known = this.done.get(cell);
     if (known) return known;
-    const key = `${cell.sheet}!${cellKey(cell.row, cell.col)}`;
-    if (this.visiting.includes(key)) {
-      const cycle = [...this.visiting.slice(this.visiting.indexOf(key)), key].map(keyText);
+    if (this.visiting.includes(cell)) {
+      const cycle = [...this.visiting.slice(this.visiting.indexOf(cell)), cell].map(cellText);
       return { value: "#REF!", error: "#REF!", message: `circular reference: ${cycle.join(" → ")}`, calls: [] };
     }
     if (this.visiting.length >= MAX_DEPTH) {
       return { value: "#REF!", error: "#REF!", message: `a chain of more than ${MAX_DEPTH} formulas reached through INDIRECT or OFFSET, each waiting on the next; Nappe cannot order it in advance`, calls: [] };
     }
     if (++this.computedCount % 1024 === 0) this.budget?.check("recalculating formulas");
-    const result = this.evaluateCell(cell, key);
+    const result = this.evaluateCell(cell);
     this.done.set(cell, result);
     return result;
   }
 
-  private evaluateCell(cell: CellModel, key: string): Computed {
+  private evaluateCell(cell: CellModel): Computed {
     const external = externalLinkIndexes(cell.formula!);
     if (external.length) {
       const files = external.map((i) => `[${i}] ${this.wb.externalLinks?.get(i) ?? "(link not found in the file)"}`);
@@ -451,22 +449,19 @@ export class Recalculation {
     const unknown = unknownNappeFunctions(cell.formula!);
     if (unknown.length) {
       const message = `${dottedName(unknown[0]) ?? unknown[0]} is not a Nappe function: check its name in the function guide`;
-      return { value: "#NAME?", error: "#NAME?", message, calls: [], cause: { cell: keyText(key), message } };
+      return { value: "#NAME?", error: "#NAME?", message, calls: [], cause: { cell: cellText(cell), message } };
     }
     const others = otherAddinFunctions(cell.formula!);
     if (others.length) {
       const message = `calls ${others.join(", ")} of another add-in: Nappe cannot recalculate it; the value cached in the file is used`;
       return { value: cell.value, calls: [], external: message };
     }
-    this.visiting.push(key);
-    this.calls.push([]);
-    this.failedReads.push([]);
+    this.visiting.push(cell);
+    // Most formulas call nothing of ours and read no failed cell: their lists are made only when needed.
+    this.calls.push(null);
+    this.failedReads.push(null);
     let result: Computed;
-    // Most formulas call nothing of ours: they share one empty list instead of keeping their own.
-    const calls = () => {
-      const list = this.calls[this.calls.length - 1];
-      return list.length ? list : NO_CALLS;
-    };
+    const calls = () => this.calls[this.calls.length - 1] ?? NO_CALLS;
     try {
       const out = this.parserAt(this.visiting.length - 1).parse(this.prepared(cell), { sheet: cell.sheet, row: cell.row, col: cell.col });
       if (out instanceof FormulaError) {
@@ -483,7 +478,7 @@ export class Recalculation {
         result = { value: "#ERROR!", error: "#ERROR!", message: `the formula could not be evaluated: ${e instanceof Error ? e.message.split("\n")[0] : String(e)}`, calls: calls() };
       }
     }
-    const failed = this.failedReads[this.failedReads.length - 1];
+    const failed = this.failedReads[this.failedReads.length - 1] ?? [];
     this.visiting.pop();
     this.calls.pop();
     this.failedReads.pop();
@@ -496,7 +491,7 @@ export class Recalculation {
         result.message = `reads ${first[0]}, which failed${from}: ${cause.message}`;
         result.cause = cause;
       } else {
-        result.cause = { cell: keyText(key), message: result.message ?? result.error };
+        result.cause = { cell: cellText(cell), message: result.message ?? result.error };
       }
     }
     return result;
