@@ -13,7 +13,7 @@ export function formulaLibraryReady(): Promise<void> {
   loading ??= Promise.all([
     import(/* webpackChunkName: "formula" */ "fast-formula-parser"),
     import(/* webpackChunkName: "formula" */ "fast-formula-parser/grammar/lexing"),
-    import(/* webpackChunkName: "formula" */ "../workbook/formulaSteps"),
+    import(/* webpackChunkName: "formula" */ "../workbook/formulaGroups"),
   ]).then(([parser, lexing, steps]) => {
     library = { FormulaParser: parser.default, lex: lexing.lex, steps: steps.STEPS };
   });

@@ -11,6 +11,7 @@ import { describe, expect, it } from "vitest";
 import { callSites, directPrecedents, evaluatingParser, FormulaError, isParseError, MAX_COLUMN, MAX_ROW, notImplementedFunction, references } from "../workbook/formula";
 import { recalculate } from "../workbook/recalc";
 import type { WorkbookModel } from "../workbook/model";
+import { FUNCTION_GROUPS, type FunctionGroup } from "../workbook/formulaFunctions";
 
 const root = join(__dirname, "..");
 
@@ -61,9 +62,9 @@ describe("layers", () => {
     const cycles = [...pairs].filter((p) => pairs.has(p.split("→").reverse().join("→")));
     expect(cycles).toEqual([]);
   });
-  it("only workbook/formula.ts uses the formula library (formulaLibrary.ts, its twins and formulaSteps.ts only load it)", () => {
+  it("only workbook/formula.ts uses the formula library (formulaLibrary.ts, its twins, formulaSteps.ts and formulaGroups.ts only load it)", () => {
     const users = files.filter((f) => !f.endsWith(".d.ts") && /from "fast-formula-parser|import\(\/\*[^*]*\*\/ "fast-formula-parser|require\("fast-formula-parser/.test(readFileSync(f, "utf8"))).map((f) => relative(root, f)).sort();
-    expect(users).toEqual(["headless/formulaLibraryCommand.ts", "taskpane/formulaLibraryLazy.ts", "workbook/formula.ts", "workbook/formulaLibrary.ts", "workbook/formulaSteps.ts"]);
+    expect(users).toEqual(["headless/formulaLibraryCommand.ts", "taskpane/formulaLibraryLazy.ts", "workbook/formula.ts", "workbook/formulaGroups.ts", "workbook/formulaLibrary.ts", "workbook/formulaSteps.ts"]);
   });
 });
 
@@ -111,7 +112,11 @@ describe("the formula library's internals the adapter relies on (fast-formula-pa
     const eager = await import("../workbook/formulaLibrary");
     expect(Object.keys(command).sort()).toEqual(Object.keys(eager).sort());
     expect(Object.keys(command.formulaLibrary()).sort()).toEqual(Object.keys(eager.formulaLibrary()).sort());
-    expect(command.formulaLibrary().steps).toBe(eager.formulaLibrary().steps);
+    // Each function group is the library's own module, and lists the names formulaFunctions.ts gives.
+    for (const g of Object.keys(FUNCTION_GROUPS) as FunctionGroup[]) {
+      expect(command.formulaLibrary().steps.group(g), g).toBe(eager.formulaLibrary().steps.group(g));
+      expect(Object.keys(eager.formulaLibrary().steps.group(g)), g).toEqual([...FUNCTION_GROUPS[g]]);
+    }
     expect(command.formulaLibrary().FormulaParser).toBe(FormulaParser);
     expect(command.formulaLibrary().lex).toBe(lex);
     // The built command does not load them for ordinary formulas: test/headless.test.ts.

@@ -7,11 +7,13 @@
  * (grammar/hooks.js: getCell, getRange, retrieveRef, callFunction, checkFormulaResult, and the
  * function lists its constructor makes) and of its Utils (grammar/utils.js: the prefix, postfix,
  * infix and range steps, extractRefValue, the literals), in the library's order, with its own
- * operators, helpers and function library (workbook/formulaSteps.ts). test/formulaFast.test.ts
+ * operators, helpers and function library (workbook/formulaSteps.ts; the function groups are
+ * looked up by the names workbook/formulaFunctions.ts lists, so a group loads when first used). test/formulaFast.test.ts
  * compares values, errors with their messages, and the cells read, with the library itself.
  */
 import { FormulaError } from "./formula";
 import type { LibraryParser } from "./formulaFast";
+import { FUNCTION_GROUPS, type FunctionGroup } from "./formulaFunctions";
 import type { LibrarySteps } from "./formulaSteps";
 
 type Fn = (...args: unknown[]) => unknown;
@@ -32,13 +34,16 @@ export interface EvaluatorConfig {
   onRange: (ref: never) => unknown[][];
 }
 
+const G = FUNCTION_GROUPS;
+/** The group whose function a name calls: groups merge in FUNCTION_GROUPS's order, a later one winning. */
+const GROUP_OF = new Map<string, FunctionGroup>((Object.keys(G) as FunctionGroup[]).flatMap((g) => G[g].map((name) => [name, g] as const)));
+/** Functions for which a left-out argument is 0; for the others it is "" (hooks.js funsNullAs0). */
+const NULL_AS_0 = new Set<string>([...G.math, ...G.trigonometry, ...G.logical, ...G.engineering, ...G.reference, ...G.statistical, ...G.date]);
+
 export class Evaluator implements LibraryParser {
   position = { sheet: "", row: 0, col: 0 };
   async = false;
   readonly utils: Steps;
-  private readonly functions: Record<string, Fn>;
-  /** Functions for which a left-out argument is 0; for the others it is "". */
-  private readonly nullAs0: Set<string>;
   /** Functions whose arguments keep the reference they were written as. */
   private readonly keepRef: Set<string>;
 
@@ -46,11 +51,15 @@ export class Evaluator implements LibraryParser {
     private readonly steps: LibrarySteps,
     private readonly config: EvaluatorConfig,
   ) {
-    const f = steps.functions;
-    this.functions = Object.assign({}, f.date, f.statistical, f.information, f.reference, f.engineering, f.logical, f.text, f.math, f.trigonometry, f.web, config.functions) as Record<string, Fn>;
-    this.nullAs0 = new Set([f.math, f.trigonometry, f.logical, f.engineering, f.reference, f.statistical, f.date].flatMap((group) => Object.keys(group)));
-    this.keepRef = new Set([...Object.keys(f.information), ...config.keepReferences.map((n) => n.toUpperCase())]);
+    this.keepRef = new Set([...G.information, ...config.keepReferences.map((n) => n.toUpperCase())]);
     this.utils = new Steps(this, steps);
+  }
+
+  /** The function a name calls: ours first (merged last by the library), then the library's group that has it. */
+  private functionNamed(name: string): Fn | undefined {
+    if (Object.prototype.hasOwnProperty.call(this.config.functions, name)) return this.config.functions[name] as Fn;
+    const group = GROUP_OF.get(name);
+    return group ? (this.steps.group(group)[name] as Fn | undefined) : undefined;
   }
 
   retrieveRef(valueOrRef: unknown): unknown {
@@ -77,7 +86,7 @@ export class Evaluator implements LibraryParser {
   private call(name: string, args: unknown[]): unknown {
     if (name.indexOf("_xlfn.") === 0) name = name.slice(6);
     name = name.toUpperCase();
-    const nullValue = this.nullAs0.has(name) ? 0 : "";
+    const nullValue = NULL_AS_0.has(name) ? 0 : "";
     if (!CONTEXT_NO_RETRIEVE.has(name)) {
       const h = this.steps.FormulaHelpers;
       const keep = this.keepRef.has(name);
@@ -90,7 +99,7 @@ export class Evaluator implements LibraryParser {
         return { value, isArray, isRangeRef: !!h.isRangeRef(arg), isCellRef: !!h.isCellRef(arg) };
       });
     }
-    const fn = this.functions[name];
+    const fn = this.functionNamed(name);
     if (!fn) throw FormulaError.NOT_IMPLEMENTED(name);
     let res: unknown;
     try {

@@ -6,7 +6,7 @@
  */
 import FormulaParser from "fast-formula-parser";
 import { lex } from "fast-formula-parser/grammar/lexing";
-import { STEPS } from "./formulaSteps";
+import { STEPS } from "./formulaGroups";
 
 const LIBRARY = { FormulaParser, lex, steps: STEPS };
 export type FormulaLibrary = typeof LIBRARY;

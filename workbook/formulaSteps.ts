@@ -1,20 +1,24 @@
 /**
- * The formula library's evaluation modules (fast-formula-parser's operators, helpers and function
- * library), which load without its parser and Chevrotain. workbook/formulaEvaluator.ts runs the
- * fast front end's formulas with them; formulaLibrary.ts and its twins hand them out.
+ * The formula library's evaluation modules (fast-formula-parser's operators and helpers), which
+ * load without its parser and Chevrotain, and the shape of what workbook/formulaEvaluator.ts
+ * needs from the library. Its function library comes by group (workbook/formulaFunctions.ts
+ * lists the names): formulaGroups.ts loads them all at once, the command's build one group when
+ * one of its functions is first called (headless/formulaLibraryCommand.ts).
  */
 import { Address, FormulaHelpers } from "fast-formula-parser/formulas/helpers";
 import { Infix, Operators, Postfix, Prefix } from "fast-formula-parser/formulas/operators";
-import date from "fast-formula-parser/formulas/functions/date";
-import engineering from "fast-formula-parser/formulas/functions/engineering";
-import information from "fast-formula-parser/formulas/functions/information";
-import logical from "fast-formula-parser/formulas/functions/logical";
-import math from "fast-formula-parser/formulas/functions/math";
-import reference from "fast-formula-parser/formulas/functions/reference";
-import statistical from "fast-formula-parser/formulas/functions/statistical";
-import text from "fast-formula-parser/formulas/functions/text";
-import trigonometry from "fast-formula-parser/formulas/functions/trigonometry";
-import web from "fast-formula-parser/formulas/functions/web";
+import type { FunctionGroup } from "./formulaFunctions";
 
-export const STEPS = { FormulaHelpers, Address, Infix, Prefix, Postfix, Operators, functions: { date, engineering, information, logical, math, reference, statistical, text, trigonometry, web } };
-export type LibrarySteps = typeof STEPS;
+export type LibraryFunctions = Record<string, (...args: never[]) => unknown>;
+
+const OPERATORS = { FormulaHelpers, Address, Infix, Prefix, Postfix, Operators };
+
+export type LibrarySteps = typeof OPERATORS & {
+  /** One group of the library's functions (formulas/functions/<group>.js). */
+  group(name: FunctionGroup): LibraryFunctions;
+};
+
+/** The evaluation steps, with the library's functions from `group`. */
+export function librarySteps(group: (name: FunctionGroup) => LibraryFunctions): LibrarySteps {
+  return { ...OPERATORS, group };
+}

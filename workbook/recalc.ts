@@ -238,6 +238,18 @@ export class Recalculation {
     return this.visiting[this.visiting.length - 1]?.sheet ?? "";
   }
 
+  /** Each sheet's cells by a number made from row and column, built on first use (no key text to make per read). */
+  private readonly cellIndexes = new Map<SheetModel, Map<number, CellModel>>();
+  private cellAt(sheet: SheetModel, row: number, col: number): CellModel | undefined {
+    let index = this.cellIndexes.get(sheet);
+    if (!index) {
+      index = new Map();
+      for (const c of sheet.cells.values()) index.set(c.row * (MAX_COLUMN + 1) + c.col, c);
+      this.cellIndexes.set(sheet, index);
+    }
+    return index.get(row * (MAX_COLUMN + 1) + col);
+  }
+
   private readonly sheetsByName = new Map<string, SheetModel | undefined>();
   /** findSheet, remembered by name (every cell read asks). */
   private sheet(name: string): SheetModel | undefined {
@@ -320,7 +332,7 @@ export class Recalculation {
   valueAt(sheetName: string, row: number, col: number): CellValue | CellValue[][] {
     const sheet = this.sheet(sheetName);
     if (!sheet) throw new FormulaError("#REF!", `there is no sheet named "${sheetName}"`);
-    const cell = sheet.cells.get(cellKey(row, col));
+    const cell = this.cellAt(sheet, row, col);
     if (cell?.formula) {
       const c = this.computeNow(cell);
       if (c.error) {
@@ -352,10 +364,9 @@ export class Recalculation {
         const sheet = this.sheet(sheetName ?? cell.sheet);
         if (!sheet) return true;
         if (fromRow === toRow && fromCol === toCol) {
-          const key = cellKey(fromRow, fromCol);
-          const c = sheet.cells.get(key);
+          const c = this.cellAt(sheet, fromRow, fromCol);
           if (c?.formula && visit(c) === false) return false;
-          const owner = this.spillOwner.size ? this.spillOwner.get(`${sheet.name}!${key}`) : undefined;
+          const owner = this.spillOwner.size ? this.spillOwner.get(`${sheet.name}!${cellKey(fromRow, fromCol)}`) : undefined;
           return !owner || visit(owner) !== false;
         }
         for (const c of this.formulaCells.get(sheet.name) ?? []) {
