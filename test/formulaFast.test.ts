@@ -9,7 +9,7 @@ import FormulaParser from "fast-formula-parser";
 import { lex, type Token } from "fast-formula-parser/grammar/lexing";
 import { describe, expect, it } from "vitest";
 import { evaluatingParser, type FunctionArg, type RangeRef, references } from "../workbook/formula";
-import { compile, shapeKey, tokenize } from "../workbook/formulaFast";
+import { compile, matchesTemplate, shapeKey, shapeText, tokenize } from "../workbook/formulaFast";
 import { shiftFormula } from "../workbook/storedForm";
 import { EXTRA_FUNCTIONS } from "../workbook/extraFunctions";
 
@@ -167,6 +167,33 @@ describe("the fast front end gives what the formula library gives", () => {
     // Many copies share their original's parse (761 with this seed). The rest name no relative
     // cell, shift whole rows or columns (A:A, 1:2, written as they are in the key), or fall to the library.
     expect(shared).toBeGreaterThan(500);
+  });
+
+  it("matches a formula to another's template (text compared, not tokenized) exactly when their shape keys are equal", () => {
+    const rnd = random(seed + 3);
+    let matched = 0;
+    for (let i = 0; i < 3000; i++) {
+      const f = formulaOf(rnd);
+      const at = { row: 1 + Math.floor(rnd() * 30), col: 1 + Math.floor(rnd() * 8) };
+      const template = shapeText(f, at.row, at.col);
+      if (!template) continue;
+      // A copy of it moved down and across, or an unrelated formula, at another cell.
+      const [dr, dc] = [Math.floor(rnd() * 40), Math.floor(rnd() * 3)];
+      const other = rnd() < 0.7 ? shiftFormula(f, dr, dc) : formulaOf(rnd);
+      const to = { row: at.row + dr, col: at.col + dc };
+      const same = shapeKey(other, to.row, to.col) === template.key;
+      expect({ f, other, to, match: matchesTemplate(template, other, to.row, to.col) }).toEqual({ f, other, to, match: same });
+      if (same) matched++;
+    }
+    expect(matched).toBeGreaterThan(1000);
+    // Written otherwise, not a copy: a leading zero, lower case, a $ added, a longer row number with the same digits.
+    const t = shapeText("A5*2+B$1", 5, 3)!;
+    expect(matchesTemplate(t, "A6*2+B$1", 6, 3)).toBe(true);
+    expect(matchesTemplate(t, "A06*2+B$1", 6, 3)).toBe(false);
+    expect(matchesTemplate(t, "a6*2+B$1", 6, 3)).toBe(false);
+    expect(matchesTemplate(t, "$A6*2+B$1", 6, 3)).toBe(false);
+    expect(matchesTemplate(t, "A66*2+B$1", 6, 3)).toBe(false);
+    expect(matchesTemplate(t, "B6*2+C$1", 6, 4)).toBe(true);
   });
 
   it("keeps apart what only looks alike: fixed parts, lower-case references, text and sheet names", () => {

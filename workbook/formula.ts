@@ -17,7 +17,7 @@ import { type FormulaLibrary, formulaLibrary } from "./formulaLibrary";
 import { Evaluator } from "./formulaEvaluator";
 import { columnNumber } from "./address";
 import { dottedName } from "./storedForm";
-import { cellParts, compile, relativeInShape, type Compiled, type FastToken, shapeKey, tokenize } from "./formulaFast";
+import { cellParts, compile, matchesTemplate, relativeInShape, shapeText, type Compiled, type FastToken, type Template, tokenize } from "./formulaFast";
 
 export type { FunctionArg, RangeRef };
 /** The library's error value (its small module of its own: usable before the parser is loaded). */
@@ -86,15 +86,30 @@ const SHAPES = new Map<string, Shape>();
 /** The last formula asked about, at its cell: its references and its evaluation come one after the other. */
 let last: { formula: string; row: number; col: number; shape: Shape | undefined } | undefined;
 
+/**
+ * The last shape met in each column, with its template: a formula filled down a column is
+ * matched against it by comparing text (matchesTemplate), without tokenizing it again.
+ */
+const BY_COLUMN = new Map<number, { template: Template; shape: Shape }>();
+
 /** The formula's shape at a cell, or undefined when the fast front end cannot tokenize it. */
 function shapeOf(formula: string, at: { row: number; col: number }): Shape | undefined {
   if (last && last.formula === formula && last.row === at.row && last.col === at.col) return last.shape;
-  const key = shapeKey(formula, at.row, at.col);
-  let shape = key === undefined ? undefined : SHAPES.get(key);
-  if (key !== undefined && !shape) {
-    if (SHAPES.size >= 5_000) SHAPES.clear();
-    shape = { tokens: tokenize(formula)!, origin: { row: at.row, col: at.col } };
-    SHAPES.set(key, shape);
+  const above = BY_COLUMN.get(at.col);
+  let shape: Shape | undefined;
+  if (above && matchesTemplate(above.template, formula, at.row, at.col)) shape = above.shape;
+  else {
+    const template = shapeText(formula, at.row, at.col);
+    shape = template === undefined ? undefined : SHAPES.get(template.key);
+    if (template !== undefined && !shape) {
+      if (SHAPES.size >= 5_000) SHAPES.clear();
+      shape = { tokens: tokenize(formula)!, origin: { row: at.row, col: at.col } };
+      SHAPES.set(template.key, shape);
+    }
+    if (template !== undefined && shape) {
+      if (BY_COLUMN.size >= 5_000) BY_COLUMN.clear();
+      BY_COLUMN.set(at.col, { template, shape });
+    }
   }
   last = { formula, row: at.row, col: at.col, shape };
   return shape;

@@ -187,17 +187,90 @@ export function relativeInShape(c: CellParts): boolean {
  * follows is the same). Undefined where scan() gives up, or where the text holds the marker.
  */
 export function shapeKey(text: string, row: number, col: number): string | undefined {
+  return shapeText(text, row, col)?.key;
+}
+
+/**
+ * A formula's text split for matching its copies (see matchesTemplate): the key, the literal
+ * text between the cell references written relative, and those references as read at the cell
+ * the text came from.
+ */
+export interface Template {
+  key: string;
+  row: number;
+  col: number;
+  /** Text before each relative reference, then the text after the last (one more than cells). */
+  literals: string[];
+  cells: CellParts[];
+}
+
+/** The formula's shapeKey with what matchesTemplate needs; undefined where shapeKey is. */
+export function shapeText(text: string, row: number, col: number): Template | undefined {
   if (text.includes("\0")) return undefined;
   let key = "";
   let from = 0;
+  const literals: string[] = [];
+  const cells: CellParts[] = [];
   const ok = scan(text, (type, start, end) => {
     if (type !== "Cell") return;
     const c = cellParts(text, start, end);
     if (!relativeInShape(c)) return;
-    key += `${text.slice(from, start)}\0${c.colFixed ? `$${c.col}` : c.col - col},${c.rowFixed ? `$${c.row}` : c.row - row}\0`;
+    const literal = text.slice(from, start);
+    literals.push(literal);
+    cells.push(c);
+    key += `${literal}\0${c.colFixed ? `$${c.col}` : c.col - col},${c.rowFixed ? `$${c.row}` : c.row - row}\0`;
     from = end;
   });
-  return ok ? key + text.slice(from) : undefined;
+  if (!ok) return undefined;
+  const last = text.slice(from);
+  literals.push(last);
+  return { key: key + last, row, col, literals, cells };
+}
+
+/**
+ * True when `text` at (row, col) is the template's text copied there: the same literal text, and
+ * each relative reference moved by the same rows and columns as the cell, written the same way
+ * ($ signs, capitals, no leading zero). Such a copy differs from the template's text only in the
+ * letters and digits of those references, which the lexer reads alike, so it has the template's
+ * shapeKey: found without tokenizing, by comparing text.
+ */
+export function matchesTemplate(t: Template, text: string, row: number, col: number): boolean {
+  let at = 0;
+  for (let i = 0; i < t.cells.length; i++) {
+    const literal = t.literals[i];
+    if (!text.startsWith(literal, at)) return false;
+    at += literal.length;
+    const c = t.cells[i];
+    const wantCol = c.colFixed ? c.col : c.col + col - t.col;
+    const wantRow = c.rowFixed ? c.row : c.row + row - t.row;
+    if (c.colFixed) {
+      if (text.charCodeAt(at) !== 36) return false;
+      at++;
+    }
+    let n = 0;
+    const lettersFrom = at;
+    for (; at < text.length; at++) {
+      const code = text.charCodeAt(at);
+      if (code < 65 || code > 90) break;
+      n = n * 26 + (code - 64);
+    }
+    if (at === lettersFrom || at - lettersFrom > 3 || n !== wantCol) return false;
+    if (c.rowFixed) {
+      if (text.charCodeAt(at) !== 36) return false;
+      at++;
+    }
+    const first = text.charCodeAt(at);
+    if (first < 49 || first > 57) return false;
+    n = 0;
+    for (; at < text.length; at++) {
+      const code = text.charCodeAt(at);
+      if (code < 48 || code > 57) break;
+      n = n * 10 + (code - 48);
+    }
+    if (n !== wantRow) return false;
+  }
+  const last = t.literals[t.cells.length];
+  return text.length - at === last.length && text.startsWith(last, at);
 }
 
 /** What the library's parser object offers the evaluation (fast-formula-parser grammar/hooks.js and utils.js). */
