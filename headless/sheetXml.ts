@@ -13,7 +13,6 @@
  */
 import type { CellModel, CellValue, SheetModel, WorkbookModel } from "../workbook/model";
 import { addressOf, cellKey, parseAddress } from "../workbook/address";
-import { cellAddress } from "../workbook/formulaFast";
 import { unescapeXml } from "../workbook/xml";
 import { shiftFormula } from "../workbook/storedForm";
 
@@ -34,8 +33,11 @@ interface WorkbookParts {
   stylesXml?: string;
 }
 
+/** ' name="' for each attribute name asked for, made once (readSheet asks several times per cell). */
+const NEEDLES: Record<string, string> = {};
+
 function attr(tag: string, name: string): string | undefined {
-  const at = tag.indexOf(` ${name}="`);
+  const at = tag.indexOf((NEEDLES[name] ??= ` ${name}="`));
   if (at < 0) return undefined;
   const start = at + name.length + 3;
   return tag.slice(start, tag.indexOf('"', start));
@@ -174,8 +176,16 @@ function readSheet(name: string, xml: string, strings: readonly string[], format
     if (!named(data, lt + 1, ne, "c")) continue;
     const tag = data.slice(ne, selfClosing ? gt - 1 : gt);
     const ref = attr(tag, "r");
-    if (ref) ({ row, col } = cellAddress(ref));
-    else col++;
+    if (ref) {
+      // The reference's column letters and row digits ($ signs passed over, either case).
+      col = 0;
+      row = 0;
+      for (let i = 0; i < ref.length; i++) {
+        const c = ref.charCodeAt(i);
+        if (c >= 48 && c <= 57) row = row * 10 + (c - 48);
+        else if (c !== 36) col = col * 26 + ((c | 32) - 96);
+      }
+    } else col++;
     const address = ref && plainAddress(ref) ? ref : addressOf(row, col);
     // The cell's children up to its closing tag: the first f, v and is of each.
     let f: Child | undefined;

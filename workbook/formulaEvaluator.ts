@@ -27,7 +27,7 @@ const CONTEXT_NO_RETRIEVE = new Set(["ROW", "ROWS", "COLUMN", "COLUMNS", "SUMIF"
 /** Functions given the evaluator first (hooks.js funsNeedContext). */
 const CONTEXT = new Set([...CONTEXT_NO_RETRIEVE, "OFFSET", "INDIRECT", "CHOOSE", "WEBSERVICE"]);
 
-export interface EvaluatorConfig {
+interface EvaluatorConfig {
   functions: Record<string, (...args: never[]) => unknown>;
   keepReferences: readonly string[];
   onCell: (ref: never) => unknown;
@@ -83,13 +83,21 @@ export class Evaluator implements LibraryParser {
     return this.steps.FormulaHelpers.checkFunctionResult(this.call(name, args));
   }
 
-  private call(name: string, args: unknown[]): unknown {
-    if (name.indexOf("_xlfn.") === 0) name = name.slice(6);
-    name = name.toUpperCase();
-    const nullValue = NULL_AS_0.has(name) ? 0 : "";
-    if (!CONTEXT_NO_RETRIEVE.has(name)) {
+  /** What a written function name calls, and how, worked out once per name. */
+  private readonly named = new Map<string, { name: string; nullValue: 0 | ""; retrieve: boolean; keep: boolean; context: boolean; fn?: Fn }>();
+
+  private call(written: string, args: unknown[]): unknown {
+    let how = this.named.get(written);
+    if (!how) {
+      let name = written;
+      if (name.indexOf("_xlfn.") === 0) name = name.slice(6);
+      name = name.toUpperCase();
+      how = { name, nullValue: NULL_AS_0.has(name) ? 0 : "", retrieve: !CONTEXT_NO_RETRIEVE.has(name), keep: this.keepRef.has(name), context: CONTEXT.has(name) };
+      this.named.set(written, how);
+    }
+    const { name, nullValue, keep } = how;
+    if (how.retrieve) {
       const h = this.steps.FormulaHelpers;
-      const keep = this.keepRef.has(name);
       args = args.map((arg) => {
         if (arg === null) return { value: nullValue, isArray: false, omitted: true };
         // extractRefValue, without its pair object.
@@ -99,11 +107,11 @@ export class Evaluator implements LibraryParser {
         return { value, isArray, isRangeRef: !!h.isRangeRef(arg), isCellRef: !!h.isCellRef(arg) };
       });
     }
-    const fn = this.functionNamed(name);
+    const fn = (how.fn ??= this.functionNamed(name));
     if (!fn) throw FormulaError.NOT_IMPLEMENTED(name);
     let res: unknown;
     try {
-      res = CONTEXT.has(name) ? fn(this, ...args) : fn(...args);
+      res = how.context ? fn(this, ...args) : fn(...args);
     } catch (e) {
       // The library lets functions throw its error as their result.
       if (e instanceof FormulaError) return e;

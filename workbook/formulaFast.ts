@@ -146,7 +146,7 @@ export function tokenize(text: string): FastToken[] | undefined {
 }
 
 /** A Cell token's parts: column and row, each with or without $. */
-export interface CellParts {
+interface CellParts {
   col: number;
   row: number;
   colFixed: boolean;
@@ -295,12 +295,6 @@ export interface LibraryParser {
 /** A parsed formula: evaluating it calls the library's steps in the order its parser would. */
 export type Compiled = (p: LibraryParser) => unknown;
 
-/** A cell address's row and column ("B7", "$B$7", "b7"). */
-export function cellAddress(image: string): { row: number; col: number } {
-  const { row, col } = cellParts(image);
-  return { row, col };
-}
-
 /** The library's binary operators by precedence, highest first (grammar/parsing.js). */
 const PRECEDENCE = [["^"], ["*", "/"], ["+", "-"], ["&"], ["<", ">", "=", "<>", "<=", ">="]];
 
@@ -355,19 +349,28 @@ class Parser {
     // The library evaluates every operand left to right, then applies the operators level by
     // level, each level left to right, folding its list as it goes: that order is fixed by the
     // text, so it is worked out here once (step = index folded, operator).
-    const steps: [number, string][] = [];
+    // Each step folds two neighbours of the list into the left one's place; the places are worked
+    // out here too, so evaluating keeps every value where it is (no splicing).
+    const left: number[] = [];
+    const right: number[] = [];
+    const stepOps: string[] = [];
     const pending = [...ops];
+    const places = values.map((_, i) => i);
     for (const level of PRECEDENCE) {
       for (let i = 0; i < pending.length; i++) {
         if (!level.includes(pending[i])) continue;
-        steps.push([i, pending[i]]);
+        left.push(places[i]);
+        right.push(places[i + 1]);
+        stepOps.push(pending[i]);
         pending.splice(i, 1);
+        places.splice(i + 1, 1);
         i--;
       }
     }
     return (p) => {
-      const vs = values.map((v) => v(p));
-      for (const [i, op] of steps) vs.splice(i, 2, p.utils.applyInfix(vs[i], op, vs[i + 1]));
+      const vs: unknown[] = new Array(values.length);
+      for (let i = 0; i < values.length; i++) vs[i] = values[i](p);
+      for (let k = 0; k < stepOps.length; k++) vs[left[k]] = p.utils.applyInfix(vs[left[k]], stepOps[k], vs[right[k]]);
       return vs[0];
     };
   }
@@ -478,7 +481,11 @@ class Parser {
           }
         }
         this.take("CloseParen");
-        return (p) => p.callFunction(name, args.map((a) => (a ? a(p) : null)));
+        return (p) => {
+          const values: unknown[] = new Array(args.length);
+          for (let i = 0; i < args.length; i++) values[i] = args[i] ? args[i]!(p) : null;
+          return p.callFunction(name, values);
+        };
       }
       default:
         throw new Unsupported();
