@@ -146,6 +146,15 @@ function plainAddress(ref: string): boolean {
   return true;
 }
 
+/** Where the sheet's </sheetData> (any prefix) starts, -1 for none: found from the end, not by a pattern run over the whole sheet. */
+function sheetDataEnd(xml: string): number {
+  const name = xml.lastIndexOf("sheetData>");
+  if (name < 0) return -1;
+  const lt = xml.lastIndexOf("</", name);
+  if (lt >= 0 && /^(\w+:)?$/.test(xml.slice(lt + 2, name))) return lt;
+  return xml.search(/<\/(?:\w+:)?sheetData>/);
+}
+
 /**
  * One sheet's cells from its XML, read with a scanner of tags (indexOf, no pattern per cell): a
  * large sheet has tens of thousands of cells. Elements may carry a namespace prefix (x:c).
@@ -154,7 +163,7 @@ function readSheet(name: string, xml: string, strings: readonly string[], format
   const cells = new Map<string, CellModel>();
   const shared = new Map<string, { formula: string; row: number; col: number }>();
   const start = xml.search(/<(?:\w+:)?sheetData\b/);
-  const end = xml.search(/<\/(?:\w+:)?sheetData>/);
+  const end = sheetDataEnd(xml);
   const data = start >= 0 ? xml.slice(start, end >= 0 ? end : xml.length) : "";
   let row = 0;
   let col = 0;
@@ -245,7 +254,7 @@ function readSheet(name: string, xml: string, strings: readonly string[], format
           if (master) formula = shiftFormula(master.formula, row - master.row, col - master.col);
         }
       }
-      if (formula.trim()) model.formula = formula.replace(/^=/, "");
+      if (formula.trim()) model.formula = formula.charCodeAt(0) === 61 ? formula.slice(1) : formula;
       const range = fType === "array" ? attr(fTag, "ref") : undefined;
       if (range) model.arrayRef = range;
     }
