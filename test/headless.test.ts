@@ -136,6 +136,14 @@ describe("the nappe command", () => {
     expect(b.stdout).toMatch(/Plain\s+B4\s+=SUM\(\{1,2,3\}\)\s+6\s/);
     expect(b.stderr).toMatch(/loaded: \[.*"fast-formula-parser".*\]/);
   });
+  it("runs from the sources under Node's own module loader too (npm run nappe:dev, the scripts)", async () => {
+    // Node's ESM loader sees fewer names in CommonJS packages than the bundler and the test runner do.
+    const r = await new Promise<{ code: number | null; stdout: string }>((done) =>
+      execFile(process.execPath, [join(root, "node_modules/tsx/dist/cli.mjs"), join(root, "headless/cli.ts"), "recalc", join(root, "demo", DEMO_FILE)], { cwd: root, maxBuffer: 1 << 24 }, (e, stdout) => done({ code: e ? (e.code as number) : 0, stdout })),
+    );
+    expect(r.stdout).toMatch(/34 NAPPE formulas found in \d+ formulas \(34 recalculated\)/);
+    expect(r.code).toBe(0);
+  });
   it("recalc prints the table and exits 0 on the demo workbook", async () => {
     const r = await nappe("recalc", join(root, "demo", DEMO_FILE));
     expect(r.code).toBe(0);

@@ -55,21 +55,28 @@ declare module "fast-formula-parser/formulas/error" {
 }
 
 // The library's evaluation modules, which load without its parser (workbook/formulaSteps.ts).
+// CommonJS modules: imported whole (Node's ESM loader cannot see all their named exports).
 declare module "fast-formula-parser/formulas/helpers" {
-  export const FormulaHelpers: {
-    isRangeRef(value: unknown): unknown;
-    isCellRef(value: unknown): unknown;
-    checkFunctionResult(result: unknown): unknown;
+  const helpers: {
+    FormulaHelpers: {
+      isRangeRef(value: unknown): unknown;
+      isCellRef(value: unknown): unknown;
+      checkFunctionResult(result: unknown): unknown;
+    };
+    Address: { columnNameToNumber(name: string): number };
   };
-  export const Address: { columnNameToNumber(name: string): number };
+  export default helpers;
 }
 
 declare module "fast-formula-parser/formulas/operators" {
   type Binary = (a: unknown, op: string, b: unknown, aIsArray: boolean, bIsArray: boolean) => unknown;
-  export const Prefix: { unaryOp(prefixes: string[], value: unknown, isArray: boolean): unknown };
-  export const Postfix: { percentOp(value: unknown, postfix: string, isArray: boolean): unknown };
-  export const Infix: { compareOp: Binary; concatOp: Binary; mathOp: Binary };
-  export const Operators: { compareOp: string[]; concatOp: string[]; mathOp: string[] };
+  const operators: {
+    Prefix: { unaryOp(prefixes: string[], value: unknown, isArray: boolean): unknown };
+    Postfix: { percentOp(value: unknown, postfix: string, isArray: boolean): unknown };
+    Infix: { compareOp: Binary; concatOp: Binary; mathOp: Binary };
+    Operators: { compareOp: string[]; concatOp: string[]; mathOp: string[] };
+  };
+  export default operators;
 }
 
 declare module "fast-formula-parser/formulas/functions/*" {

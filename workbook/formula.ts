@@ -1,10 +1,15 @@
 /**
  * The adapter of the formula library, fast-formula-parser (MIT, pinned to an exact version in
- * package.json): the only module that uses it (formulaLibrary.ts, or the pane's lazy twin, only
- * loads it), and the only one that touches its internals (its lexer, its list of functions whose
- * arguments keep their references, its dependency parser, its evaluation steps, which
- * formulaFast.ts's front end calls, the wording of its "not implemented" error).
- * test/architecture.test.ts fails if any of those internals change.
+ * package.json): the only module that uses it (formulaLibrary.ts and its twins, formulaSteps.ts
+ * and formulaGroups.ts only load it), and with formulaEvaluator.ts (the library's evaluation
+ * steps, adapted to run without its parser) the only one that touches its internals (its lexer,
+ * its list of functions whose arguments keep their references, its dependency parser, the
+ * wording of its "not implemented" error). test/architecture.test.ts fails if any of those
+ * internals change; test/formulaFast.test.ts compares the fast path with the library itself.
+ *
+ * Formulas are parsed once per shape (a formula filled down a column is one shape, see
+ * formulaFast.ts's shapeKey), evaluated by formulaEvaluator.ts, and left to the library's own
+ * parser where the fast front end does not read them.
  *
  * What it offers: a formula's calls with their arguments' source text and position (to show
  * arguments "as written" and apply unit fixes), the references its text names (to order a

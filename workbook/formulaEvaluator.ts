@@ -7,9 +7,10 @@
  * (grammar/hooks.js: getCell, getRange, retrieveRef, callFunction, checkFormulaResult, and the
  * function lists its constructor makes) and of its Utils (grammar/utils.js: the prefix, postfix,
  * infix and range steps, extractRefValue, the literals), in the library's order, with its own
- * operators, helpers and function library (workbook/formulaSteps.ts; the function groups are
- * looked up by the names workbook/formulaFunctions.ts lists, so a group loads when first used). test/formulaFast.test.ts
- * compares values, errors with their messages, and the cells read, with the library itself.
+ * operators, helpers and function library (workbook/formulaSteps.ts). Functions are found by
+ * the names workbook/formulaFunctions.ts lists, so that a group can load when first used.
+ * test/formulaFast.test.ts compares values, errors with their messages, and the cells read, with
+ * the library itself.
  */
 import { FormulaError } from "./formula";
 import type { LibraryParser } from "./formulaFast";

@@ -5,13 +5,13 @@
  * lists the names): formulaGroups.ts loads them all at once, the command's build one group when
  * one of its functions is first called (headless/formulaLibraryCommand.ts).
  */
-import { Address, FormulaHelpers } from "fast-formula-parser/formulas/helpers";
-import { Infix, Operators, Postfix, Prefix } from "fast-formula-parser/formulas/operators";
+import helpers from "fast-formula-parser/formulas/helpers";
+import operators from "fast-formula-parser/formulas/operators";
 import type { FunctionGroup } from "./formulaFunctions";
 
 export type LibraryFunctions = Record<string, (...args: never[]) => unknown>;
 
-const OPERATORS = { FormulaHelpers, Address, Infix, Prefix, Postfix, Operators };
+const OPERATORS = { FormulaHelpers: helpers.FormulaHelpers, Address: helpers.Address, Infix: operators.Infix, Prefix: operators.Prefix, Postfix: operators.Postfix, Operators: operators.Operators };
 
 export type LibrarySteps = typeof OPERATORS & {
   /** One group of the library's functions (formulas/functions/<group>.js). */
