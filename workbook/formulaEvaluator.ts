@@ -14,7 +14,7 @@
  */
 import { FormulaError } from "./formula";
 import type { LibraryParser } from "./formulaFast";
-import { FUNCTION_GROUPS, type FunctionGroup } from "./formulaFunctions";
+import type { FunctionGroup } from "./formulaFunctions";
 import type { LibrarySteps } from "./formulaSteps";
 
 type Fn = (...args: unknown[]) => unknown;
@@ -35,16 +35,14 @@ interface EvaluatorConfig {
   onRange: (ref: never) => unknown[][];
 }
 
-const G = FUNCTION_GROUPS;
-/** The group whose function a name calls: groups merge in FUNCTION_GROUPS's order, a later one winning. */
-const GROUP_OF = new Map<string, FunctionGroup>((Object.keys(G) as FunctionGroup[]).flatMap((g) => G[g].map((name) => [name, g] as const)));
-/** Functions for which a left-out argument is 0; for the others it is "" (hooks.js funsNullAs0). */
-const NULL_AS_0 = new Set<string>([...G.math, ...G.trigonometry, ...G.logical, ...G.engineering, ...G.reference, ...G.statistical, ...G.date]);
-
 export class Evaluator implements LibraryParser {
   position = { sheet: "", row: 0, col: 0 };
   async = false;
   readonly utils: Steps;
+  /** The group whose function a name calls: groups merge in the library's order, a later one winning. */
+  private readonly groupOf: Map<string, FunctionGroup>;
+  /** Functions for which a left-out argument is 0; for the others it is "" (hooks.js funsNullAs0). */
+  private readonly nullAs0: Set<string>;
   /** Functions whose arguments keep the reference they were written as. */
   private readonly keepRef: Set<string>;
 
@@ -52,14 +50,17 @@ export class Evaluator implements LibraryParser {
     private readonly steps: LibrarySteps,
     private readonly config: EvaluatorConfig,
   ) {
-    this.keepRef = new Set([...G.information, ...config.keepReferences.map((n) => n.toUpperCase())]);
+    const g = steps.names;
+    this.groupOf = new Map((Object.keys(g) as FunctionGroup[]).flatMap((group) => g[group].map((name) => [name, group] as const)));
+    this.nullAs0 = new Set<string>([...g.math, ...g.trigonometry, ...g.logical, ...g.engineering, ...g.reference, ...g.statistical, ...g.date]);
+    this.keepRef = new Set([...g.information, ...config.keepReferences.map((n) => n.toUpperCase())]);
     this.utils = new Steps(this, steps);
   }
 
   /** The function a name calls: ours first (merged last by the library), then the library's group that has it. */
   private functionNamed(name: string): Fn | undefined {
     if (Object.prototype.hasOwnProperty.call(this.config.functions, name)) return this.config.functions[name] as Fn;
-    const group = GROUP_OF.get(name);
+    const group = this.groupOf.get(name);
     return group ? (this.steps.group(group)[name] as Fn | undefined) : undefined;
   }
 
@@ -93,7 +94,7 @@ export class Evaluator implements LibraryParser {
       let name = written;
       if (name.indexOf("_xlfn.") === 0) name = name.slice(6);
       name = name.toUpperCase();
-      how = { name, nullValue: NULL_AS_0.has(name) ? 0 : "", retrieve: !CONTEXT_NO_RETRIEVE.has(name), keep: this.keepRef.has(name), context: CONTEXT.has(name) };
+      how = { name, nullValue: this.nullAs0.has(name) ? 0 : "", retrieve: !CONTEXT_NO_RETRIEVE.has(name), keep: this.keepRef.has(name), context: CONTEXT.has(name) };
       this.named.set(written, how);
     }
     const { name, nullValue, keep } = how;
