@@ -29,7 +29,7 @@ export class BudgetError extends WorkbookError {}
 /** Checks elapsed time and heap use against the limits; call it often in long loops. */
 export class Budget {
   private readonly started = Date.now();
-  /** When memory was last read: reading it costs far more than reading the clock, so at most every 50 ms. */
+  /** When memory was last read: reading it costs far more than reading the clock, so at most every 200 ms. */
   private memoryReadAt = -Infinity;
   constructor(
     readonly limits: Limits = DEFAULT_LIMITS,
@@ -42,7 +42,7 @@ export class Budget {
       throw new BudgetError(`${this.file}: stopped while ${stage} after ${seconds.toFixed(0)} s, over the time budget of ${this.limits.seconds} s (raise it with --max-seconds)`);
     }
     const now = Date.now();
-    if (now - this.memoryReadAt < 50) return;
+    if (now - this.memoryReadAt < 200) return;
     this.memoryReadAt = now;
     const mb = process.memoryUsage.rss() / 2 ** 20;
     if (mb > this.limits.megabytes) {
