@@ -10,30 +10,22 @@ import type { FormulaLibrary } from "../workbook/formulaLibrary";
 import type { FunctionGroup } from "../workbook/formulaFunctions";
 import { librarySteps, type LibraryFunctions } from "../workbook/formulaSteps";
 
-/** One group of the library's functions, loaded when first asked for (require() calls of fixed names, which webpack leaves to Node). */
+/** Each group of the library's functions, loaded when first asked for (require() calls of fixed names, which webpack leaves to Node). */
+const GROUPS: Record<FunctionGroup, () => unknown> = {
+  date: () => require("fast-formula-parser/formulas/functions/date"),
+  engineering: () => require("fast-formula-parser/formulas/functions/engineering"),
+  information: () => require("fast-formula-parser/formulas/functions/information"),
+  logical: () => require("fast-formula-parser/formulas/functions/logical"),
+  math: () => require("fast-formula-parser/formulas/functions/math"),
+  reference: () => require("fast-formula-parser/formulas/functions/reference"),
+  statistical: () => require("fast-formula-parser/formulas/functions/statistical"),
+  text: () => require("fast-formula-parser/formulas/functions/text"),
+  trigonometry: () => require("fast-formula-parser/formulas/functions/trigonometry"),
+  web: () => require("fast-formula-parser/formulas/functions/web"),
+};
+
 function group(name: FunctionGroup): LibraryFunctions {
-  switch (name) {
-    case "date":
-      return require("fast-formula-parser/formulas/functions/date") as LibraryFunctions;
-    case "engineering":
-      return require("fast-formula-parser/formulas/functions/engineering") as LibraryFunctions;
-    case "information":
-      return require("fast-formula-parser/formulas/functions/information") as LibraryFunctions;
-    case "logical":
-      return require("fast-formula-parser/formulas/functions/logical") as LibraryFunctions;
-    case "math":
-      return require("fast-formula-parser/formulas/functions/math") as LibraryFunctions;
-    case "reference":
-      return require("fast-formula-parser/formulas/functions/reference") as LibraryFunctions;
-    case "statistical":
-      return require("fast-formula-parser/formulas/functions/statistical") as LibraryFunctions;
-    case "text":
-      return require("fast-formula-parser/formulas/functions/text") as LibraryFunctions;
-    case "trigonometry":
-      return require("fast-formula-parser/formulas/functions/trigonometry") as LibraryFunctions;
-    case "web":
-      return require("fast-formula-parser/formulas/functions/web") as LibraryFunctions;
-  }
+  return GROUPS[name]() as LibraryFunctions;
 }
 
 let parser: FormulaLibrary["FormulaParser"] | undefined;
