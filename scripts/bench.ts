@@ -31,6 +31,8 @@ import { addressOf } from "../workbook/address";
 
 const root = join(import.meta.dirname, "..");
 
+const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+
 /** Median time per call in nanoseconds over `rounds` rounds of `n` calls. */
 function timePerCall(n: number, rounds: number, fn: (i: number) => void): number {
   const samples: number[] = [];
@@ -43,23 +45,44 @@ function timePerCall(n: number, rounds: number, fn: (i: number) => void): number
   return samples[Math.floor(samples.length / 2)];
 }
 
+/**
+ * Median times per call of two functions, their rounds taken in turn (a, b, a, b...), so that the
+ * machine's drift during the run falls on both alike: their ratio is what the targets read.
+ */
+function pairPerCall(n: number, rounds: number, a: (i: number) => void, b: (i: number) => void): [number, number] {
+  const as: number[] = [];
+  const bs: number[] = [];
+  for (let r = 0; r < rounds; r++) {
+    as.push(timePerCall(n, 1, a));
+    bs.push(timePerCall(n, 1, b));
+  }
+  return [median(as), median(bs)];
+}
+
 let sink = 0;
-const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 const res: Record<string, unknown> = { date: new Date().toISOString(), node: process.version };
 
 // 1. Colebrook against Swamee–Jain over a spread of Re and ε/D.
 const re = Array.from({ length: 1000 }, (_, i) => 4000 * Math.pow(10, (i % 100) / 25));
 const rr = Array.from({ length: 1000 }, (_, i) => Math.pow(10, -6 + (i % 37) / 9.25));
-const colebrook = timePerCall(100000, 9, (i) => (sink += colebrookFriction(re[i % 1000], rr[i % 1000])));
-const swamee = timePerCall(100000, 9, (i) => (sink += swameeJainFriction(re[i % 1000], rr[i % 1000])));
+const [colebrook, swamee] = pairPerCall(
+  100000,
+  9,
+  (i) => (sink += colebrookFriction(re[i % 1000], rr[i % 1000])),
+  (i) => (sink += swameeJainFriction(re[i % 1000], rr[i % 1000])),
+);
 res.colebrook_vs_swamee_jain = { colebrook_ns: colebrook, swamee_jain_ns: swamee, ratio: colebrook / swamee, target: "≤ 1.3", scheme: "Clamond (2009), Ind. Eng. Chem. Res. 48: one third-order iteration, then Newton on 1/√f to a step below 1e-8" };
 
 // 2. Worksheet call with text quantities against bare numbers (same values).
 const headloss = CATALOG_BY_ID.get("HEADLOSS")!;
 const bare: RawArg[] = [0.02, 0.1541, 300, 4.6e-5, null, null];
 const text: RawArg[] = ["317.006 gpm", "6.067 in", "984.252 ft", "0.0018110 in", null, "ft"];
-const bareNs = timePerCall(20000, 9, () => (sink += evaluate(headloss, bare).value as number));
-const textNs = timePerCall(20000, 9, () => (sink += evaluate(headloss, text).value as number));
+const [bareNs, textNs] = pairPerCall(
+  20000,
+  9,
+  () => (sink += evaluate(headloss, bare).value as number),
+  () => (sink += evaluate(headloss, text).value as number),
+);
 res.text_vs_bare_numbers = { bare_ns: bareNs, text_ns: textNs, ratio: textNs / bareNs, target: "≤ 1.5" };
 
 // 2b. Curve work: one PUMP.DUTY call with a two-segment system against one HEADLOSS call (target ≤ 10×).
@@ -67,8 +90,13 @@ const duty = CATALOG_BY_ID.get("PUMP.DUTY")!;
 const curveTable: RawArg = [["Flow (m^3/h)", "Head (m)"], [0, 114.7], [28.4, 113.8], [56.8, 110.2], [85.2, 103], [113.6, 92.3], [141.9, 78]];
 const segments: RawArg = [["Length (m)", "ID (m)", "Roughness (m)", "K"], [9.144, 0.154051, 4.5e-5, 6.68], [420, 0.128194, 4.5e-5, 4.52]];
 const dutyArgs: RawArg[] = [curveTable, 90.33, segments, 8.4e-7, "m^3/h", "m"];
-const dutyNs = timePerCall(2000, 9, () => (sink += (evaluate(duty, dutyArgs).value as number[][])[0][0]));
-res.curve_work = { pump_duty_ns: dutyNs, headloss_ns: bareNs, ratio: dutyNs / bareNs, target: "≤ 10", how: "crossing bracketed on the curve's own points, then Brent's method" };
+const [dutyNs, headlossNs] = pairPerCall(
+  2000,
+  9,
+  () => (sink += (evaluate(duty, dutyArgs).value as number[][])[0][0]),
+  () => (sink += evaluate(headloss, bare).value as number),
+);
+res.curve_work = { pump_duty_ns: dutyNs, headloss_ns: headlossNs, ratio: dutyNs / headlossNs, target: "≤ 10", how: "crossing bracketed on the curve's own points, then Brent's method" };
 
 // 3. 10 000 HEADLOSS calls through the built binding (the same wrapper Excel calls), the bundle
 // run in this process's own global context as Excel's runtime runs it (a separate vm context
@@ -298,10 +326,10 @@ if (spawnSync("soffice", ["--version"], { stdio: "ignore" }).status === 0 && exi
   await big.xlsx.writeFile(bigFile);
   const profile = `-env:UserInstallation=file://${join(scratch, "lo-profile")}`;
   spawnSync("soffice", [profile, "--headless", "--convert-to", "csv", "--outdir", scratch, bigFile], { stdio: "ignore" }); // first start makes the profile
-  // Three runs each, taken in turn (the machine's speed drifts), medians compared.
+  // Five runs each, taken in turn (the machine's speed drifts), medians compared; every run kept.
   const nappeRuns: { seconds: number; peak_mb: number }[] = [];
   const officeRuns: { seconds: number; peak_mb: number }[] = [];
-  for (let i = 0; i < 3; i++) {
+  for (let i = 0; i < 5; i++) {
     officeRuns.push(timed("soffice", [profile, "--headless", "--convert-to", "csv", "--outdir", scratch, bigFile]));
     nappeRuns.push(timed(process.execPath, ["bin/nappe.mjs", "recalc", "--all", "--allow-empty", bigFile]));
   }
@@ -312,6 +340,7 @@ if (spawnSync("soffice", ["--version"], { stdio: "ignore" }).status === 0 && exi
     formulas: 40000,
     nappe: nappeRun,
     libreoffice: office,
+    runs_seconds: { nappe: nappeRuns.map((r) => r.seconds), libreoffice: officeRuns.map((r) => r.seconds) },
     time_ratio: nappeRun.seconds / office.seconds,
     memory_ratio: nappeRun.peak_mb / office.peak_mb,
     target: "time ratio ≤ 0.5, memory ratio ≤ 1",
