@@ -1,7 +1,7 @@
 /**
  * The pane's build of workbook/formulaLibrary.ts (webpack.config.js swaps it in): the formula
- * library (its parser, Chevrotain, its function library) is a chunk of its own, formula.chunk.js,
- * loaded the first time a formula is analysed. Every pane entry point that analyses formulas
+ * library (its parser, Chevrotain, its evaluation steps and functions) is a chunk of its own,
+ * formula.chunk.js with the vendor chunk it loads, fetched the first time a formula is analysed. Every pane entry point that analyses formulas
  * awaits formulaLibraryReady() first (explainCell, checkWorkbook, the preview's in-memory host).
  */
 import type { FormulaLibrary } from "../workbook/formulaLibrary";
