@@ -195,16 +195,22 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
   });
 
   it("draws the pump and system curves with the operating point for a duty-point cell", async () => {
-    // Chart.js arrives late, as on a slow connection: the test must wait for the drawn chart,
-    // not for the slot that holds its place (CI once read the slot).
+    // Chart.js arrives late, as on a slow connection: its chunk is held until the slot that keeps
+    // its place is on screen. The test must then wait for the drawn chart, not read the slot
+    // (CI once did). Held on a condition, not for a time.
+    let release: () => void = () => {};
+    const slotSeen = new Promise<void>((resolve) => (release = resolve));
     await page.route("**/chart.chunk.js", async (route) => {
-      await new Promise((resolve) => setTimeout(resolve, 500));
+      await slotSeen;
       await route.continue();
     });
     await page.goto(preview.url, { waitUntil: "domcontentloaded" });
     await page.getByRole("tab", { name: "This cell" }).click();
     await selectCell(page, "Calc", "B28");
     await page.locator(".cell-view .chart-slot").first().waitFor();
+    // While the chunk is held, nothing on the page may pass for the chart.
+    expect(await page.locator(".cell-view .chart").count()).toBe(0);
+    release();
     const chart = page.locator(".cell-view .chart").first();
     await chart.waitFor();
     await page.unroute("**/chart.chunk.js");
