@@ -68,11 +68,9 @@ export default async (env, argv) => {
     },
     performance: { hints: false },
     plugins: [
-      // The pane loads the formula library as a chunk of its own (formula.chunk.js), the first
-      // time it analyses a formula: its first script stays small (taskpane/formulaLibraryLazy.ts).
+      // The pane loads the formula engine's function library as a chunk of its own (formula.chunk.js),
+      // the first time it analyses a formula: its first script stays small (taskpane/formulaLibraryLazy.ts).
       new webpack.NormalModuleReplacementPlugin(/(^|[\\/])formulaLibrary$/, path.join(root, "taskpane/formulaLibraryLazy.ts")),
-      // No code generation from strings in any shipped bundle (see taskpane/stubs).
-      new webpack.NormalModuleReplacementPlugin(/chevrotain[\\/]lib(_esm)?[\\/]src[\\/]generate[\\/]generate_public\.js$/, path.join(root, "taskpane/stubs/chevrotainNoCodegen.js")),
       new CustomFunctionsMetadataPlugin({ output: "functions.json", input: "./functions/functions.ts" }),
       new HtmlWebpackPlugin({ filename: "functions.html", template: "./functions/functions.html", chunks: ["functions"] }),
       new HtmlWebpackPlugin({ filename: "taskpane.html", template: "./taskpane/taskpane.html", chunks: ["taskpane"] }),
@@ -124,8 +122,6 @@ function commandConfig() {
     // evaluated only when a command needs them, so `nappe recalc` starts without them.
     plugins: [
       new webpack.optimize.LimitChunkCountPlugin({ maxChunks: 1 }),
-      // The formula library's parser loads when first needed (headless/formulaLibraryCommand.ts).
-      new webpack.NormalModuleReplacementPlugin(/(^|[\\/])formulaLibrary$/, path.join(root, "headless/formulaLibraryCommand.ts")),
     ],
     performance: { hints: false },
   };

@@ -84,6 +84,8 @@ function serialToIso(serial: number, date1904: boolean): string {
 
 function cachedValue(type: string | undefined, text: string | undefined, strings: readonly string[]): CellValue {
   if (text === undefined) return null;
+  // An empty <v></v> (as openpyxl writes after a formula) is no cached value, not a cached 0; only text may be empty.
+  if (text === "" && type !== "str" && type !== "inlineStr") return null;
   switch (type) {
     case "s":
       return strings[Number(text)] ?? null;

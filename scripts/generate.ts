@@ -130,7 +130,10 @@ async function readmeSections(): Promise<Record<string, string>> {
     "|---|---|---|",
     ...Object.values(DIMENSIONS).map((d) => `| ${d.noun.replace(/^an? /, "")} | ${d.baseLabel} | \`${d.example}\` |`),
   ];
+  const { supportedFunctions } = await import("../workbook/formula/functions/index");
+  const supported = Object.entries(supportedFunctions()).map(([group, names]) => `* **${group}** (${names.length}): ${names.map((n) => `\`${n}\``).join(", ")}`);
   return {
+    excel: supported.join("\n"),
     reference: [...summary, "", ...details].join("\n"),
     units: units.join("\n"),
     bases: bases.join("\n"),
@@ -193,29 +196,6 @@ ${body}
 `;
 }
 
-/** The formula library's function groups (fast-formula-parser formulas/functions), in the order its parser merges them. */
-const FUNCTION_GROUPS = ["date", "statistical", "information", "reference", "engineering", "logical", "text", "math", "trigonometry", "web"];
-
-async function formulaFunctions(): Promise<string> {
-  const lists: string[] = [];
-  for (const group of FUNCTION_GROUPS) {
-    const names = Object.keys((await import(`fast-formula-parser/formulas/functions/${group}`)).default as object);
-    lists.push(`  ${group}: [${names.map((n) => JSON.stringify(n)).join(", ")}],`);
-  }
-  return `${HEADER.replace("from functions/catalog", "from fast-formula-parser's function library")}
-/**
- * The formula library's functions by group (its formulas/functions/<group>.js), in the order its
- * parser merges the groups: where two groups name the same function, the later one's is used.
- * The command loads a group the first time one of its functions is called.
- */
-export const FUNCTION_GROUPS = {
-${lists.join("\n")}
-} as const;
-
-export type FunctionGroup = keyof typeof FUNCTION_GROUPS;
-`;
-}
-
 const stale: string[] = [];
 function emit(rel: string, content: string): void {
   const path = join(root, rel);
@@ -244,7 +224,6 @@ async function main(): Promise<void> {
   for (const [name, body] of Object.entries(sections)) readme = replaceBetween(readme, name, body);
   emit("README.md", readme);
   emit("functions/units/unitFactors.ts", await unitFactors());
-  emit("workbook/formulaFunctions.ts", await formulaFunctions());
   if (check && stale.length) {
     console.error(`Out of date: ${stale.join(", ")}. Run npm run generate.`);
     process.exit(1);

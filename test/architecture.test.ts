@@ -1,17 +1,15 @@
 /**
  * The shape of the code: the layers the contributor guide draws are the layers the imports
- * make (no folder imports one above it, no cycles between folders), and the formula library's
- * internals that workbook/formula.ts relies on are still there and still behave as it expects.
+ * make (no folder imports one above it, no cycles between folders), and the formula engine is
+ * our own: no formula library is installed or imported, and the pane loads its function library
+ * as a chunk of its own.
  */
 import { existsSync, readdirSync, readFileSync, statSync } from "node:fs";
 import { dirname, join, relative, resolve } from "node:path";
-import FormulaParser from "fast-formula-parser";
-import { lex } from "fast-formula-parser/grammar/lexing";
 import { describe, expect, it } from "vitest";
-import { callSites, directPrecedents, evaluatingParser, FormulaError, isParseError, MAX_COLUMN, MAX_ROW, notImplementedFunction, references } from "../workbook/formula";
+import { callSites, directPrecedents, references } from "../workbook/formula";
 import { recalculate } from "../workbook/recalc";
 import type { WorkbookModel } from "../workbook/model";
-import { FUNCTION_GROUPS, type FunctionGroup } from "../workbook/formulaFunctions";
 
 const root = join(__dirname, "..");
 
@@ -62,78 +60,29 @@ describe("layers", () => {
     const cycles = [...pairs].filter((p) => pairs.has(p.split("→").reverse().join("→")));
     expect(cycles).toEqual([]);
   });
-  it("only workbook/formula.ts uses the formula library (formulaLibrary.ts, its twins, formulaSteps.ts and formulaGroups.ts only load it)", () => {
-    const users = files.filter((f) => !f.endsWith(".d.ts") && /from "fast-formula-parser|import\(\/\*[^*]*\*\/ "fast-formula-parser|require\("fast-formula-parser/.test(readFileSync(f, "utf8"))).map((f) => relative(root, f)).sort();
-    expect(users).toEqual(["headless/formulaLibraryCommand.ts", "taskpane/formulaLibraryLazy.ts", "workbook/formula.ts", "workbook/formulaGroups.ts", "workbook/formulaLibrary.ts", "workbook/formulaSteps.ts"]);
+  it("no formula library is a dependency or imported: the engine is our own (workbook/formula/)", () => {
+    const pkg = JSON.parse(readFileSync(join(root, "package.json"), "utf8")) as { dependencies: Record<string, string> };
+    for (const name of ["fast-formula-parser", "hot-formula-parser", "@formulajs/formulajs", "hyperformula"]) expect(Object.keys(pkg.dependencies)).not.toContain(name);
+    const users = files.filter((f) => /from "(fast-formula-parser|@formulajs|hyperformula|hot-formula-parser)/.test(readFileSync(f, "utf8")));
+    expect(users).toEqual([]);
   });
 });
 
-describe("the formula library's internals the adapter relies on (fast-formula-parser 1.0.19)", () => {
-  it("its lexer names the tokens callSites and references read", () => {
-    const names = new Set(lex("'A b'!B2:C3+SUM(Sheet1!A:A)+1").tokens.map((t) => t.tokenType.name));
-    for (const n of ["SheetQuoted", "Cell", "Colon", "PlusOp", "Function", "Sheet", "Column", "CloseParen", "Number"]) expect(names, n).toContain(n);
-  });
-  it("keeps the reference of an argument of a function on its funsPreserveRef list", () => {
-    const seen: unknown[] = [];
-    const parser = evaluatingParser({ functions: { KEEP: (a) => (seen.push(a.ref), 1) }, keepReferences: ["KEEP"], onCell: () => 2, onRange: () => [[2]] });
-    parser.parse("KEEP(Data!B7)", { sheet: "S", row: 1, col: 1 });
-    expect(seen).toMatchObject([{ sheet: "Data", row: 7, col: 2 }]);
-    expect(Array.isArray(new FormulaParser({}).funsPreserveRef)).toBe(true);
-  });
-  /** The library's error for a formula, as the engine meets it. */
-  function failureOf(formula: string): InstanceType<typeof FormulaError> {
-    const parser = evaluatingParser({ functions: {}, keepReferences: [], onCell: () => 0, onRange: () => [[0]] });
-    try {
-      parser.parse(formula, { sheet: "S", row: 1, col: 1 });
-    } catch (e) {
-      expect(e).toBeInstanceOf(FormulaError);
-      return e as InstanceType<typeof FormulaError>;
-    }
-    throw new Error(`${formula} did not fail`);
-  }
-  it("says a function is not implemented in the words notImplementedFunction reads", () => {
-    expect(notImplementedFunction(failureOf("NOSUCHFUNCTION(1)"))).toBe("NOSUCHFUNCTION");
-  });
-  it("marks a parse error as isParseError reads it", () => {
-    expect(isParseError(failureOf("1+("))).toBe(true);
-  });
-  it("the pane's lazy twin of formulaLibrary.ts has the same exports, refuses before the chunk is loaded, then gives the library", async () => {
+describe("the formula engine's entry points", () => {
+  it("the pane's lazy twin of formulaLibrary.ts has the same exports, refuses before the chunk is loaded, then gives the same library", async () => {
     const lazy = await import("../taskpane/formulaLibraryLazy");
     const eager = await import("../workbook/formulaLibrary");
     expect(Object.keys(lazy).sort()).toEqual(Object.keys(eager).sort());
     expect(() => lazy.formulaLibrary()).toThrow(/still loading/);
     await lazy.formulaLibraryReady();
-    expect(lazy.formulaLibrary().FormulaParser).toBe(FormulaParser);
-    expect(lazy.formulaLibrary().lex).toBe(lex);
-    expect(lazy.formulaLibrary().steps).toBe(eager.formulaLibrary().steps);
+    expect(lazy.formulaLibrary()).toBe(eager.formulaLibrary());
+    expect(lazy.formulaLibrary().get("SUM")).toBeDefined();
   });
-  it("the command's twin of formulaLibrary.ts has the same exports, and loads the parser and lexer only when asked for them", async () => {
-    const command = await import("../headless/formulaLibraryCommand");
-    const eager = await import("../workbook/formulaLibrary");
-    expect(Object.keys(command).sort()).toEqual(Object.keys(eager).sort());
-    expect(Object.keys(command.formulaLibrary()).sort()).toEqual(Object.keys(eager.formulaLibrary()).sort());
-    // Each function group is the library's own module, and lists the names formulaFunctions.ts gives.
-    for (const g of Object.keys(FUNCTION_GROUPS) as FunctionGroup[]) {
-      expect(command.formulaLibrary().steps.group(g), g).toBe(eager.formulaLibrary().steps.group(g));
-      expect(Object.keys(eager.formulaLibrary().steps.group(g)), g).toEqual([...FUNCTION_GROUPS[g]]);
-    }
-    expect(command.formulaLibrary().FormulaParser).toBe(FormulaParser);
-    expect(command.formulaLibrary().lex).toBe(lex);
-    // The built command does not load them for ordinary formulas: test/headless.test.ts.
-  });
-  it("has the evaluation steps the fast front end calls (workbook/formulaFast.ts), as methods of the names it uses", () => {
-    const parser = new FormulaParser({}) as unknown as { utils: Record<string, unknown> } & Record<string, unknown>;
-    for (const m of ["applyInfix", "applyPrefix", "applyPostfix", "applyRange", "parseCol", "toNumber", "toString", "toBoolean", "isFormulaError"]) expect(typeof parser.utils[m], m).toBe("function");
-    for (const m of ["callFunction", "checkFormulaResult"]) expect(typeof parser[m], m).toBe("function");
-  });
-  it("has the sheet bounds formula.ts writes as constants, and one error class in its small module and its main one", () => {
-    expect([MAX_ROW, MAX_COLUMN]).toEqual([FormulaParser.MAX_ROW, FormulaParser.MAX_COLUMN]);
-    expect(FormulaError).toBe(FormulaParser.FormulaError);
-  });
-  it("has the dependency parser directPrecedents uses", () => {
-    expect(directPrecedents("A1+Data!B2:C3", { sheet: "S", row: 5, col: 5 })).toEqual([
+  it("gives direct precedents, each once, whole columns to the last row", () => {
+    expect(directPrecedents("A1+Data!B2:C3+SUM(A:A)+A1", { sheet: "S", row: 5, col: 5 })).toEqual([
       { sheet: "S", row: 1, col: 1 },
       { sheet: "Data", from: { row: 2, col: 2 }, to: { row: 3, col: 3 } },
+      { sheet: "S", from: { row: 1, col: 1 }, to: { row: 1048576, col: 1 } },
     ]);
   });
   it("gives call sites and references from the same lexer", () => {

@@ -1,17 +1,20 @@
 /**
  * Recalculates a workbook's formulas outside Excel with the same calculation core: formulas
- * are parsed and evaluated by fast-formula-parser (references, ranges, arithmetic, &,
- * comparisons and Excel's common functions); every NAPPE.* call goes through the catalogue's
+ * are parsed and evaluated by our formula engine (workbook/formula/), which reaches the workbook
+ * through the Host this module implements; every NAPPE.* call goes through the catalogue's
  * evaluate(), and is recorded with its inputs, result and warnings for the audit.
  */
 import { CalcError } from "../functions/calc/_lib/result";
 import { evaluate, type Evaluation, type RawArg } from "../functions/bind/evaluate";
 import { CATALOG } from "../functions/catalog";
-import { type EvaluatingParser, evaluatingParser, FormulaError, type FormulaErrorValue, type FunctionArg, eachReference, isParseError, MAX_COLUMN, MAX_ROW, notImplementedFunction, type RangeRef } from "./formula";
+import { eachReference, evaluateFormula, evaluateText, FormulaError, type Host, MAX_COLUMN, MAX_ROW } from "./formula";
+import type { Ctx, NappeArg } from "./formula/evaluate";
+import { type ErrorCode, Lambda, Ref, type Scalar, type Value, XArray } from "./formula/values";
+import { serialFromIso } from "./formula/serial";
+import { formulaLibrary } from "./formulaLibrary";
 import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAddress, type SheetModel, type WorkbookModel } from "./model";
 import { sheetPrefix } from "./address";
-import { displayFormula, dottedName, expandLet, externalLinkIndexes, hasNappeCall, otherAddinFunctions, resolveNames, UDF_PREFIX, unknownNappeFunctions } from "./storedForm";
-import { EXTRA_FUNCTIONS } from "./extraFunctions";
+import { displayFormula, dottedName, externalLinkIndexes, hasNappeCall, otherAddinFunctions, resolveNames, unknownNappeFunctions } from "./storedForm";
 import { formatNumber } from "./format";
 
 /** One NAPPE call made while computing a cell. */
@@ -95,12 +98,11 @@ function isSingleNappeCall(formula: string): boolean {
   return false;
 }
 
-function rangeText(ref: FunctionArg["ref"], here: string): string | undefined {
+function rangeText(ref: Ref | undefined, here: string): string | undefined {
   if (!ref) return undefined;
   const prefix = ref.sheet && ref.sheet !== here ? sheetPrefix(ref.sheet) : "";
-  if (ref.from && ref.to) return `${prefix}${addressOf(ref.from.row, ref.from.col)}:${addressOf(ref.to.row, ref.to.col)}`;
-  if (ref.row && ref.col) return `${prefix}${addressOf(ref.row, ref.col)}`;
-  return undefined;
+  if (ref.single) return `${prefix}${addressOf(ref.r1, ref.c1)}`;
+  return `${prefix}${addressOf(ref.r1, ref.c1)}:${addressOf(ref.r2, ref.c2)}`;
 }
 
 function toCellValue(v: unknown): CellValue {
@@ -110,6 +112,12 @@ function toCellValue(v: unknown): CellValue {
   return String(v);
 }
 
+/** Error values as a constant cell holds them (t="e" in the file). */
+const ERROR_TEXT = /^#(NULL!|DIV\/0!|VALUE!|REF!|NAME\?|NUM!|N\/A|GETTING_DATA|SPILL!|CALC!)$/;
+
+/** Functions whose value changes at every recalculation: not compared with the value cached in the file. */
+const VOLATILE = /(?:^|[^A-Za-z0-9_.])(?:_xlfn\.)?(NOW|TODAY|RAND|RANDBETWEEN|RANDARRAY)\s*\(/i;
+
 /** A cell as messages name it: "Sheet!B4". */
 function cellText(cell: CellModel): string {
   return `${cell.sheet}!${addressOf(cell.row, cell.col)}`;
@@ -117,10 +125,9 @@ function cellText(cell: CellModel): string {
 
 const NO_CALLS: CallRecord[] = Object.freeze([]) as unknown as CallRecord[];
 
-/** The formula parsers of every Recalculation, one per nesting depth (see parserAt). */
-const SHARED_PARSERS: { parser: EvaluatingParser; route: { to?: Recalculation } }[] = [];
+const NAPPE_IDS = new Set(CATALOG.map((s) => s.id));
 
-export class Recalculation {
+export class Recalculation implements Host {
   /** The formula cells being computed, outermost first. */
   private readonly visiting: CellModel[] = [];
   private readonly spillOwner = new Map<string, CellModel>();
@@ -148,59 +155,37 @@ export class Recalculation {
     }
   }
 
-  /**
-   * A parser for the current nesting depth: fast-formula-parser is not re-entrant, and a
-   * formula's references may need other formulas computed while it is being parsed.
-   */
-  private parserAt(depth: number): EvaluatingParser {
-    // Making a parser costs far more than a parse (the pane analyses cells one by one, each with
-    // a new Recalculation), so the parsers are shared: each depth's callbacks go to the
-    // Recalculation that last took that depth. Parsing is synchronous, so none is shared at once.
-    while (SHARED_PARSERS.length <= depth) {
-      const route: { to?: Recalculation } = {};
-      const functions: Record<string, (...args: FunctionArg[]) => unknown> = {};
-      // Both forms a NAPPE call takes: dotted as typed, and as Excel stores it (_xldudf_NAPPE_X_Y).
-      for (const spec of CATALOG) {
-        const call = (...args: FunctionArg[]) => route.to!.callNappe(spec.id, args);
-        functions[`NAPPE.${spec.id}`] = call;
-        functions[`${UDF_PREFIX}NAPPE_${spec.id.replace(/\./g, "_")}`.toUpperCase()] = call;
-      }
-      Object.assign(functions, EXTRA_FUNCTIONS, {
-        ANCHORARRAY: (arg: FunctionArg) => route.to!.spillOf(arg),
-        SINGLE: (arg: FunctionArg) => route.to!.implicitIntersection(arg),
-      });
-      const parser = evaluatingParser({
-        functions,
-        // References on our functions' arguments let the audit say where each input came from.
-        keepReferences: [...Object.keys(functions).filter((n) => n.startsWith("NAPPE.") || n.startsWith("_XLDUDF_")), "ANCHORARRAY", "SINGLE"],
-        onCell: (ref) => route.to!.scalarAt(ref.sheet, ref.row, ref.col),
-        onRange: (ref) => route.to!.rangeValues(ref),
-      });
-      SHARED_PARSERS.push({ parser, route });
-    }
-    SHARED_PARSERS[depth].route.to = this;
-    return SHARED_PARSERS[depth].parser;
+  /** The catalogue id of a NAPPE function name in either stored form. */
+  nappeId(name: string): string | undefined {
+    const dotted = dottedName(name);
+    if (!dotted) return undefined;
+    const id = dotted.slice("NAPPE.".length);
+    return NAPPE_IDS.has(id) ? id : undefined;
   }
 
-  private callNappe(id: string, args: FunctionArg[]): unknown {
-    const here = this.currentSheet();
-    const record: CallRecord = { id, refs: args.map((a) => rangeText(a.ref, here)) };
+  nappe(id: string, args: NappeArg[], c: Ctx): Value {
+    const record: CallRecord = { id, refs: args.map((a) => rangeText(a.ref, c.sheet)) };
     if (this.calls.length) (this.calls[this.calls.length - 1] ??= []).push(record);
     const raws: RawArg[] = [];
     for (const a of args) {
-      if (a.value instanceof FormulaError) throw a.value;
-      if (a.omitted) raws.push(null);
-      else if (Array.isArray(a.value)) {
-        const rows = a.value as unknown[][];
-        for (const row of rows) for (const v of row) if (v instanceof FormulaError) throw v;
-        raws.push(rows.map((row) => row.map((v) => (v as RawArg) ?? null)));
+      if (a.omitted) {
+        raws.push(null);
+        continue;
       }
-      else raws.push((a.value as RawArg) ?? null);
+      let v = a.value;
+      if (v instanceof Ref) v = v.single ? this.cell(v.sheet, v.r1, v.c1) : this.area(v);
+      if (v instanceof FormulaError) return v;
+      if (v instanceof Lambda) return new FormulaError("#VALUE!", "a LAMBDA is not an argument of a NAPPE function");
+      if (v instanceof XArray) {
+        for (const row of v.data) for (const x of row) if (x instanceof FormulaError) return x;
+        raws.push(v.data.map((row) => row.map((x) => (x as RawArg) ?? null)));
+      } else raws.push((v as RawArg) ?? null);
     }
     try {
       const spec = CATALOG.find((s) => s.id === id)!;
       record.evaluation = evaluate(spec, raws);
-      return record.evaluation.value;
+      const out = record.evaluation.value;
+      return Array.isArray(out) ? XArray.of((out as CellValue[][]).map((r) => r.slice())) : (out as Scalar);
     } catch (e) {
       if (e instanceof CalcError) {
         record.error = { kind: e.kind, message: e.message };
@@ -210,32 +195,47 @@ export class Recalculation {
     }
   }
 
-  /** The whole spilled result of the cell a spill reference (B5#) names. */
-  private spillOf(arg: FunctionArg): CellValue[][] {
-    const ref = arg.ref;
-    if (!ref || ref.row === undefined || ref.col === undefined) throw new FormulaError("#REF!", "a spill reference (#) must name one cell");
-    const v = this.valueAt(ref.sheet ?? this.currentSheet(), ref.row, ref.col);
-    if (v instanceof FormulaError) throw v;
-    return Array.isArray(v) ? v : [[v]];
+  /** A defined name the text substitution leaves: a named LAMBDA called as a function. */
+  definedName(name: string, sheet: string, c: Ctx): Value | undefined {
+    const lower = name.toLowerCase();
+    const names = this.wb.names ?? [];
+    const found = names.find((n) => n.name.toLowerCase() === lower && n.sheet === sheet) ?? names.find((n) => n.name.toLowerCase() === lower && !n.sheet);
+    if (!found) return undefined;
+    return evaluateText(found.refersTo.replace(/^=/, ""), c);
   }
 
-  /** Excel's implicit intersection (@): one value from a range, in the formula's own row or column. */
-  private implicitIntersection(arg: FunctionArg): CellValue {
-    const ref = arg.ref;
-    if (!ref?.from || !ref.to) {
-      const v = arg.value as unknown;
-      return Array.isArray(v) ? ((v as CellValue[][])[0]?.[0] ?? null) : (v as CellValue);
+  formulaText(sheetName: string, row: number, col: number): string | undefined {
+    const sheet = this.sheet(sheetName);
+    return sheet ? this.cellAt(sheet, row, col)?.formula : undefined;
+  }
+
+  /** A cell's value for a formula: a failed formula's error, a dated cell's serial number, a stored error value. */
+  cell(sheetName: string, row: number, col: number): Scalar {
+    const v = this.valueAt(sheetName, row, col);
+    if (Array.isArray(v)) return (v[0]?.[0] ?? null) as Scalar;
+    if (typeof v === "string") {
+      if (v.charCodeAt(0) === 35 && ERROR_TEXT.test(v)) {
+        const sheet = this.sheet(sheetName);
+        const c = sheet && this.cellAt(sheet, row, col);
+        if (!c?.formula) return new FormulaError(v as never, `${v} stored in ${sheetName}!${addressOf(row, col)}`);
+      } else if (v.length >= 10 && v.charCodeAt(4) === 45) {
+        const sheet = this.sheet(sheetName);
+        const c = sheet && this.cellAt(sheet, row, col);
+        if (c?.numFmt && !c.formula) return serialFromIso(v) ?? v;
+      }
     }
-    const { row: r, col: c } = this.visiting[this.visiting.length - 1];
-    const sheet = ref.sheet ?? this.currentSheet();
-    if (ref.from.row === ref.to.row && ref.from.col === ref.to.col) return this.scalarAt(sheet, ref.from.row, ref.from.col);
-    if (ref.from.col === ref.to.col && r >= ref.from.row && r <= ref.to.row) return this.scalarAt(sheet, r, ref.from.col);
-    if (ref.from.row === ref.to.row && c >= ref.from.col && c <= ref.to.col) return this.scalarAt(sheet, ref.from.row, c);
-    throw new FormulaError("#VALUE!", "@ (implicit intersection): the range does not cross the formula's row or column");
+    return v as Scalar;
   }
 
-  private currentSheet(): string {
-    return this.visiting[this.visiting.length - 1]?.sheet ?? "";
+  area(ref: Ref): XArray {
+    return this.rangeValues(ref);
+  }
+
+  spill(sheetName: string, row: number, col: number): Value {
+    const v = this.valueAt(sheetName, row, col);
+    if (v instanceof FormulaError) return v;
+    if (Array.isArray(v)) return XArray.of(v.map((r) => r.map((x) => (typeof x === "string" && ERROR_TEXT.test(x) ? new FormulaError(x as never) : x))));
+    return v as Scalar;
   }
 
   /** Each sheet's cells by a number made from row and column, built on first use (no key text to make per read). */
@@ -261,36 +261,33 @@ export class Recalculation {
     return s;
   }
 
-  private scalarAt(sheet: string, row: number, col: number): CellValue {
-    const v = this.valueAt(sheet, row, col);
-    return Array.isArray(v) ? (v[0]?.[0] ?? null) : v;
-  }
-
-  private rangeValues(ref: RangeRef): CellValue[][] {
+  private rangeValues(ref: Ref): XArray {
     const sheet = this.sheet(ref.sheet);
-    let lastRow = ref.to.row;
-    let lastCol = ref.to.col;
+    let lastRow = ref.r2;
+    let lastCol = ref.c2;
     if (sheet && (lastRow >= MAX_ROW || lastCol >= MAX_COLUMN)) {
       const { maxR, maxC } = this.extent(sheet.name);
-      lastRow = Math.min(lastRow, Math.max(maxR, ref.from.row));
-      lastCol = Math.min(lastCol, Math.max(maxC, ref.from.col));
+      lastRow = Math.min(lastRow, Math.max(maxR, ref.r1));
+      lastCol = Math.min(lastCol, Math.max(maxC, ref.c1));
     }
     // A range read once is read again from here (200 formulas over the same column read it once):
-    // every value in it is final once read, formulas included (they are computed on the way).
-    const key = `${ref.sheet}!${ref.from.row}:${ref.from.col}:${lastRow}:${lastCol}`;
+    // every value in it is final once read, formulas included (they are computed on the way). The
+    // values are frozen: no function can change what another formula reads.
+    const key = `${ref.sheet}!${ref.r1}:${ref.c1}:${lastRow}:${lastCol}`;
     const known = this.ranges.get(key);
     if (known) return known;
-    const rows: CellValue[][] = [];
-    for (let r = ref.from.row; r <= lastRow; r++) {
-      const row: CellValue[] = [];
-      for (let c = ref.from.col; c <= lastCol; c++) row.push(this.scalarAt(ref.sheet, r, c));
+    const rows: Scalar[][] = [];
+    for (let r = ref.r1; r <= lastRow; r++) {
+      const row: Scalar[] = [];
+      for (let c = ref.c1; c <= lastCol; c++) row.push(this.cell(ref.sheet, r, c));
       rows.push(row);
     }
-    if (!this.visiting.some((k) => this.inRange(k, ref.sheet, ref.from, lastRow, lastCol))) this.ranges.set(key, rows);
-    return rows;
+    const values = XArray.of(rows);
+    if (!this.visiting.some((k) => this.inRange(k, ref.sheet, { row: ref.r1, col: ref.c1 }, lastRow, lastCol))) this.ranges.set(key, values);
+    return values;
   }
 
-  private readonly ranges = new Map<string, CellValue[][]>();
+  private readonly ranges = new Map<string, XArray>();
 
   /** True when a cell being computed lies in the range (its value is not final yet). */
   private inRange(cell: CellModel, sheet: string, from: { row: number; col: number }, lastRow: number, lastCol: number): boolean {
@@ -337,7 +334,7 @@ export class Recalculation {
       const c = this.computeNow(cell);
       if (c.error) {
         this.readFailed(cell);
-        return new FormulaError(c.error, c.message ?? c.error) as unknown as CellValue;
+        return new FormulaError(c.error as ErrorCode, c.message ?? c.error) as unknown as CellValue;
       }
       return c.value;
     }
@@ -346,7 +343,7 @@ export class Recalculation {
       const c = this.computeNow(owner);
       if (c.error) {
         this.readFailed(owner);
-        return new FormulaError(c.error, c.message ?? c.error) as unknown as CellValue;
+        return new FormulaError(c.error as ErrorCode, c.message ?? c.error) as unknown as CellValue;
       }
       if (Array.isArray(c.value)) return toCellValue(c.value[row - owner.row]?.[col - owner.col]);
       return row === owner.row && col === owner.col ? c.value : null;
@@ -387,15 +384,13 @@ export class Recalculation {
   }
 
   private readonly preparedText = new Map<CellModel, string>();
-  /** The formula as the parser takes it: defined names and LET written out (kept only where that changes it). */
+  /** The formula as the engine takes it: defined names written out (kept only where that changes it). */
   private prepared(cell: CellModel): string {
     const formula = cell.formula!;
-    if (!this.wb.names?.length && !/LET\s*\(/i.test(formula)) return formula;
+    if (!this.wb.names?.length) return formula;
     let text = this.preparedText.get(cell);
     if (text === undefined) {
-      text = formula;
-      if (this.wb.names?.length) text = resolveNames(text, cell.sheet, this.wb.names);
-      if (/LET\s*\(/i.test(text)) text = expandLet(text);
+      text = resolveNames(formula, cell.sheet, this.wb.names);
       this.preparedText.set(cell, text);
     }
     return text;
@@ -473,22 +468,10 @@ export class Recalculation {
     this.failedReads.push(null);
     let result: Computed;
     const calls = () => this.calls[this.calls.length - 1] ?? NO_CALLS;
-    try {
-      const out = this.parserAt(this.visiting.length - 1).parse(this.prepared(cell), { sheet: cell.sheet, row: cell.row, col: cell.col });
-      if (out instanceof FormulaError) {
-        result = { value: out.error, error: out.error, message: describeFormulaError(out), calls: calls() };
-      } else if (Array.isArray(out)) {
-        result = { value: (out as unknown[][]).map((r) => (Array.isArray(r) ? r.map(toCellValue) : [toCellValue(r)])), calls: calls() };
-      } else {
-        result = { value: toCellValue(out), calls: calls() };
-      }
-    } catch (e) {
-      if (e instanceof FormulaError) {
-        result = { value: e.error, error: e.error, message: describeFormulaError(e), calls: calls() };
-      } else {
-        result = { value: "#ERROR!", error: "#ERROR!", message: `the formula could not be evaluated: ${e instanceof Error ? e.message.split("\n")[0] : String(e)}`, calls: calls() };
-      }
-    }
+    const out = evaluateFormula(this.prepared(cell), { sheet: cell.sheet, row: cell.row, col: cell.col }, this, formulaLibrary(), !!cell.arrayRef, this.visiting.length - 1);
+    if (out instanceof FormulaError) result = { value: out.error, error: out.error, message: out.message || out.error, calls: calls() };
+    else if (out instanceof XArray) result = { value: out.data.map((r) => r.map(toCellValue)), calls: calls() };
+    else result = { value: toCellValue(out), calls: calls() };
     const failed = this.failedReads[this.failedReads.length - 1] ?? [];
     this.visiting.pop();
     this.calls.pop();
@@ -507,17 +490,6 @@ export class Recalculation {
     }
     return result;
   }
-}
-
-function describeFormulaError(e: FormulaErrorValue): string {
-  const missing = notImplementedFunction(e);
-  if (missing) return `unsupported function ${missing}: Nappe's formula engine does not compute it`;
-  if (isParseError(e)) {
-    const first = (e.message ?? "").split("\n")[0].trim();
-    return `the formula could not be parsed${first ? `: ${first}` : " (check brackets, commas and quotes)"}`;
-  }
-  if (e.error === "#NAME?") return `unknown function or name${e.message ? `: ${e.message.split("\n")[0]}` : ""}`;
-  return e.message || e.error;
 }
 
 function relativeDifference(value: number, cached: number): number {
@@ -547,7 +519,9 @@ export function outcomeFor(cell: CellModel, computed: Computed, tolerance = 1e-6
   const unit = isSingleNappeCall(formula) && top?.evaluation ? top.evaluation.unit : "";
   const shown = Array.isArray(computed.value) ? computed.value[0]?.[0] ?? null : computed.value;
   let difference: number | null = null;
-  if (typeof shown === "number" && typeof cell.value === "number") {
+  if (VOLATILE.test(formula)) {
+    // NOW, TODAY, RAND...: a new value at every recalculation, so the cached one proves nothing.
+  } else if (typeof shown === "number" && typeof cell.value === "number") {
     difference = relativeDifference(shown, cell.value);
     if (difference > tolerance) {
       status = "error";

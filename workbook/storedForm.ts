@@ -15,7 +15,7 @@ import type { DefinedName } from "./model";
 import { columnLetters, columnNumber } from "./address";
 
 /** The stored prefix of a custom function of an add-in. */
-export const UDF_PREFIX = "_xldudf_";
+const UDF_PREFIX = "_xldudf_";
 
 /** Upper-case underscore form ("PUMP_HEAD") → catalogue id ("PUMP.HEAD"). */
 const ID_BY_STORED = new Map(CATALOG.map((s) => [s.id.replace(/\./g, "_"), s.id]));
