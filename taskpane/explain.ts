@@ -81,7 +81,7 @@ function labelsFrom(reads: CellSnapshot[][][], hasLeft: boolean): string[] {
 /** Reads the formula's direct precedents from the host into a small workbook model. */
 async function snapshot(port: HostPort, sheet: string, address: string, formula: string, names: DefinedName[]): Promise<{ wb: WorkbookModel; labels: Map<string, string[]>; formats: Map<string, string | undefined>; formulas: Map<string, string> }> {
   const target = parseAddress(address);
-  const wb: WorkbookModel = { sheets: [] };
+  const wb: WorkbookModel = { sheets: [], ...(port.dynamicArrays ? { dynamicArrays: true } : {}) };
   const sheetModel = (name: string) => {
     let s = wb.sheets.find((x) => x.name === name);
     if (!s) wb.sheets.push((s = { name, cells: new Map() }));

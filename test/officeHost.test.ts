@@ -103,6 +103,16 @@ describe("Office.js adapter (against a stand-in for Excel's API)", () => {
     // The labels were read in that one batch: the unit check still sees "Flow (gpm)" beside B1.
     expect((await explainCell(new OfficeHost(), "Calc", "B2")).calls[0].unitWarnings).toEqual([]);
   });
+  it("evaluates formulas as Excel 365 gives them: dynamic arrays, so a range times a test sums element by element", async () => {
+    const calc = fake.sheets[0];
+    [10, 15, 20, 25, 30].forEach((v, i) => calc.cells.set(addressOf(30 + i, 1), { value: v }));
+    [12.5, 21, 28.4, 17.6, 12].forEach((v, i) => calc.cells.set(addressOf(30 + i, 2), { value: v }));
+    calc.cells.set("C40", { formula: 'NAPPE.CONVERT(SUM(B30:B34*(A30:A34>15)), "ft", "m")', value: 0 });
+    const e = await explainCell(new OfficeHost(), "Calc", "C40");
+    // Microsoft, "Dynamic array formulas and spilled array behavior": 28.4 + 17.6 + 12 = 58 ft; NIST SP 811: × 0.3048.
+    expect(e.error).toBeUndefined();
+    expect(Number(e.exact)).toBeCloseTo(58 * 0.3048, 12);
+  });
   it("reads a large used range in chunks, each under the per-request cell budget", async () => {
     const big = new FakeSheet("Big");
     for (let r = 1; r <= 30000; r++) big.cells.set(addressOf(r, 1), { value: r }), big.cells.set(addressOf(r, 2), { value: r * 2 });

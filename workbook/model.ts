@@ -44,6 +44,12 @@ export interface WorkbookModel {
   sheets: SheetModel[];
   /** Defined names, when the file has any. */
   names?: DefinedName[];
+  /**
+   * Formulas as Excel 365 gives them through Office.js: every formula evaluates as a dynamic
+   * array formula (implicit intersection only where written, as @). A file says it per cell
+   * instead (an array formula's `arrayRef`).
+   */
+  dynamicArrays?: boolean;
   /** External workbooks by their index in stored formulas ([1]Sheet1!A1). */
   externalLinks?: Map<number, string>;
 }

@@ -468,7 +468,7 @@ export class Recalculation implements Host {
     this.failedReads.push(null);
     let result: Computed;
     const calls = () => this.calls[this.calls.length - 1] ?? NO_CALLS;
-    const out = evaluateFormula(this.prepared(cell), { sheet: cell.sheet, row: cell.row, col: cell.col }, this, formulaLibrary(), !!cell.arrayRef, this.visiting.length - 1);
+    const out = evaluateFormula(this.prepared(cell), { sheet: cell.sheet, row: cell.row, col: cell.col }, this, formulaLibrary(), !!cell.arrayRef || !!this.wb.dynamicArrays, this.visiting.length - 1);
     if (out instanceof FormulaError) result = { value: out.error, error: out.error, message: out.message || out.error, calls: calls() };
     else if (out instanceof XArray) result = { value: out.data.map((r) => r.map(toCellValue)), calls: calls() };
     else result = { value: toCellValue(out), calls: calls() };

@@ -73,6 +73,8 @@ function queueNames(context: Excel.RequestContext): { sheets: Excel.WorksheetCol
 const READ_CELLS = 40000;
 
 export class OfficeHost implements HostPort {
+  /** Office.js gives formulas as Excel 365 shows them: dynamic arrays, @ where intersection applies. */
+  readonly dynamicArrays = true;
   async selection(): Promise<CellAddress> {
     return Excel.run(async (context) => {
       const cell = context.workbook.getActiveCell();
@@ -191,7 +193,7 @@ export class OfficeHost implements HostPort {
         return { ws, range };
       });
       await context.sync();
-      const model: WorkbookModel = { name: context.workbook.name, sheets: [], names: readNames() };
+      const model: WorkbookModel = { name: context.workbook.name, sheets: [], names: readNames(), dynamicArrays: true };
       const pending: { sheet: string; cells: Map<string, CellModel>; row0: number; col0: number; range: Excel.Range }[] = [];
       let queued = 0;
       const flush = async () => {

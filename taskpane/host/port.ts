@@ -25,6 +25,8 @@ export interface FormulaCell extends CellAddress {
 }
 
 export interface HostPort {
+  /** Its formulas are Excel 365's: each evaluates as a dynamic array formula (see WorkbookModel.dynamicArrays). */
+  readonly dynamicArrays?: boolean;
   /** The selected cell (the top-left one of a selected range). */
   selection(): Promise<CellAddress>;
   /** Calls `handler` whenever the selection changes. */
