@@ -15,8 +15,7 @@
  * Needs Debian's libreoffice-calc-nogui (`soffice`); skipped with a notice without it, and
  * `.ci/run` sets NAPPE_REQUIRE_LIBREOFFICE=1 so that there it fails instead.
  */
-import { execFileSync } from "node:child_process";
-import { existsSync, readFileSync, writeFileSync } from "node:fs";
+import { writeFileSync } from "node:fs";
 import { join } from "node:path";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
@@ -26,13 +25,9 @@ import { addressOf } from "../workbook/model";
 import { type Case, DATA, LO_CASES } from "./fixtures/excelCases";
 import { c, row, xlsxPackage } from "./fixtures/package";
 import { tempDir } from "./helpers";
+import { convert, noticeIfMissing, readCsv, soffice } from "./fixtures/libreoffice";
 
-const soffice = ["/usr/bin/soffice", "/usr/lib/libreoffice/program/soffice"].find((p) => existsSync(p));
-if (!soffice) {
-  const notice = "\n*** LibreOffice (soffice) not found: the differential tests of the formula engine are SKIPPED. Install Debian's libreoffice-calc-nogui to run them. ***\n";
-  if (process.env.NAPPE_REQUIRE_LIBREOFFICE === "1") throw new Error(`${notice}NAPPE_REQUIRE_LIBREOFFICE=1: failing instead of skipping.`);
-  console.warn(notice);
-}
+noticeIfMissing("the differential tests of the formula engine");
 
 /** Random formulas from a grammar LibreOffice and Excel compute alike (numbers, comparisons, common functions over the pump table). */
 function randomFormulas(count: number, seed: number): string[] {
@@ -73,27 +68,6 @@ function loValue(text: string): { kind: "number"; n: number } | { kind: "text"; 
   const time = /^(\d{2}):(\d{2}):(\d{2}) (AM|PM)$/.exec(text);
   if (time) return { kind: "number", n: (((Number(time[1]) % 12) + (time[4] === "PM" ? 12 : 0)) * 3600 + Number(time[2]) * 60 + Number(time[3])) / 86400 };
   return { kind: "text", t: text };
-}
-
-function readCsv(path: string): string[][] {
-  const rows: string[][] = [];
-  let cell = "";
-  let line: string[] = [];
-  let quoted = false;
-  const text = readFileSync(path, "utf8");
-  for (let i = 0; i < text.length; i++) {
-    const ch = text[i];
-    if (quoted) {
-      if (ch === '"' && text[i + 1] === '"') (cell += '"'), i++;
-      else if (ch === '"') quoted = false;
-      else cell += ch;
-    } else if (ch === '"') quoted = true;
-    else if (ch === ",") line.push(cell), (cell = "");
-    else if (ch === "\n") line.push(cell), rows.push(line), (line = []), (cell = "");
-    else if (ch !== "\r") cell += ch;
-  }
-  if (cell || line.length) line.push(cell), rows.push(line);
-  return rows;
 }
 
 const SEED = Number(process.env.NAPPE_FUZZ_SEED ?? 20261203);
@@ -140,7 +114,7 @@ describe.skipIf(!soffice)("our formula engine against LibreOffice Calc", () => {
     const path = join(dir, "cases.xlsx");
     writeFileSync(path, await xlsxPackage([...sheets, { name: "Calc", rows: sheetRows(calc) }]));
     const ours = recalculate(await readWorkbook(path), { all: true });
-    execFileSync(soffice!, [`-env:UserInstallation=file://${join(dir, ".profile")}`, "--headless", "--norestore", "--convert-to", "csv:Text - txt - csv (StarCalc):44,34,UTF8,1,,0,false,true,false,false,false,-1", "--outdir", dir, path], { stdio: "pipe", timeout: 300_000 });
+    convert([path], "csv", dir);
     const theirs = readCsv(join(dir, "cases-Calc.csv"));
     const failures: string[] = [];
     for (const p of placed) {

@@ -9,8 +9,7 @@
  * Needs Debian's libreoffice-calc-nogui (`soffice`). Without it these tests are skipped with a
  * notice; `.ci/run` installs it and sets NAPPE_REQUIRE_LIBREOFFICE=1, so there they fail instead.
  */
-import { execFileSync } from "node:child_process";
-import { existsSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import ExcelJS from "exceljs";
 import JSZip from "jszip";
@@ -20,48 +19,11 @@ import { ABOUT_SHEET } from "../headless/handoff";
 import { recalculate } from "../workbook/recalc";
 import { readWorkbook } from "../headless/readXlsx";
 import { nappe, relativeError, tempDir } from "./helpers";
+import { convert, noticeIfMissing, readCsv, soffice } from "./fixtures/libreoffice";
 
 const root = join(__dirname, "..");
 
-function findSoffice(): string | undefined {
-  for (const p of ["/usr/bin/soffice", "/usr/lib/libreoffice/program/soffice", "/usr/local/bin/soffice"]) if (existsSync(p)) return p;
-  return undefined;
-}
-const soffice = findSoffice();
-if (!soffice) {
-  const notice = "\n*** LibreOffice (soffice) not found: the tests against a second spreadsheet engine are SKIPPED. Install Debian's libreoffice-calc-nogui to run them. ***\n";
-  if (process.env.NAPPE_REQUIRE_LIBREOFFICE === "1") throw new Error(`${notice}NAPPE_REQUIRE_LIBREOFFICE=1: failing instead of skipping.`);
-  console.warn(notice);
-}
-
-/** Converts files with LibreOffice headless (its own profile, so runs never share one). */
-function convert(files: string[], to: "pdf" | "csv", outDir: string): void {
-  // csv with the sheet number -1: every sheet to its own file, NAME-SHEET.csv (LibreOffice 7.2 and later).
-  const filter = to === "csv" ? "csv:Text - txt - csv (StarCalc):44,34,UTF8,1,,0,false,true,false,false,false,-1" : "pdf";
-  execFileSync(soffice!, [`-env:UserInstallation=file://${join(outDir, ".profile")}`, "--headless", "--norestore", "--convert-to", filter, "--outdir", outDir, ...files], { stdio: "pipe", timeout: 180_000 });
-}
-
-/** A CSV export as rows of cells (quotes as LibreOffice writes them). */
-function readCsv(path: string): string[][] {
-  const rows: string[][] = [];
-  let cell = "";
-  let row: string[] = [];
-  let quoted = false;
-  const text = readFileSync(path, "utf8");
-  for (let i = 0; i < text.length; i++) {
-    const ch = text[i];
-    if (quoted) {
-      if (ch === '"' && text[i + 1] === '"') (cell += '"'), i++;
-      else if (ch === '"') quoted = false;
-      else cell += ch;
-    } else if (ch === '"') quoted = true;
-    else if (ch === ",") row.push(cell), (cell = "");
-    else if (ch === "\n") row.push(cell), rows.push(row), (row = []), (cell = "");
-    else if (ch !== "\r") cell += ch;
-  }
-  if (cell || row.length) row.push(cell), rows.push(row);
-  return rows;
-}
+noticeIfMissing("the tests against a second spreadsheet engine");
 
 function csvCell(rows: string[][], address: string): string {
   const m = /^([A-Z]+)(\d+)$/.exec(address)!;

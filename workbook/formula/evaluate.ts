@@ -18,7 +18,7 @@
  * chunk of its own.
  */
 import type { Node, CellNode } from "./parser";
-import { compareScalars, err, FormulaError, generalNumber, Lambda, MAX_COLUMN, MAX_ROW, numbersEqual, Ref, type Scalar, toNumber, toText, type Value, XArray, type ErrorCode, finite } from "./values";
+import { compareScalars, err, FormulaError, generalNumber, Lambda, MAX_COLUMN, MAX_ROW, numbersEqual, Ref, type Scalar, toLogical, toNumber, toText, type Value, XArray, type ErrorCode, finite } from "./values";
 
 /** What the evaluator asks of the workbook. */
 export interface Host {
@@ -602,14 +602,14 @@ class Compiler {
     return (c) => {
       const t = test(c);
       if (!(t instanceof XArray)) {
-        const b = truth(t);
+        const b = toLogical(t);
         if (b instanceof FormulaError) return b;
         return b ? yes(c) : no(c);
       }
       const y = operand(yes(c), c);
       const n = operand(no(c), c);
       return broadcast([t, y, n], ([x, p, q]) => {
-        const b = truth(x);
+        const b = toLogical(x);
         return b instanceof FormulaError ? b : b ? p : q;
       });
     };
@@ -636,7 +636,7 @@ class Compiler {
       for (const [test, value] of pairs) {
         const t = test(c);
         if (t instanceof XArray) return err("#VALUE!", "IFS with an array test is not supported");
-        const b = truth(t);
+        const b = toLogical(t);
         if (b instanceof FormulaError) return b;
         if (b) return value(c);
       }
@@ -705,18 +705,6 @@ function blankAsZero(v: Value, c: Ctx): Value {
     return s === null ? 0 : v;
   }
   return v;
-}
-
-/** A value as TRUE or FALSE for IF's test: numbers non-zero, text "TRUE"/"FALSE"; other text #VALUE!. */
-function truth(v: Scalar): boolean | FormulaError {
-  if (typeof v === "boolean") return v;
-  if (typeof v === "number") return v !== 0;
-  if (v === null) return false;
-  if (v instanceof FormulaError) return v;
-  const u = v.toUpperCase();
-  if (u === "TRUE") return true;
-  if (u === "FALSE") return false;
-  return err("#VALUE!", `"${v}" is not TRUE or FALSE`);
 }
 
 function invoke(fn: Value, args: (Compiled | null)[], c: Ctx): Value {

@@ -8,6 +8,7 @@
  */
 import { type Token, lex } from "./lexer";
 import { MAX_COLUMN, MAX_ROW } from "./values";
+import { cellParts } from "./shapes";
 
 export interface CellNode {
   k: "cell";
@@ -61,22 +62,7 @@ function columnOf(letters: string): number {
 }
 
 function cellNode(text: string, start: number, end: number, sheet?: string): CellNode {
-  let i = start;
-  const colFixed = text[i] === "$";
-  if (colFixed) i++;
-  let col = 0;
-  let upper = true;
-  for (; i < end; i++) {
-    const c = text.charCodeAt(i);
-    if (c >= 97 && c <= 122) upper = false;
-    else if (c < 65 || c > 90) break;
-    col = col * 26 + ((c | 32) - 96);
-  }
-  const rowFixed = text[i] === "$";
-  if (rowFixed) i++;
-  let row = 0;
-  for (; i < end; i++) row = row * 10 + (text.charCodeAt(i) - 48);
-  return { k: "cell", sheet, row, col, rowFixed, colFixed, upper, start, end };
+  return { k: "cell", sheet, ...cellParts(text, start, end), start, end };
 }
 
 class Parser {

@@ -20,7 +20,7 @@ interface CellParts {
   upper: boolean;
 }
 
-function cellParts(text: string, start = 0, end = text.length): CellParts {
+export function cellParts(text: string, start = 0, end = text.length): CellParts {
   let i = start;
   const colFixed = text[i] === "$";
   if (colFixed) i++;

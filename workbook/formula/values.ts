@@ -116,6 +116,18 @@ export function toText(v: Scalar): string | FormulaError {
   return generalNumber(v);
 }
 
+/** A scalar as a logical (IF's test, AND's values): numbers non-zero, text "TRUE"/"FALSE" in any case; other text #VALUE!. */
+export function toLogical(v: Scalar): boolean | FormulaError {
+  if (typeof v === "boolean") return v;
+  if (typeof v === "number") return v !== 0;
+  if (v === null) return false;
+  if (v instanceof FormulaError) return v;
+  const u = v.trim().toUpperCase();
+  if (u === "TRUE") return true;
+  if (u === "FALSE") return false;
+  return err("#VALUE!", `"${v}" is not TRUE or FALSE`);
+}
+
 /**
  * A number as Excel's General format shows it in a cell of ordinary width: up to 15 significant
  * figures (Excel keeps 15), no trailing zeros, an exponent for very large or small magnitudes.

@@ -18,15 +18,31 @@ export function fitPolynomial(x: readonly number[], y: readonly number[], degree
   const hi = Math.max(...x);
   const centre = (lo + hi) / 2;
   const scale = (hi - lo) / 2 || 1;
+  const columns: number[][] = [];
+  for (let j = 0; j < cols; j++) columns.push(x.map((v) => ((v - centre) / scale) ** j));
+  try {
+    return { coefficients: leastSquares(columns, y).coefficients, centre, scale };
+  } catch {
+    throw new RangeError("fitPolynomial: the points do not determine the polynomial");
+  }
+}
+
+/**
+ * Least squares of y on the given columns (each n values) by Householder QR: the coefficients,
+ * and R, the upper-triangular factor (R[i][j] for i ≤ j), from which (AᵀA)⁻¹ = R⁻¹R⁻ᵀ follows.
+ * Throws a RangeError when a column is zero after the reflections (the columns are dependent).
+ */
+export function leastSquares(columns: readonly (readonly number[])[], y: readonly number[]): { coefficients: number[]; r: number[][] } {
+  const n = y.length;
+  const cols = columns.length;
   // A is n × cols, stored by columns; b is a copy of y.
-  const A: number[][] = [];
-  for (let j = 0; j < cols; j++) A.push(x.map((v) => ((v - centre) / scale) ** j));
+  const A = columns.map((c) => [...c]);
   const b = [...y];
   for (let k = 0; k < cols; k++) {
     let norm = 0;
     for (let i = k; i < n; i++) norm += A[k][i] * A[k][i];
     norm = Math.sqrt(norm);
-    if (norm === 0) throw new RangeError("fitPolynomial: the points do not determine the polynomial");
+    if (norm === 0) throw new RangeError("leastSquares: the columns are dependent");
     const alpha = A[k][k] > 0 ? -norm : norm;
     const v = new Array<number>(n).fill(0);
     for (let i = k; i < n; i++) v[i] = A[k][i];
@@ -51,7 +67,7 @@ export function fitPolynomial(x: readonly number[], y: readonly number[], degree
     for (let j = k + 1; j < cols; j++) s -= A[j][k] * c[j];
     c[k] = s / A[k][k];
   }
-  return { coefficients: c, centre, scale };
+  return { coefficients: c, r: Array.from({ length: cols }, (_, i) => Array.from({ length: cols }, (__, j) => (j >= i ? A[j][i] : 0))) };
 }
 
 export function evaluatePolynomial(fit: PolynomialFit, x: number): number {

@@ -6,7 +6,7 @@
  */
 import type { ArgKind, Ctx, FnDef } from "../evaluate";
 import { asArray } from "../evaluate";
-import { compareScalars, err, FormulaError, generalNumber, numberFromText, Ref, type Scalar, toNumber, type Value, XArray } from "../values";
+import { compareScalars, err, FormulaError, generalNumber, numberFromText, toLogical, Ref, type Scalar, toNumber, type Value, XArray } from "../values";
 
 export type Defs = Record<string, FnDef>;
 
@@ -132,16 +132,10 @@ export function text(v: Value): string {
 
 
 export function bool(v: Value): boolean {
-  if (v instanceof FormulaError) throw v;
-  if (typeof v === "boolean") return v;
-  if (v === null) return false;
-  if (typeof v === "number") return v !== 0;
-  if (typeof v === "string") {
-    const u = v.toUpperCase();
-    if (u === "TRUE") return true;
-    if (u === "FALSE") return false;
-  }
-  throw err("#VALUE!", `"${String(v)}" is not TRUE or FALSE`);
+  if (v instanceof XArray || v instanceof Ref || (v !== null && typeof v === "object" && !(v instanceof FormulaError))) throw err("#VALUE!", "TRUE or FALSE was expected");
+  const b = toLogical(v as Scalar);
+  if (b instanceof FormulaError) throw b;
+  return b;
 }
 
 export function array(v: Value, c: Ctx): XArray {

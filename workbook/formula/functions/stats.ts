@@ -6,6 +6,7 @@
  * them out.
  */
 import type { Ctx } from "../evaluate";
+import { leastSquares } from "../../../functions/calc/_lib/leastSquares";
 import { err, finite, FormulaError, numberFromText, type Scalar, type Value, XArray } from "../values";
 import { array, bool, def, type Defs, eachValue, flat, matching, num, numbersOf, numeric, optNum, pairs, rangeOrArray, sameShape, criterion } from "./_lib";
 
@@ -128,46 +129,22 @@ interface Fit {
   seB: number | undefined;
 }
 
-/** Householder QR least squares of y on the columns of X (n × k), with a constant column when `constant`. */
-function leastSquares(y: number[], X: number[][], constant: boolean): Fit {
+/** Least squares of y on the columns of X (n × k), with a constant column when `constant` (Householder QR, functions/calc/_lib/leastSquares.ts). */
+function fitLinear(y: number[], X: number[][], constant: boolean): Fit {
   const n = y.length;
   const k = X[0]?.length ?? 0;
   const p = k + (constant ? 1 : 0);
-  if (n < p || (constant ? n - p : n - k) < 0) throw err("#NUM!", "LINEST: too few points for the terms asked for");
-  const A = X.map((row) => (constant ? [...row, 1] : [...row]));
-  const r = y.slice();
-  const R: number[][] = A.map((row) => row.slice());
-  // Householder reflections.
-  for (let j = 0; j < p; j++) {
-    let norm = 0;
-    for (let i = j; i < n; i++) norm += R[i][j] ** 2;
-    norm = Math.sqrt(norm);
-    if (norm === 0) throw err("#NUM!", "LINEST: the x values are collinear (a column is a combination of others)");
-    const alpha = R[j][j] > 0 ? -norm : norm;
-    const v = new Array(n).fill(0);
-    v[j] = R[j][j] - alpha;
-    for (let i = j + 1; i < n; i++) v[i] = R[i][j];
-    const vv = v.reduce((s, x) => s + x * x, 0);
-    if (vv === 0) continue;
-    for (let col = j; col < p; col++) {
-      let dot = 0;
-      for (let i = j; i < n; i++) dot += v[i] * R[i][col];
-      const f = (2 * dot) / vv;
-      for (let i = j; i < n; i++) R[i][col] -= f * v[i];
-    }
-    let dot = 0;
-    for (let i = j; i < n; i++) dot += v[i] * r[i];
-    const f = (2 * dot) / vv;
-    for (let i = j; i < n; i++) r[i] -= f * v[i];
+  if (n < p) throw err("#NUM!", "LINEST: too few points for the terms asked for");
+  const columns = Array.from({ length: p }, (_, j) => (j < k ? X.map((row) => row[j]) : y.map(() => 1)));
+  let solved: { coefficients: number[]; r: number[][] };
+  try {
+    solved = leastSquares(columns, y);
+  } catch {
+    throw err("#NUM!", "LINEST: the x values are collinear (a column is a combination of others)");
   }
+  const { coefficients: beta, r: R } = solved;
   for (let j = 0; j < p; j++) if (Math.abs(R[j][j]) < 1e-13 * Math.abs(R[0][0])) throw err("#NUM!", "LINEST: the x values are collinear (a column is a combination of others)");
-  const beta = new Array(p).fill(0);
-  for (let j = p - 1; j >= 0; j--) {
-    let s = r[j];
-    for (let q = j + 1; q < p; q++) s -= R[j][q] * beta[q];
-    beta[j] = s / R[j][j];
-  }
-  const fitted = A.map((row) => row.reduce((s, x, j) => s + x * beta[j], 0));
+  const fitted = y.map((_, i) => columns.reduce((s, col, j) => s + col[i] * beta[j], 0));
   const ssresid = y.reduce((s, v, i) => s + (v - fitted[i]) ** 2, 0);
   const ym = mean(y);
   const ssreg = constant ? fitted.reduce((s, v) => s + (v - ym) ** 2, 0) : fitted.reduce((s, v) => s + v * v, 0);
@@ -223,7 +200,7 @@ function linest(c: Ctx, args: Value[], name: string, log: boolean): Value {
   const { y, X } = knowns(c, args[0], args[1] ?? undefined, name, log);
   const constant = args.length > 2 && args[2] !== null ? bool(args[2]) : true;
   const stats = args.length > 3 && args[3] !== null ? bool(args[3]) : false;
-  const fit = leastSquares(y, X, constant);
+  const fit = fitLinear(y, X, constant);
   const ex = (v: number) => (log ? Math.exp(v) : v);
   const top = [...fit.coef.map(ex).reverse(), ex(fit.b)];
   if (!stats) return XArray.of([top]);
@@ -239,7 +216,7 @@ function linest(c: Ctx, args: Value[], name: string, log: boolean): Value {
 function trend(c: Ctx, args: Value[], name: string, log: boolean): Value {
   const { X, y } = knowns(c, args[0], args[1] ?? undefined, name, log);
   const constant = args.length > 3 && args[3] !== null ? bool(args[3]) : true;
-  const fit = leastSquares(y, X, constant);
+  const fit = fitLinear(y, X, constant);
   const k = X[0].length;
   let target: XArray;
   if (args.length > 2 && args[2] !== null) target = array(args[2], c);
