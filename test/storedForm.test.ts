@@ -12,7 +12,7 @@ import ExcelJS from "exceljs";
 import JSZip from "jszip";
 import { describe, expect, it } from "vitest";
 import { buildDemoWorkbook, DEMO_FILE } from "../demo/build";
-import { ADDIN, CONTENT_TYPE, REL } from "../workbook/excelForm";
+import { ADDIN, CONTENT_TYPE, recordedFunctionIds, REL } from "../workbook/excelForm";
 import { callSites } from "../workbook/formula";
 import { recalculate } from "../workbook/recalc";
 import { displayFormula, expandLet, storedFormula } from "../workbook/storedForm";
@@ -168,6 +168,22 @@ describe("the demo workbook in the stored form", () => {
     expect(metadata).toMatch(/<xda:dynamicArrayProperties fDynamic="1" fCollapsed="0"\/>/);
     expect(metadata).toMatch(/<cellMetadata count="1"><bk><rc t="1" v="0"\/><\/bk><\/cellMetadata>/);
   });
+  it("reads the function ids of a web-extension part in Excel's form and in the form earlier versions wrote", () => {
+    // The part of a workbook saved by desktop Excel with an add-in's custom functions, verbatim but for the names.
+    const excel = `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>
+<we:webextension xmlns:we="http://schemas.microsoft.com/office/webextensions/webextension/2010/11" id="{88C9DF49-DEB8-0D4E-B730-E4053453480D}"><we:reference id="00000000-0000-0000-0000-000000000001" version="1.0.0.0" store="developer" storeType="Registry"/><we:alternateReferences/><we:properties/><we:bindings/><we:snapshot xmlns:r="http://schemas.openxmlformats.org/officeDocument/2006/relationships"/><we:extLst><a:ext xmlns:a="http://schemas.openxmlformats.org/drawingml/2006/main" uri="{7C84B067-C214-45C3-A712-C9D94CD141B2}"><we:customFunctionIdList><we:customFunctionIds>_xldudf_EXAMPLE_ADD</we:customFunctionIds><we:customFunctionIds>_xldudf_EXAMPLE_GET</we:customFunctionIds></we:customFunctionIdList></a:ext></we:extLst></we:webextension>`;
+    expect(recordedFunctionIds(excel)).toEqual(["_xldudf_EXAMPLE_ADD", "_xldudf_EXAMPLE_GET"]);
+    expect(recordedFunctionIds("<we:customFunctionIdList><we:customFunctionId>_xldudf_NAPPE_HEAD</we:customFunctionId></we:customFunctionIdList>")).toEqual(["_xldudf_NAPPE_HEAD"]);
+  });
+  it("writes the part as Excel writes it: the same elements in the schema's order, the same extension URI", async () => {
+    const zip = await JSZip.loadAsync(readFileSync(join(root, "demo", DEMO_FILE)));
+    const ours = await zip.file("xl/webextensions/webextension1.xml")!.async("string");
+    // Element by element as the Excel-saved part above, with our add-in's Id and functions in place of its.
+    const shape = (xml: string) => [...xml.replace(/(<we:customFunctionIds>[^<]*<\/we:customFunctionIds>)+/, "<we:customFunctionIds>x</we:customFunctionIds>").matchAll(/<\/?[\w:]+/g)].map((m) => m[0]).join(" ");
+    const excel = `<we:webextension id="x"><we:reference id="x" version="1.0.0.0" store="developer" storeType="Registry"/><we:alternateReferences/><we:properties/><we:bindings/><we:snapshot/><we:extLst><a:ext><we:customFunctionIdList><we:customFunctionIds>a</we:customFunctionIds><we:customFunctionIds>b</we:customFunctionIds></we:customFunctionIdList></a:ext></we:extLst></we:webextension>`;
+    expect(shape(ours)).toBe(shape(excel));
+    expect(ours).toMatch(/<we:reference id="[0-9a-f-]{36}" version="[\d.]+" store="developer" storeType="Registry"\/>/);
+  });
   it("records the add-in: the web-extension part names the manifest's Id and lists the functions used", async () => {
     const zip = await JSZip.loadAsync(readFileSync(join(root, "demo", DEMO_FILE)));
     const text = (p: string) => zip.file(p)!.async("string");
@@ -178,7 +194,10 @@ describe("the demo workbook in the stored form", () => {
     const children = [...we.matchAll(/<we:(\w+)/g)].map((m) => m[1]).filter((n) => ["reference", "alternateReferences", "properties", "bindings", "snapshot", "extLst"].includes(n));
     expect(children).toEqual(["reference", "alternateReferences", "properties", "bindings", "snapshot", "extLst"]);
     expect(we).toMatch(new RegExp(`<we:reference id="${manifestId}" version="[\\d.]+" store="developer" storeType="Registry"/>`));
-    const ids = [...we.matchAll(/<we:customFunctionId>([^<]+)<\/we:customFunctionId>/g)].map((m) => m[1]);
+    // Excel's own element names and extension URI, as in a workbook desktop Excel saved with custom functions.
+    expect(we).toContain('<we:extLst><a:ext xmlns:a="http://schemas.openxmlformats.org/drawingml/2006/main" uri="{7C84B067-C214-45C3-A712-C9D94CD141B2}"><we:customFunctionIdList><we:customFunctionIds>');
+    expect(we).not.toMatch(/<we:customFunctionId>/);
+    const ids = recordedFunctionIds(we);
     expect(ids).toContain("_xldudf_NAPPE_HEADLOSS");
     expect(ids).toContain("_xldudf_NAPPE_PUMP_SELECT");
     expect(ids.length).toBe(new Set(ids).size);

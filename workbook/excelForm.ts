@@ -32,9 +32,13 @@ export const CONTENT_TYPE = {
   webextension: "application/vnd.ms-office.webextension+xml",
   taskpanes: "application/vnd.ms-office.webextensiontaskpanes+xml",
 };
-/** Extension URIs: the dynamic-array properties of ECMA-376's metadata, and Nappe's own list of function ids. */
+/**
+ * Extension URIs: the dynamic-array properties of ECMA-376's metadata, and the list of an add-in's
+ * custom function ids as desktop Excel writes it in a web-extension part ([MS-OWEXML]; seen in a
+ * workbook Excel saved with an add-in's custom functions).
+ */
 const EXT_DYNAMIC_ARRAY = "{bdbb8cdc-fa1e-496e-a857-3c3f30c029c3}";
-const EXT_FUNCTION_IDS = "{6c1d6f2e-5b0a-4c55-9d3e-4e6170706531}";
+const EXT_FUNCTION_IDS = "{7C84B067-C214-45C3-A712-C9D94CD141B2}";
 
 function escapeXml(text: string): string {
   return text.replace(/[&<>"]/g, (c) => ({ "&": "&amp;", "<": "&lt;", ">": "&gt;", '"': "&quot;" })[c]!);
@@ -43,8 +47,16 @@ function escapeXml(text: string): string {
 const METADATA = `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>
 <metadata xmlns="${NS_MAIN}" xmlns:xda="http://schemas.microsoft.com/office/spreadsheetml/2017/dynamicarray"><metadataTypes count="1"><metadataType name="XLDAPR" minSupportedVersion="120000" copy="1" pasteAll="1" pasteValues="1" merge="1" splitFirst="1" rowColShift="1" clearFormats="1" clearComments="1" assign="1" coerce="1" cellMeta="1"/></metadataTypes><futureMetadata name="XLDAPR" count="1"><bk><extLst><ext uri="${EXT_DYNAMIC_ARRAY}"><xda:dynamicArrayProperties fDynamic="1" fCollapsed="0"/></ext></extLst></bk></futureMetadata><cellMetadata count="1"><bk><rc t="1" v="0"/></bk></cellMetadata></metadata>`;
 
+/**
+ * The custom function ids a web-extension part records: Excel's `customFunctionIds` elements, one
+ * per function, and the `customFunctionId` elements earlier versions of Nappe wrote.
+ */
+export function recordedFunctionIds(xml: string): string[] {
+  return [...xml.matchAll(/<(?:\w+:)?customFunctionIds?>([^<]*)<\/(?:\w+:)?customFunctionIds?>/g)].map((m) => unescapeXml(m[1]));
+}
+
 function webExtension(ids: readonly string[]): string {
-  const list = ids.map((id) => `<we:customFunctionId>${escapeXml(id)}</we:customFunctionId>`).join("");
+  const list = ids.map((id) => `<we:customFunctionIds>${escapeXml(id)}</we:customFunctionIds>`).join("");
   return `<?xml version="1.0" encoding="UTF-8" standalone="yes"?>
 <we:webextension xmlns:we="http://schemas.microsoft.com/office/webextensions/webextension/2010/11" id="{${ADDIN.id.toUpperCase()}}"><we:reference id="${ADDIN.id}" version="${ADDIN.version}" store="developer" storeType="Registry"/><we:alternateReferences/><we:properties/><we:bindings/><we:snapshot xmlns:r="${NS_REL}"/><we:extLst><a:ext xmlns:a="http://schemas.openxmlformats.org/drawingml/2006/main" uri="${EXT_FUNCTION_IDS}"><we:customFunctionIdList>${list}</we:customFunctionIdList></a:ext></we:extLst></we:webextension>`;
 }
@@ -90,6 +102,9 @@ export async function excelStoredForm(bytes: Buffer | ArrayBuffer): Promise<{ by
     const xml = await zip.file(path)!.async("string");
     zip.file(path, rewriteSheet(xml, ids));
   }
+  // Functions a web-extension part already records (written by Excel, or in an earlier form) are kept.
+  const existing = zip.file("xl/webextensions/webextension1.xml");
+  if (ids.size && existing) for (const id of recordedFunctionIds(await existing.async("string"))) ids.add(id);
   const functionIds = [...ids].sort();
   if (functionIds.length) {
     zip.file("xl/metadata.xml", METADATA);
