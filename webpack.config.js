@@ -4,19 +4,58 @@ import CopyWebpackPlugin from "copy-webpack-plugin";
 import CustomFunctionsMetadataPlugin from "custom-functions-metadata-plugin";
 import HtmlWebpackPlugin from "html-webpack-plugin";
 import webpack from "webpack";
-import { existsSync, readFileSync } from "node:fs";
+import { existsSync, readdirSync, readFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 
 const root = path.dirname(fileURLToPath(import.meta.url));
 const DEV_URL = "https://localhost:3000/";
+/** Where the add-in is built: dist/, or NAPPE_DIST_DIR (the publishing test builds into a folder of its own). */
+const distDir = process.env.NAPPE_DIST_DIR ? path.resolve(process.env.NAPPE_DIST_DIR) : path.join(root, "dist");
+
+/**
+ * Writes THIRD-PARTY-NOTICES.txt beside a build's scripts: every package whose code the bundles
+ * ship, with its version, licence and licence text (read from the package itself).
+ */
+class ThirdPartyNotices {
+  apply(compiler) {
+    compiler.hooks.thisCompilation.tap("ThirdPartyNotices", (compilation) => {
+      compilation.hooks.processAssets.tap({ name: "ThirdPartyNotices", stage: webpack.Compilation.PROCESS_ASSETS_STAGE_REPORT }, () => {
+        const packages = new Map();
+        for (const module of compilation.modules) {
+          const resources = [module.resource, ...(module.modules ?? []).map((m) => m.resource)].filter(Boolean);
+          for (const resource of resources) {
+            const m = /[\\/]node_modules[\\/]((?:@[^\\/]+[\\/])?[^\\/]+)/.exec(resource);
+            if (!m) continue;
+            const dir = resource.slice(0, m.index + m[0].length);
+            if (packages.has(dir)) continue;
+            const pkg = JSON.parse(readFileSync(path.join(dir, "package.json"), "utf8"));
+            const licenceFile = readdirSync(dir).find((f) => /^(licen[cs]e|copying)(\.|$)/i.test(f));
+            packages.set(dir, { name: pkg.name, version: pkg.version, license: typeof pkg.license === "string" ? pkg.license : pkg.license?.type ?? "see the package", text: licenceFile ? readFileSync(path.join(dir, licenceFile), "utf8").trim() : "" });
+          }
+        }
+        const list = [...packages.values()].sort((a, b) => a.name.localeCompare(b.name));
+        const body = [
+          "Nappe ships code of the following packages in its built scripts, under their own licences.",
+          "",
+          ...list.flatMap((p) => [`${"=".repeat(78)}`, `${p.name} ${p.version} (${p.license})`, "", p.text || `Licence: ${p.license} (no licence file in the package).`, ""]),
+        ].join("\n");
+        compilation.emitAsset("THIRD-PARTY-NOTICES.txt", new webpack.sources.RawSource(body));
+      });
+    });
+  }
+}
 
 /** Rewrites the manifest's development URLs when NAPPE_BASE_URL names another host. */
 function manifestFor(content) {
   const base = process.env.NAPPE_BASE_URL;
   if (!base) return content;
-  return content.toString().replaceAll(DEV_URL, base.endsWith("/") ? base : `${base}/`);
+  const url = base.endsWith("/") ? base : `${base}/`;
+  return content
+    .toString()
+    .replace(/<!--[\s\S]*?-->/, `<!-- Nappe add-in-only manifest, built for ${url} (give this file to users: README, "Publishing"). -->`)
+    .replaceAll(DEV_URL, url);
 }
 
 /**
@@ -43,7 +82,11 @@ async function httpsOptions() {
 
 export default async (env, argv) => {
   const dev = argv.mode === "development";
+  // Office loads an add-in's pages and scripts over HTTPS only.
+  const base = process.env.NAPPE_BASE_URL;
+  if (base && !/^https:\/\/[^/\s]+/.test(base)) throw new Error(`NAPPE_BASE_URL must be an https:// address (Office loads add-ins over HTTPS only), not "${base}"`);
   const config = {
+    name: "addin",
     devtool: dev ? "source-map" : false,
     // The worksheet bundle is its own layer, so that its copy of the catalogue can leave out the
     // documentation Excel's runtime never shows (scripts/specDocsLoader.cjs).
@@ -54,7 +97,7 @@ export default async (env, argv) => {
       preview: "./taskpane/preview.ts",
     },
     // Chart.js is its own chunk (chart.chunk.js), loaded the first time a cell has a chart.
-    output: { path: path.join(root, "dist"), filename: "[name].js", chunkFilename: "[name].chunk.js", clean: true },
+    output: { path: distDir, filename: "[name].js", chunkFilename: "[name].chunk.js", clean: true },
     resolve: {
       extensions: [".ts", ".js"],
       // The pane's workbook model is pure; Node-only modules of the headless command stay out.
@@ -72,6 +115,7 @@ export default async (env, argv) => {
       // the first time it analyses a formula: its first script stays small (taskpane/formulaLibraryLazy.ts).
       new webpack.NormalModuleReplacementPlugin(/(^|[\\/])formulaLibrary$/, path.join(root, "taskpane/formulaLibraryLazy.ts")),
       new CustomFunctionsMetadataPlugin({ output: "functions.json", input: "./functions/functions.ts" }),
+      new ThirdPartyNotices(),
       new HtmlWebpackPlugin({ filename: "functions.html", template: "./functions/functions.html", chunks: ["functions"] }),
       new HtmlWebpackPlugin({ filename: "taskpane.html", template: "./taskpane/taskpane.html", chunks: ["taskpane"] }),
       new HtmlWebpackPlugin({ filename: "preview.html", template: "./taskpane/preview.html", chunks: ["preview"] }),
@@ -91,7 +135,7 @@ export default async (env, argv) => {
     devMiddleware: { writeToDisk: true },
     headers: { "Access-Control-Allow-Origin": "*" },
     server: { type: "https", options: await httpsOptions() },
-    static: { directory: path.join(root, "dist") },
+    static: { directory: distDir },
   };
   return config;
 };
@@ -122,6 +166,7 @@ function commandConfig() {
     // evaluated only when a command needs them, so `nappe recalc` starts without them.
     plugins: [
       new webpack.optimize.LimitChunkCountPlugin({ maxChunks: 1 }),
+      new ThirdPartyNotices(),
     ],
     performance: { hints: false },
   };
