@@ -103,8 +103,10 @@ async function start(): Promise<void> {
   const tabs = document.getElementById("sheet-tabs")!;
   const bar = document.getElementById("formula-bar")!;
   document.getElementById("book-name")!.textContent = json.name;
-  // ?pane=350 sets the pane's width, as Excel gives it (about 280 to 420 px), for looking and for the browser tests.
-  const width = Number(new URLSearchParams(location.search).get("pane"));
+  // ?pane=350 sets the pane's width, as Excel gives it (about 280 to 420 px), for looking and for the browser tests;
+  // ?cell=Calc!B9 selects a cell once the page is drawn.
+  const query = new URLSearchParams(location.search);
+  const width = Number(query.get("pane"));
   if (Number.isInteger(width) && width >= 200 && width <= 1000) document.getElementById("app")!.style.width = `${width}px`;
   host.onSelectionChanged(() => {
     void host.selection().then((sel) => {
@@ -117,6 +119,8 @@ async function start(): Promise<void> {
   host.onChanged(() => drawGrid(host, gridRoot, tabs, bar, state));
   drawGrid(host, gridRoot, tabs, bar, state);
   mountPane(document.getElementById("app")!, host, [workbookTab]);
+  const start = /^(.+)!\$?([A-Za-z]{1,3})\$?(\d+)$/.exec(query.get("cell") ?? "");
+  if (start && host.workbook.sheets.some((s) => s.name === start[1])) void host.select(start[1], `${start[2].toUpperCase()}${start[3]}`);
 }
 
 void start();
