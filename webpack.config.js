@@ -149,7 +149,7 @@ function commandConfig() {
   const bundled = /^(mathjs|typed-function|decimal\.js|complex\.js|fraction\.js|javascript-natural-sort|seedrandom|tiny-emitter|escape-latex|@babel\/runtime)(\/|$)/;
   return {
     name: "command",
-    target: "node20",
+    target: "node22",
     devtool: false,
     entry: { nappe: "./headless/cli.ts" },
     output: { path: path.join(root, "dist-cli"), filename: "[name].cjs", clean: true, library: { type: "commonjs2" } },
