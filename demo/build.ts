@@ -10,6 +10,7 @@ import { excelStoredForm } from "../workbook/excelForm";
 import { recalculate } from "../workbook/recalc";
 import { addressOf, parseAddress } from "../workbook/address";
 import { fromExcelJS } from "../workbook/fromExcelJS";
+import { numberFormatFor } from "../workbook/format";
 
 export const DEMO_FILE = "orchard-pumping-station.xlsx";
 const INVENTED = "INVENTED DEMO DATA: not a real site, pump or product.";
@@ -94,7 +95,25 @@ const CALC: (Row | [string])[] = [
   /* 40 */ ["Surge on a sudden pump stop", { f: 'NAPPE.SURGE.PRESSURE(B39, NAPPE.VELOCITY(B11&" m^3/h", B17), B5, "bar")' }, "bar"],
 ];
 
-const SUMMARY: Row[] = [
+/** The shortlist's recommended row on the Envelope sheet (its verdict starts "recommended"), column by column. */
+const pick = (col: string) => `INDEX(Envelope!${col}31:${col}33,MATCH("recommended*",Envelope!K31:K33,0))`;
+
+/**
+ * The answer first: the selection over the whole operating envelope (the Envelope sheet), then
+ * the design duty as a single point (the Calc sheet). A section heading is a label alone.
+ */
+const SUMMARY: (Row | [string])[] = [
+  ["Selection over the operating envelope (Envelope sheet)"],
+  ["Recommended impeller", { f: pick("A") }, "mm"],
+  ["Motor that never overloads (IEC)", { f: pick("H") }, "kW"],
+  ["End-of-curve shaft power", { f: pick("G") }, "kW"],
+  ["Why", { f: pick("K") }, ""],
+  ["Best efficiency point: flow", { f: "Envelope!A16" }, "m³/h"],
+  ["Best efficiency point: efficiency", { f: "Envelope!C16/100" }, "fraction"],
+  ["Design case: % of BEP flow", { f: pick("D") }, "%"],
+  ["Worst NPSH margin ratio over the envelope", { f: pick("I") }, ""],
+  ["Energy per year over the envelope", { f: `${pick("J")}/1000` }, "MWh"],
+  ["Design duty, single point (Calc sheet)"],
   ["Duty flow", { f: "Calc!B11" }, "m³/h"],
   ["Head the pump must add", { f: "Calc!B25" }, "m"],
   ["Chosen impeller (full size)", { f: "Calc!B27" }, "mm"],
@@ -103,7 +122,7 @@ const SUMMARY: Row[] = [
   ["Operating point, full impeller: head", { f: "Calc!C28" }, "m"],
   ["Pump efficiency at duty", { f: "Calc!D27" }, "fraction"],
   ["Shaft power at duty", { f: "Calc!B31" }, "kW"],
-  ["Motor (IEC, 15 % margin)", { f: "Calc!B32" }, "kW"],
+  ["Motor for the duty point alone (IEC, 15 % margin)", { f: "Calc!B32" }, "kW"],
   ["NPSH available", { f: "Calc!B36" }, "m"],
   ["NPSH required", { f: "Calc!B37" }, "m"],
   ["NPSH margin ratio", { f: "Calc!B38" }, ""],
@@ -146,6 +165,12 @@ function layout(): ExcelJS.Workbook {
   const summary = book.addWorksheet("Summary");
   title(summary, "Hillside orchard pumping station: sizing summary");
   writeRows(summary, SUMMARY, 3);
+  // Section headings, and the recommendation's reason wrapped across B:D.
+  const why = 3 + SUMMARY.findIndex((r) => r[0] === "Why");
+  summary.mergeCells(why, 2, why, 4);
+  summary.getCell(why, 2).alignment = { wrapText: true, vertical: "top" };
+  summary.getCell(why, 1).alignment = { vertical: "top" };
+  summary.getRow(why).height = 45;
 
   const inputs = book.addWorksheet("Inputs");
   title(inputs, "Inputs");
@@ -189,7 +214,8 @@ function layout(): ExcelJS.Workbook {
   pump.getColumn(7).width = 3;
   inputs.getColumn(4).width = 48;
   for (let r = 4; r < 4 + INPUTS.length; r++) inputs.getCell(r, 4).alignment = { wrapText: true, vertical: "top" };
-  printSetup(summary, "A1:C16", "portrait");
+  summary.getColumn(4).width = 30;
+  printSetup(summary, `A1:D${2 + SUMMARY.length}`, "portrait");
   printSetup(inputs, `A1:D${3 + INPUTS.length}`, "portrait", "3:3");
   printSetup(calc, `A1:K${2 + CALC.length}`, "landscape");
   printSetup(pump, "A1:K21", "landscape", "3:3");
@@ -269,15 +295,24 @@ export async function buildDemoWorkbook(): Promise<ExcelJS.Workbook> {
     const ws = book.getWorksheet(cell.sheet)!;
     const target = ws.getCell(cell.address);
     const v = target.value as ExcelJS.CellFormulaValue & { shareType?: string; ref?: string };
+    // Every computed number shows the figures rule (4 significant figures) in any spreadsheet program.
+    const figures = (c: ExcelJS.Cell, x: unknown) => {
+      if (typeof x === "number") c.numFmt = numberFormatFor(x);
+    };
     if (Array.isArray(cell.value)) {
       const rows = cell.value;
       const { row, col } = parseAddress(cell.address);
       target.value = { ...v, result: (rows[0]?.[0] ?? undefined) as never };
+      figures(target, rows[0]?.[0]);
       rows.forEach((r, i) => r.forEach((x, j) => {
-        if (i || j) ws.getCell(addressOf(row + i, col + j)).value = x as ExcelJS.CellValue;
+        if (!i && !j) return;
+        const c = ws.getCell(addressOf(row + i, col + j));
+        c.value = x as ExcelJS.CellValue;
+        figures(c, x);
       }));
     } else {
       target.value = { ...v, result: (cell.value ?? undefined) as never };
+      figures(target, cell.value);
     }
   }
   return book;

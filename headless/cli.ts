@@ -14,8 +14,12 @@
  */
 import { basename, extname, join, resolve } from "node:path";
 import { parseArgs as parseCommandLine } from "node:util";
-import { buildAudit, GENERAL_CAUTIONS } from "../workbook/audit";
-import { formatPercent, formatUnit, formatValue, setSignificantFigures } from "../workbook/format";
+import { type AuditReport, buildAudit, GENERAL_CAUTIONS } from "../workbook/audit";
+import { readAsLabelled } from "../workbook/slips";
+import { parseAddress } from "../workbook/model";
+import { inSiBaseUnits } from "../functions/units/quantity";
+import { demoSummaryLines, type Slip, wrap } from "./demoSummary";
+import { setSignificantFigures } from "../workbook/format";
 import { writeAtomically } from "./atomic";
 import { Budget, DEFAULT_LIMITS, type Limits } from "./package";
 import { recalculate, type RecalcResult } from "../workbook/recalc";
@@ -225,35 +229,52 @@ async function main(argv: string[]): Promise<number> {
   }
 }
 
+/**
+ * Inputs the unit check flags as a bare number read in another unit than its label declares, each
+ * with the workbook recalculated as the label says (a linear unit only).
+ */
+function slipsOf(wb: WorkbookModel, report: AuditReport): Slip[] {
+  const seen = new Map<string, { sheet: string; address: string; text: string; unit: string }>();
+  for (const e of report.entries)
+    for (const call of e.calls)
+      for (const f of call.unitFindings) if (f.unit && f.label) seen.set(`${f.label.sheet}!${f.label.address}`, { ...f.label, unit: f.unit });
+  const slips: Slip[] = [];
+  for (const [cell, s] of seen) {
+    let base: { value: number; unit: string };
+    try {
+      if (inSiBaseUnits(0, s.unit).value !== 0) continue; // a scale with an offset (°F) is not a factor
+      base = inSiBaseUnits(1, s.unit);
+    } catch {
+      continue;
+    }
+    const value = wb.sheets.find((x) => x.name === s.sheet)?.cells.get(`${parseAddress(s.address).row}:${parseAddress(s.address).col}`)?.value ?? null;
+    slips.push({ cell, label: s.text, value, labelled: s.unit, readAs: base.unit, fixed: recalculate(readAsLabelled(wb, s, base.value), { all: true }) });
+  }
+  return slips;
+}
+
 /** The main job: build the demo workbook, recalculate it, print the sizing summary, write the audit. */
 async function demo(out: string): Promise<number> {
   const { demoWorkbookBytes, DEMO_FILE } = await import("../demo/build");
   const path = join(out, DEMO_FILE);
   await writeAtomically(path, await demoWorkbookBytes());
   const { wb, result } = await load(path, {});
-  const summary = wb.sheets.find((s) => s.name === "Summary");
-  console.log("Nappe demo: hillside orchard pumping station (invented scenario)\n");
-  if (summary) {
-    const rows = [...summary.cells.values()].filter((c) => c.col === 1 && c.row > 2).sort((a, b) => a.row - b.row);
-    for (const label of rows) {
-      const value = result.valueOf("Summary", `B${label.row}`);
-      const unit = summary.cells.get(`${label.row}:3`)?.value ?? "";
-      // An efficiency held as a fraction reads as percent (DESIGN.md's formatting rule).
-      const shown = unit === "fraction" && typeof value === "number" ? [formatPercent(value).replace(/ %$/, ""), "%"] : [formatValue(value), formatUnit(String(unit))];
-      console.log(`  ${String(label.value).padEnd(34)} ${shown[0].padStart(12)} ${shown[1]}`.trimEnd());
-    }
-  }
-  const flagged = result.cells.filter((c) => c.status !== "ok");
   const report = await writeAudit(wb, result, DEMO_FILE, join(out, "orchard-audit.html"), join(out, "orchard-audit.xlsx"), join(out, "orchard-audit.txt"), "Nappe audit: hillside orchard pumping station (invented demo)");
+  console.log("Nappe demo: hillside orchard pumping station (invented scenario)");
+  for (const line of demoSummaryLines(wb, result, slipsOf(wb, report))) console.log(line);
+  const flagged = result.cells.filter((c) => c.status !== "ok");
   const unitFindings = report.entries.flatMap((e) => e.messages.filter((m) => m.includes("unit check")).map((m) => `${e.sheet}!${e.address}: ${m}`));
   console.log(`\nWarnings and checks (${flagged.length + unitFindings.length}):`);
-  for (const c of flagged) for (const m of c.messages) console.log(`  ${c.sheet}!${c.address}: ${m}`);
-  for (const m of unitFindings) console.log(`  ${m}`);
+  for (const c of flagged) for (const m of c.messages) for (const line of wrap(m, `  ${c.sheet}!${c.address}: `, "      ")) console.log(line);
+  for (const m of unitFindings) for (const line of wrap(m, "  ", "      ")) console.log(line);
   const { writeHandoff } = await import("./handoff");
   await writeHandoff(path, join(out, "orchard-handoff.xlsx"), result, report, DEFAULT_LIMITS);
-  console.log(`\n${summaryLine(result, false, report.counts)} (with the unit check)`);
+  console.log("");
+  const [found, counted] = summaryLine(result, false, report.counts).split(/(?<=\)): /);
+  console.log(counted ? `${found}:\n  ${counted} (with the unit check)` : `${found} (with the unit check)`);
   console.log(`Workbook: ${path}\nAudit report: ${join(out, "orchard-audit.html")}\nAudit sheet:  ${join(out, "orchard-audit.xlsx")}\nAudit text:   ${join(out, "orchard-audit.txt")}\nHand-off copy (values, no add-in needed): ${join(out, "orchard-handoff.xlsx")}`);
-  console.log(`\n${GENERAL_CAUTIONS.join(" ")}`);
+  console.log("");
+  for (const line of wrap(GENERAL_CAUTIONS.join(" "), "", "")) console.log(line);
   return report.counts.error ? 1 : 0;
 }
 

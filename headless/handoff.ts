@@ -10,7 +10,7 @@ import { readFile } from "node:fs/promises";
 import { basename } from "node:path";
 import ExcelJS from "exceljs";
 import { type AuditReport, GENERAL_CAUTIONS } from "../workbook/audit";
-import { formatQuantity, formatValue } from "../workbook/format";
+import { formatQuantity, formatValue, numberFormatFor } from "../workbook/format";
 import { writeAtomically } from "./atomic";
 import { addressOf, type CellValue, parseAddress } from "../workbook/model";
 import { type Limits, openPackage, trimPackage } from "./package";
@@ -57,7 +57,10 @@ export async function writeHandoff(source: string, target: string, result: Recal
           const { row: r0, col: c0 } = parseAddress(cell.address);
           rows.forEach((values, i) =>
             values.forEach((v, j) => {
-              ws.getCell(addressOf(r0 + i, c0 + j)).value = frozenValue(v);
+              const target = ws.getCell(addressOf(r0 + i, c0 + j));
+              target.value = frozenValue(v);
+              // A value in a cell with no number format of the user's gets the figures rule (4 significant figures).
+              if (typeof v === "number" && (!target.numFmt || target.numFmt === "General")) target.numFmt = numberFormatFor(v);
             }),
           );
           cell.note = note(outcome, when);

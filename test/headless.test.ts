@@ -239,4 +239,30 @@ describe("the nappe command", () => {
     expect(existsSync(join(dir, "orchard-audit.html"))).toBe(true);
     expect(r.stdout).toContain(join(dir, "orchard-audit.html"));
   });
+  it("demo leads with the selection over the envelope: the recommended impeller and a motor that never overloads, first", async () => {
+    const dir = tempDir();
+    const r = await nappe("demo", "--out", dir);
+    // What the workbook's own Envelope sheet finds: the shortlist's recommended row, and the motor for the end-of-curve power.
+    const env = recalculate(await readWorkbook(join(dir, DEMO_FILE)), { all: true });
+    const shortlist = env.valueOf("Envelope", "A30") as (string | number)[][];
+    const header = shortlist[0].map(String);
+    const best = shortlist.find((row) => /^recommended/.test(String(row[row.length - 1])))!;
+    const impeller = best[0] as number;
+    const motor = best[header.findIndex((h) => /^Motor/.test(h))] as number;
+    const maxPowerMotor = (env.valueOf("Envelope", "A26") as number[][])[1][2];
+    const lines = r.stdout.split("\n").filter((l) => l.trim());
+    expect(lines[1]).toMatch(/Selection over the operating envelope/);
+    expect(lines[2]).toMatch(new RegExp(`^  Recommended impeller\\s+${impeller} mm$`));
+    const headline = Number(/^  Motor that never overloads \(IEC\)\s+(\d+) kW$/.exec(lines[3])?.[1]);
+    expect(headline).toBe(motor);
+    expect(headline).toBeGreaterThanOrEqual(maxPowerMotor);
+    // The single-point figures that read the flagged suction length are marked, and what they become is said.
+    expect(r.stdout).toMatch(/^  Shaft power at duty\s+[\d.]+ kW ‡$/m);
+    expect(r.stdout).toMatch(/^  Duty flow\s+[\d.]+ m³\/h$/m);
+    expect(r.stdout).toMatch(/‡ Computed with Inputs!B14 "Suction pipe length \(ft\)" = 30 read as 30 m/);
+    expect(r.stdout).toMatch(/Operating point, full impeller: flow: 87\.46 m³\/h → 87\.81 m³\/h/);
+    // 87.81 m³/h is the design case of the envelope, which reads the length in ft: the two now agree.
+    expect(r.stdout).toMatch(/design: summer, new pipe\s+87\.81/);
+    for (const line of r.stdout.split("\n").filter((l) => !l.includes(dir))) expect(line.length, line).toBeLessThanOrEqual(80);
+  });
 });

@@ -158,8 +158,9 @@ describe("the demo workbook in the stored form", () => {
     const sheets = await Promise.all(Object.keys(zip.files).filter((p) => /^xl\/worksheets\/sheet\d+\.xml$/.test(p)).map((p) => zip.file(p)!.async("string")));
     const all = sheets.join("");
     expect(all).not.toMatch(/<f[^>]*>[^<]*NAPPE\./);
-    expect(all).toContain('<c r="B21" cm="1"><f t="array" ref="B21">_xldudf_NAPPE_HEADLOSS(B11&amp;&quot; m^3/h&quot;, B16, Inputs!B14, B18, B6)</f><v>');
-    expect(all).toMatch(/<c r="B27" cm="1"><f t="array" ref="B27:E27">_xldudf_NAPPE_PUMP_SELECT\(/);
+    // (s="…": the number format that shows 4 significant figures in any spreadsheet program.)
+    expect(all).toMatch(/<c r="B21"( s="\d+")? cm="1"><f t="array" ref="B21">_xldudf_NAPPE_HEADLOSS\(B11&amp;&quot; m\^3\/h&quot;, B16, Inputs!B14, B18, B6\)<\/f><v>/);
+    expect(all).toMatch(/<c r="B27"( s="\d+")? cm="1"><f t="array" ref="B27:E27">_xldudf_NAPPE_PUMP_SELECT\(/);
     const cells = [...all.matchAll(/<c\b[^>]*>(?:(?!<\/c>).)*_xldudf_NAPPE_(?:(?!<\/c>).)*<\/c>/g)].map((m) => m[0]);
     expect(cells.length).toBe(34);
     for (const cell of cells) expect(cell).toMatch(/^<c [^>]*cm="1"[^>]*><f t="array" ref="[A-Z]+\d+(:[A-Z]+\d+)?">[^<]+<\/f><v>[^<]*<\/v><\/c>$/);

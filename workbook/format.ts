@@ -40,6 +40,19 @@ export function formatNumber(x: number, digits = figures): string {
   return `${m}×10${superscript(String(Number(exponent)))}`;
 }
 
+/**
+ * The formatting rule as an Excel number format code for one value, for a cell that had none of
+ * the user's: `figures` significant figures with the decimals that give them ("0.00" for 81.56),
+ * a scientific code outside 0.001 to 1e6. Whole numbers show no decimals.
+ */
+export function numberFormatFor(x: number, digits = figures): string {
+  if (!Number.isFinite(x) || x === 0 || Number.isInteger(x)) return "0";
+  const size = Math.abs(Number(x.toPrecision(digits)));
+  if (size < 0.001 || size >= 1e6) return `0.${"0".repeat(digits - 1)}E+00`;
+  const decimals = Math.max(0, digits - 1 - Math.floor(Math.log10(size)));
+  return decimals ? `0.${"0".repeat(decimals)}` : "0";
+}
+
 /** Every digit of a number, for the audit sheet's "exact" column and copying. */
 export function exactNumber(x: number): string {
   return String(x);
