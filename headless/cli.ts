@@ -1,7 +1,7 @@
 /**
  * nappe: recalculate and audit NAPPE workbooks outside Excel, and write hand-off copies.
  *
- *   nappe recalc  <workbook.xlsx> [--tolerance 1e-6] [--all] [--allow-empty]
+ *   nappe recalc  <workbook.xlsx> [--tolerance 1e-6] [--all] [--allow-empty] [--spills 5|all]
  *   nappe audit   <workbook.xlsx> [--html report.html] [--xlsx audit.xlsx] [--text audit.txt] [--allow-empty]
  *   nappe handoff <workbook.xlsx> [--out copy.xlsx]
  *   nappe demo    [--out folder]
@@ -29,7 +29,7 @@ import { BudgetError, labelSource, readWorkbook, type WorkbookModel, WorkbookErr
 class UsageError extends Error {}
 
 const USAGE = `Usage:
-  nappe recalc  <workbook.xlsx> [--tolerance 1e-6] [--all] [--allow-empty]
+  nappe recalc  <workbook.xlsx> [--tolerance 1e-6] [--all] [--allow-empty] [--spills 5|all]
   nappe audit   <workbook.xlsx> [--html report.html] [--xlsx audit.xlsx] [--text audit.txt] [--allow-empty]
   nappe handoff <workbook.xlsx> [--out copy.xlsx]
   nappe demo    [--out folder]
@@ -37,6 +37,7 @@ Options for every command that reads a workbook:
   --max-seconds 60   time budget for reading and recalculating one file
   --max-memory 1024  memory budget in MB
   --digits 4         significant figures shown (2 to 15); exact values stay in the audit's "Exact" column
+  --spills 5         rows of each spilled result shown under it (all: every row)
 Exit status: 0 ok or warnings only; 1 an error or a value that differs from the file's cache;
 2 usage, unreadable file or budget exceeded; 3 no NAPPE formula found (0 with --allow-empty).`;
 
@@ -60,6 +61,7 @@ interface Options {
     "max-seconds"?: string;
     "max-memory"?: string;
     digits?: string;
+    spills?: string;
   };
 }
 
@@ -83,6 +85,7 @@ function parseArgs(argv: string[]): Options {
         "max-seconds": { type: "string" },
         "max-memory": { type: "string" },
         digits: { type: "string" },
+        spills: { type: "string" },
       },
     });
   } catch (e) {
@@ -179,13 +182,16 @@ async function main(argv: string[]): Promise<number> {
   switch (opts.command) {
     case "recalc": {
       if (!opts.file) throw new UsageError(`recalc needs a workbook\n\n${USAGE}`);
+      const spills = flags.spills === undefined ? 5 : flags.spills === "all" ? Infinity : Number(flags.spills);
+      if (!(spills >= 0) || (Number.isFinite(spills) && !Number.isInteger(spills))) throw new UsageError(`--spills takes a number of rows or "all"; got ${flags.spills}`);
+      const width = process.stdout.isTTY ? process.stdout.columns : undefined;
       const { result } = await load(opts.file, flags);
       if (result.counts.nappe === 0 && !flags["allow-empty"]) {
-        if (flags.all && result.cells.length) console.log(renderTable(result.cells));
+        if (flags.all && result.cells.length) console.log(renderTable(result.cells, { spills, width }));
         console.error(emptyNotice(opts.file, result));
         return EXIT_EMPTY;
       }
-      console.log(renderTable(result.cells));
+      console.log(renderTable(result.cells, { spills, width }));
       console.log(`\n${summaryLine(result, flags.all)}`);
       if (result.counts.otherAddins.length) console.log(`Not recalculated, another add-in's functions: ${result.counts.otherAddins.join(", ")}`);
       return result.cells.some((c) => c.status === "error") ? 1 : 0;

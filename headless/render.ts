@@ -2,7 +2,7 @@
 import type ExcelJS from "exceljs";
 import { type AuditReport, AUDIT_COLUMNS, AUDIT_WIDTHS, auditSheetRows, NOTHING_FOUND, wrappedLines } from "../workbook/audit";
 import { derivationText } from "../workbook/derivation";
-import { formatNumber, formatSpillText, formatUnit, formatValue } from "../workbook/format";
+import { formatNumber, formatSpillText, formatUnit, formatValue, labelledSpill } from "../workbook/format";
 import type { CellOutcome } from "../workbook/recalc";
 import { spillsRows } from "../workbook/summary";
 
@@ -13,8 +13,13 @@ function clip(text: string, width: number): string {
   return text.length <= width ? text : `${text.slice(0, width - 1)}…`;
 }
 
-/** The recalculation as a fixed-width table, with each cell's messages under it. */
-export function renderTable(cells: readonly CellOutcome[]): string {
+/**
+ * The recalculation as a fixed-width table, with each cell's messages under it, and under a
+ * spilled result its rows (labelled by its header, or the function's columns): `spills` rows at
+ * most, then how many more; each such line cut to `width` when given (a terminal's).
+ */
+export function renderTable(cells: readonly CellOutcome[], options: { spills?: number; width?: number } = {}): string {
+  const spills = options.spills ?? 5;
   const head = ["sheet", "cell", "formula", "value", "unit", "cached", "difference", "status"];
   const limits = [16, 8, 48, 28, 10, 14, 10, 7];
   const k = head.length;
@@ -50,6 +55,12 @@ export function renderTable(cells: readonly CellOutcome[]): string {
   const out = [line(head, 0), widths.map((w) => "-".repeat(w)).join("  ")];
   cells.forEach((c, i) => {
     out.push(line(texts, i * k));
+    if (Array.isArray(c.value) && spills > 0) {
+      const t = labelledSpill(c.value, c.calls[c.calls.length - 1]?.evaluation?.header);
+      const shown = formatSpillText({ header: t.header, rows: t.rows.slice(0, spills) }, "      ").split("\n");
+      for (const l of shown) out.push(options.width ? clip(l, options.width) : l);
+      if (t.rows.length > spills) out.push(`      … ${t.rows.length - spills} more row${t.rows.length - spills === 1 ? "" : "s"} (--spills all)`);
+    }
     for (const m of c.messages) out.push(`    ${c.status === "error" ? "!" : "-"} ${m}`);
   });
   return out.join("\n");

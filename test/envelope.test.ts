@@ -108,6 +108,22 @@ describe("end-of-curve power and the selection table", () => {
     expect(row[1]).toBeCloseTo(150, 9);
     expect(row[2]).toBe(15); // IEC 60072-1: 11 then 15 kW (from memory)
   });
+  it("finds the flow of the largest power inside the curve to 1e-7, as SciPy's bounded optimiser does (not to the nearest grid step)", () => {
+    // test/reference/envelope_reference.py: the best of 400 even steps, then minimize_scalar(method="bounded") between its neighbours.
+    const peak = [["Flow (gpm)", "Head (ft)", "Eff (%)"], ...(ref.curve_peak as number[][])];
+    const [, row] = run("PUMP.MAXPOWER", peak, 999.1, null, "nema", "m^3/s", "W").value as Row[];
+    expect(Math.abs((row[1] as number) / ref.max_power_peak_15C.flow - 1)).toBeLessThan(1e-7);
+    expect(Math.abs((row[0] as number) / ref.max_power_peak_15C.power - 1)).toBeLessThan(1e-12);
+    // 810.51 gpm: between the grid's steps of 2.5 gpm (810 and 812.5).
+    expect((row[1] as number) / (3.785411784e-3 / 60)).toBeCloseTo(810.513, 3);
+  });
+  it("names the speed ratio when it is not above 0, and the duty flow when it is negative", () => {
+    const curve = [["Flow (gpm)", "Head (ft)", "Eff (%)"], ...(ref.curve_peak as number[][])];
+    expect(failure("PUMP.MAXPOWER", curve, null, -0.9).message).toMatch(/^ratio: expected a speed ratio above 0/);
+    expect(failure("PUMP.MAXPOWER", curve, null, 0).message).toMatch(/^ratio: expected a speed ratio above 0/);
+    const family = [["Impeller (mm)", "Flow (gpm)", "Head (ft)", "Eff (%)", "NPSHr (ft)"], ...ref.curve.map(([q, ...r]) => [250, q, ...r.map((v) => (v === null ? "" : v))])];
+    expect(failure("PUMP.SHORTLIST", family, cases.slice(0, 2), segments(ref.suction), segments(ref.discharge), null, null, null, "nema", "gpm", "ft", "hp", "-50 gpm").message).toMatch(/^duty_flow: expected a flow above 0 .*got -50 gpm/);
+  });
   it("a curve whose largest power no listed motor covers is an error naming the curve, with figures that differ (found by the fuzz test)", () => {
     const big = [["Flow (m^3/h)", "Head (m)", "Power (kW)"], [0, 40, 500], [50, 38, 700], [100, 33, 745.7 + 0.001]];
     expect(failure("PUMP.MAXPOWER", big, null, null, "nema", "m^3/h", "kW").message).toMatch(/^curve: 745\.70100 kW \(the largest shaft power on it\) is above the largest NEMA rating listed here \(745\.69987 kW\)/);

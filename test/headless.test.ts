@@ -145,6 +145,19 @@ describe("the nappe command", () => {
     expect(r.stdout).toMatch(/^sheet\s+cell\s+formula\s+value\s+unit\s+cached\s+difference\s+status/m);
     expect(r.stdout).toMatch(/34 NAPPE formulas found in \d+ formulas \(34 recalculated\): \d+ ok, \d+ warning, 0 error/);
   });
+  it("recalc shows a spilled result's rows under it: up to 5, then how many more; --spills all for every row", async () => {
+    const demoPath = join(root, "demo", DEMO_FILE);
+    const r = await nappe("recalc", demoPath);
+    // The operating point (one row, flow and head) under its formula, labelled by the function's columns.
+    expect(r.stdout).toMatch(/Calc\s+B28\s+=NAPPE\.PUMP\.DUTY.*\n\s+Flow \(m³\/h\)\s+Head \(m\)\n\s+87\.46\s+102\.3\n/);
+    // The system curve (11 points): 5 shown, then the rest counted.
+    expect(r.stdout).toMatch(/Calc\s+J3\s+=NAPPE\.SYSTEM\.CURVE.*\n\s+Flow \(m³\/h\)\s+Head \(m\)\n(\s+[\d.]+\s+[\d.]+\n){5}\s+… 6 more rows \(--spills all\)\n/);
+    const all = await nappe("recalc", demoPath, "--spills", "all");
+    expect(all.stdout).toMatch(/Calc\s+J3\s+=NAPPE\.SYSTEM\.CURVE.*\n\s+Flow \(m³\/h\)\s+Head \(m\)\n(\s+[\d.]+\s+[\d.]+\n){11}Calc/);
+    const bad = await nappe("recalc", demoPath, "--spills", "some");
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(/--spills takes a number of rows or "all"; got some/);
+  });
   it("shows 4 significant figures, or as many as --digits asks; a bad --digits is a usage error", async () => {
     const demoPath = join(root, "demo", DEMO_FILE);
     const four = await nappe("recalc", demoPath);

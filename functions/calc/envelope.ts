@@ -125,22 +125,53 @@ export function dutyAgainstBep(curve: PumpCurve, flow: number): { warnings: stri
   };
 }
 
-/** The largest shaft power on the whole curve, to the end of the table (at speed ratio r), and the flow where it occurs. */
+/**
+ * The largest shaft power on the whole curve, to the end of the table (at speed ratio r), and the
+ * flow where it occurs: the best of 400 even steps and every table point, then a golden-section
+ * search between that point's neighbours to a flow within 1e-9 of itself.
+ */
 export function endOfCurvePower(curve: PumpCurve, density: number, r = 1): CalcResult<{ power: number; flow: number }> {
+  if (!(r > 0) || !Number.isFinite(r)) throw new CalcError("ratio", `expected a speed ratio above 0 (1 is the curve's own speed); got ${r}`);
   const head = curveInterpolant("curve", curve, "head");
   const powerAt = shaftPowerFunction(curve, density);
   const n = 400;
+  const dq = (head.max - head.min) / n;
   let best = { power: -Infinity, flow: head.min };
   const at = (q: number) => {
     const p = powerAt(q);
     if (p !== undefined && p > best.power) best = { power: p, flow: q };
   };
-  for (let i = 0; i <= n; i++) at(head.min + ((head.max - head.min) * i) / n);
+  for (let i = 0; i <= n; i++) at(head.min + dq * i);
   for (const q of curve.head.x) at(q);
   if (!Number.isFinite(best.power)) throw new CalcError("curve", "needs a power column, or head and efficiency columns, to find the power along the curve", "value");
+  // Golden-section search for the maximum between the best point's neighbours.
+  let a = Math.max(head.min, best.flow - dq);
+  let b = Math.min(head.max, best.flow + dq);
+  const f = (q: number) => powerAt(q) ?? -Infinity;
+  const k = (Math.sqrt(5) - 1) / 2;
+  let c = b - k * (b - a);
+  let d = a + k * (b - a);
+  let fc = f(c);
+  let fd = f(d);
+  for (let i = 0; i < 200 && b - a > 1e-10 * Math.max(Math.abs(best.flow), dq); i++) {
+    if (fc >= fd) {
+      b = d;
+      d = c;
+      fd = fc;
+      c = b - k * (b - a);
+      fc = f(c);
+    } else {
+      a = c;
+      c = d;
+      fc = fd;
+      d = a + k * (b - a);
+      fd = f(d);
+    }
+  }
+  at((a + b) / 2);
   const scaled = { power: best.power * r ** 3, flow: best.flow * r };
   return ok(scaled, [], [
-    step("P_max", "largest shaft power on the curve", scaled.power, "power", "ρgQH/η (or the power column) at 400 even steps and every table point, to the end of the table"),
+    step("P_max", "largest shaft power on the curve", scaled.power, "power", "ρgQH/η (or the power column) at 400 even steps and every table point, to the end of the table, then refined between the best step's neighbours (golden section)"),
     step("Q(P_max)", "flow where it occurs", scaled.flow, "flow", best.flow >= head.max * (1 - 1e-9) ? "the end of the curve" : "inside the curve"),
   ]);
 }
@@ -366,6 +397,7 @@ export function selectOverEnvelope(
   dutyFlow?: number,
 ): CalcResult<Candidate[]> {
   checkLimits(limits);
+  if (dutyFlow !== undefined && !(dutyFlow > 0)) throw new CalcError("duty_flow", `expected a flow above 0 that the design case must deliver (or leave it out); got ${quoted(dutyFlow, "flow")}`);
   if (!cases.length) throw new CalcError("cases", "needs at least one case (the first is the design duty)", "value");
   const fastest = Math.max(...cases.map((c) => c.speed));
   const designRho = waterDensity(cases[0].temperature, system.atmosphere).value;

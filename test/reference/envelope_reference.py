@@ -19,7 +19,7 @@ from pathlib import Path
 import numpy as np
 import scipy
 from scipy.interpolate import PchipInterpolator
-from scipy.optimize import brentq
+from scipy.optimize import brentq, minimize_scalar
 
 G = 9.80665
 GPM = 3.785411784e-3 / 60  # m³/s per US gpm (NIST SP 811)
@@ -114,6 +114,29 @@ def end_of_curve(c, rho):
     return {"power": float(p.max()), "flow": float(grid[p.argmax()])}
 
 
+def max_power_bounded(c, rho):
+    """The largest ρgQH/η: the best of 400 even steps over the curve, then SciPy's bounded optimiser
+    (minimize_scalar, method "bounded") between that step's neighbours."""
+    lo, hi = c["x"][0], c["x"][-1]
+    grid = np.linspace(lo, hi, 401)
+    power = lambda q: rho * G * q * c["head"](q) / c["eff"](q) if c["eff"](q) > 0 else 0.0
+    p = np.array([power(q) for q in grid])
+    i = int(p.argmax())
+    a, b = grid[max(i - 1, 0)], grid[min(i + 1, 400)]
+    r = minimize_scalar(lambda q: -power(q), bounds=(a, b), method="bounded", options={"xatol": 1e-14})
+    return {"power": float(-r.fun), "flow": float(r.x), "bracket": [float(a), float(b)]}
+
+
+# An invented curve whose power peaks inside it (efficiency rises again past 800 gpm):
+# Flow (gpm), Head (ft), Eff (%).
+CURVE_PEAK = [[0, 120, 0], [200, 118, 50], [400, 112, 68], [600, 100, 76], [800, 82, 74], [1000, 50, 66]]
+
+
+def interpolants_he(curve):
+    x = np.array([r[0] for r in curve]) * GPM
+    return {"x": x, "head": PchipInterpolator(x, np.array([r[1] for r in curve]) * FT), "eff": PchipInterpolator(x, np.array([r[2] for r in curve]) / 100)}
+
+
 # A second, smaller impeller for the selection table (invented): 230 mm beside the 250 mm curve above.
 CURVE_230 = [[0, 86, 0, None], [100, 84, 53, 6], [200, 78, 70, 8], [300, 66, 73, 11], [400, 46, 66, 16]]
 c250 = interpolants(CURVE)
@@ -132,6 +155,8 @@ out = {
     "bep": bep,
     "corners": corners,
     "end_of_curve_15C": end_of_curve_15,
+    "curve_peak": CURVE_PEAK,
+    "max_power_peak_15C": max_power_bounded(interpolants_he(CURVE_PEAK), WATER[15][0]),
 }
 if __name__ == "__main__":
     Path(__file__).with_name("envelope_reference.json").write_text(json.dumps(out, indent=1) + "\n")
