@@ -103,6 +103,7 @@ const pick = (col: string) => `INDEX(Envelope!${col}31:${col}33,MATCH("recommend
  * the design duty as a single point (the Calc sheet). A section heading is a label alone.
  */
 const SUMMARY: (Row | [string])[] = [
+  ["Results"],
   ["Selection over the operating envelope (Envelope sheet)"],
   ["Recommended impeller", { f: pick("A") }, "mm"],
   ["Motor that never overloads (IEC)", { f: pick("H") }, "kW"],

@@ -91,6 +91,7 @@ export function demoSummaryLines(wb: WorkbookModel, result: RecalcResult, slips:
   let section = 0;
   for (const label of labels) {
     const hasValue = summary.cells.has(`${label.row}:2`);
+    if (!hasValue && /^\s*results?\s*$/i.test(String(label.value))) continue; // the heading the audit's key results follow
     if (!hasValue) {
       if (section === 1) {
         out.push("", ...casesTable(result));

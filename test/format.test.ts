@@ -121,7 +121,18 @@ describe("the audit opens with key results and inputs", () => {
     const s = summaryOf(station(false));
     // B2 is read by B3, so only B5 is an end of the calculation.
     expect(s.results.map((r) => r.cell)).toEqual(["Calc!B5"]);
-    expect(s.basis).toMatch(/no other formula reads/);
+    expect(s.basis).toMatch(/no other formula computes with/);
+  });
+  it("still takes a result that a summary sheet only shows elsewhere (=Calc!B5), labelled from its row, not by a column header", () => {
+    const wb = station(false);
+    const calc = wb.sheets.find((x) => x.name === "Calc")!;
+    // A summary row showing B5, and a small table whose column header sits left of B5's row.
+    wb.sheets.push({ name: "Summary", cells: new Map([["1:2", { sheet: "Summary", address: "B1", row: 1, col: 2, value: null, formula: "Calc!B5" }]]) });
+    calc.cells.set("5:3", { sheet: "Calc", address: "C5", row: 5, col: 3, value: "K" });
+    calc.cells.set("6:3", { sheet: "Calc", address: "C6", row: 6, col: 3, value: 0.5 });
+    calc.cells.set("5:4", { sheet: "Calc", address: "D5", row: 5, col: 4, value: null, formula: 'NAPPE.HEAD("1 bar", 998.2, "m")' });
+    const s = summaryOf(wb);
+    expect(s.results.map((r) => [r.cell, r.label])).toEqual([["Calc!B5", "Velocity head (ft)"], ["Calc!D5", "Velocity head (ft)"]]);
   });
   it("lists the constant inputs the NAPPE calls read, with their labels and how they were read", () => {
     const s = summaryOf(station(true));

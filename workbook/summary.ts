@@ -3,12 +3,14 @@
  *
  * Key results are the formula cells a defined name points at, and the formula cells under a
  * heading cell reading "Results"; a workbook with neither gets the NAPPE cells no other formula
- * reads (the ends of its calculation). Inputs are the constant cells the NAPPE calls read, found
- * through plain references (=Inputs!B4), each with its label and the unit it was read in.
+ * computes with (the ends of its chains of calculation: the duty, the motor, the margin; a
+ * formula that only shows one of them elsewhere, =Calc!B32 on a summary sheet, does not count),
+ * each labelled from its own row, never by a column header. Inputs are the constant cells the NAPPE calls read, found through plain
+ * references (=Inputs!B4), each with its label and the unit it was read in.
  */
 import { addressOf, parseAddress, splitReference } from "./address";
 import type { CallView } from "./callView";
-import { exactNumber, formatCell, formatQuantity, shortenQuantityText } from "./format";
+import { exactNumber, formatCell, formatPercent, formatQuantity, shortenQuantityText } from "./format";
 import { references } from "./formula";
 import { type CellModel, type CellValue, findSheet, getCell, type WorkbookModel } from "./model";
 import type { CellOutcome } from "./recalc";
@@ -41,6 +43,37 @@ function ref(sheet: string, address: string): string {
 function labelOf(labels: LabelSource | undefined, sheet: string, address: string, fallback = ""): string {
   const { row, col } = parseAddress(address);
   return labels?.labelsNear(sheet, row, col).find((t) => !HEADING.test(t)) ?? fallback;
+}
+
+/**
+ * A result's label from its own row: the nearest text to its left that is not a table's column
+ * header (a header has a value or formula under it); else the text above it when that is a
+ * title, not a header. Falls back to labelOf.
+ */
+function rowLabelOf(wb: WorkbookModel, labels: LabelSource | undefined, sheet: string, address: string): string {
+  const { row, col } = parseAddress(address);
+  const text = (r: number, c: number) => {
+    const v = getCell(wb, sheet, r, c)?.value;
+    return typeof v === "string" && v.trim() && !/^#/.test(v) && !getCell(wb, sheet, r, c)?.formula ? v : undefined;
+  };
+  const isHeader = (r: number, c: number) => {
+    const below = getCell(wb, sheet, r + 1, c);
+    return !!below && (below.formula !== undefined || typeof below.value === "number");
+  };
+  for (let c = col - 1; c >= 1; c--) {
+    const t = text(row, c);
+    if (t && !HEADING.test(t) && !isHeader(row, c)) return t;
+  }
+  const above = row > 1 ? text(row - 1, col) : undefined;
+  if (above && !HEADING.test(above)) return above;
+  return labelOf(labels, sheet, address);
+}
+
+/** The unit written beside a value in its row (a short text such as "kW" or "m³/h"), if any. */
+function unitBeside(wb: WorkbookModel, sheet: string, address: string): string {
+  const { row, col } = parseAddress(address);
+  const v = getCell(wb, sheet, row, col + 1)?.value;
+  return typeof v === "string" && v.length <= 12 && /^[A-Za-z°µ%³²/·^ ]+$/.test(v) && !/^fraction$/i.test(v) ? v : "";
 }
 
 /** A single cell a defined name refers to, or undefined for ranges and constants. */
@@ -76,12 +109,18 @@ function referencesIn(text: string): ReturnType<typeof references> {
   }
 }
 
-/** Cells some formula of the workbook reads, as "Sheet!A1" (ranges expanded only for NAPPE cells asked about). */
+/** A formula that only shows one cell's value elsewhere (=Calc!B31), computing nothing more. */
+const SHOWS_A_CELL = /^\s*(?:'(?:[^']|'')+'!|[A-Za-z0-9_.]+!)?\$?[A-Za-z]{1,3}\$?\d+\s*$/;
+
+/**
+ * Cells some formula of the workbook computes further with, as "Sheet!A1" (ranges expanded only
+ * for the NAPPE cells asked about); a formula that only shows a cell elsewhere does not count.
+ */
 function readByOthers(wb: WorkbookModel, candidates: readonly CellOutcome[]): Set<string> {
   const read = new Set<string>();
   for (const sheet of wb.sheets) {
     for (const cell of sheet.cells.values()) {
-      if (!cell.formula) continue;
+      if (!cell.formula || SHOWS_A_CELL.test(cell.formula)) continue;
       for (const r of referencesIn(cell.formula)) {
         const target = r.sheet ?? sheet.name;
         for (const c of candidates) {
@@ -115,7 +154,10 @@ export function auditSummary(wb: WorkbookModel, outcomes: readonly CellOutcome[]
     const o = byRef.get(ref(sheet, address));
     const { row: r, col } = parseAddress(address);
     const cell = getCell(wb, sheet, r, col);
-    const v = valueText(o ? o.value : (cell?.value ?? null), o?.unit ?? "");
+    const value = o ? o.value : (cell?.value ?? null);
+    const beside = getCell(wb, sheet, parseAddress(address).row, parseAddress(address).col + 1)?.value;
+    // An efficiency held as a fraction, labelled so, reads as percent (the formatting rule).
+    const v = !o?.unit && typeof value === "number" && beside === "fraction" ? { value: formatPercent(value), exact: exactNumber(value) } : valueText(value, o?.unit || unitBeside(wb, sheet, address));
     return { cell: ref(sheet, address), label, ...v };
   };
   const results: SummaryRow[] = [];
@@ -133,12 +175,12 @@ export function auditSummary(wb: WorkbookModel, outcomes: readonly CellOutcome[]
     return sheet && getCell(wb, sheet.name, r, col)?.formula ? [{ sheet: sheet.name, address: at!.address, name: n.name }] : [];
   });
   for (const n of named) add(n.sheet, n.address, `${n.name}${labelOf(labels, n.sheet, n.address) ? ` (${labelOf(labels, n.sheet, n.address)})` : ""}`);
-  for (const c of underResultsHeadings(wb)) add(c.sheet, c.address, labelOf(labels, c.sheet, c.address));
+  for (const c of underResultsHeadings(wb)) add(c.sheet, c.address, rowLabelOf(wb, labels, c.sheet, c.address));
   let basis = "Cells with a defined name and cells under a \u201cResults\u201d heading.";
   if (!results.length) {
     const read = readByOthers(wb, outcomes);
-    for (const o of outcomes) if (!read.has(ref(o.sheet, o.address))) add(o.sheet, o.address, labelOf(labels, o.sheet, o.address));
-    basis = "No defined names or \u201cResults\u201d heading: the NAPPE cells no other formula reads.";
+    for (const o of outcomes) if (!read.has(ref(o.sheet, o.address))) add(o.sheet, o.address, rowLabelOf(wb, labels, o.sheet, o.address));
+    basis = "No defined names or \u201cResults\u201d heading: the ends of the NAPPE calculation (the NAPPE cells no other formula computes with).";
   }
 
   // Cells another formula's spilled result fills are results, not inputs.
