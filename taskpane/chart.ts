@@ -41,7 +41,22 @@ export function drawChart(data: ChartData): HTMLElement {
           borderWidth: 2,
         };
       });
-  const legend = { position: "bottom" as const, labels: { boxWidth: 12, font: { size: 10 }, filter: (item: { text: string }) => !item.text.endsWith("(points)") } };
+  // The legend is a list under the canvas, not in it: a dozen curves of an envelope would leave a
+  // narrow pane's plot a strip. Every curve has an entry (a curve's points share its line's).
+  const legend = { display: false };
+  const legendOf = (axes: readonly string[]) => {
+    const list = document.createElement("ul");
+    list.className = "chart-legend";
+    for (const s of data.series.filter((x) => axes.includes(x.axis) && !x.name.endsWith("(points)"))) {
+      const item = document.createElement("li");
+      const swatch = document.createElement("span");
+      swatch.className = `swatch ${s.style}`;
+      swatch.style.background = colourOf(s.name);
+      item.append(swatch, document.createTextNode(s.name));
+      list.append(item);
+    }
+    return list;
+  };
   const main = document.createElement("canvas");
   box.append(main);
   // One panel: a scatter chart whose y axis starts at zero, titled in the data's units.
@@ -58,6 +73,9 @@ export function drawChart(data: ChartData): HTMLElement {
       },
     });
   panelChart(main, ["head", "efficiency"], `Flow (${formatUnit(data.flowUnit)})`, `Head (${formatUnit(data.headUnit)})`, data.efficiencyUnit ? { y2: { type: "linear" as const, position: "right" as const, title: { display: true, text: `Efficiency (${data.efficiencyUnit})` }, grid: { drawOnChartArea: false } } } : {});
+  const figure = document.createElement("div");
+  figure.className = "chart-figure";
+  figure.append(box, legendOf(["head", "efficiency"]));
   if (data.series.some((s) => s.axis === "npsh")) {
     const panel = document.createElement("div");
     panel.className = "chart npsh-panel";
@@ -65,10 +83,8 @@ export function drawChart(data: ChartData): HTMLElement {
     panel.setAttribute("aria-label", `NPSH available and required against flow${data.npshFlowLabel ? " per pump" : ""}, on a scale of their own`);
     const canvas = document.createElement("canvas");
     panel.append(canvas);
-    const wrap = document.createElement("div");
-    wrap.append(box, panel);
+    figure.append(panel, legendOf(["npsh"]));
     panelChart(canvas, ["npsh"], `${data.npshFlowLabel ?? "Flow"} (${formatUnit(data.flowUnit)})`, `NPSH (${formatUnit(data.headUnit)})`);
-    return wrap;
   }
-  return box;
+  return figure;
 }

@@ -283,6 +283,6 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
   }
   // The value line carries the unit of a single NAPPE call; a spilled result is labelled in its call's card.
   const v = computed.value as CellValue | CellValue[][];
-  const value = Array.isArray(v) ? `spills ${v.length} ${v.length === 1 ? "row" : "rows"} (the table is in the call below)` : typeof v === "number" && outcome.unit ? formatQuantity(v, outcome.unit) : formatValue(v);
+  const value = Array.isArray(v) ? `spills ${v.length} ${v.length === 1 ? "row" : "rows"} (the table is below)` : typeof v === "number" && outcome.unit ? formatQuantity(v, outcome.unit) : formatValue(v);
   return { labels, outcome, explanation: { ...base, formula: displayFormula(formula), value, ...(typeof v === "number" ? { exact: exactNumber(v) } : {}), error, calls, chart } };
 }

@@ -11,7 +11,7 @@ import type { HostPort } from "./host/port";
 import { writeAction } from "./actions";
 import { GENERAL_CAUTIONS } from "../functions/catalog/_shared";
 import { crossCheckCell } from "./crossCheck";
-import { formatNumber, formatQuantity, setSignificantFigures, significantFigures } from "../workbook/format";
+import { formatNumber, formatQuantity, formatUnit, setSignificantFigures, significantFigures } from "../workbook/format";
 import { UndoStack } from "./undo";
 import { addressOf, parseAddress } from "../workbook/address";
 import { derivationText } from "../workbook/derivation";
@@ -91,6 +91,8 @@ export interface PaneContext {
   notice(content: HTMLElement | null): void;
   /** The pane's writes, remembered so that "Undo" can put the cells back. */
   undo: UndoStack;
+  /** After the next drawing of the cell view, brings what changed into view (a fix's new value and its follow-up offer). */
+  showChangeNext(): void;
 }
 
 /** Status words with a mark, so colour is never the only signal. */
@@ -126,7 +128,12 @@ function askInPane(anchor: HTMLElement, message: string, goAhead: string): Promi
   });
 }
 
-function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext, refresh: () => void): HTMLElement {
+/** Units written with carets ("m^3/h") typeset ("m³/h") inside a text read back to the user. */
+function typeset(text: string): string {
+  return text.replace(/[A-Za-zµ°]+\^\(?-?\d+\)?(?:\/[A-Za-zµ°]+(?:\^\(?-?\d+\)?)?)*/g, (unit) => formatUnit(unit));
+}
+
+function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext, refresh: () => void, tableShown = false): HTMLElement {
   const card = el("section", "call");
   card.append(el("h3", "", `NAPPE.${call.id}`), el("p", "purpose", call.purpose), el("code", "formula", call.text), equation(call.equation));
   if (call.substituted) card.append(el("p", "substituted", call.substituted));
@@ -138,8 +145,8 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
         "tr",
         "",
         labelled(el("td", "", el("span", "name", a.name), el("br"), el("code", "written", a.written || "(left out)")), "argument"),
-        labelled(el("td", "", el("span", "read", a.value), el("br"), el("span", "why", a.unit ? `${a.unit} · ${a.why}` : a.why)), "read as"),
-        labelled(el("td", "base", a.base), "base value"),
+        labelled(el("td", "", el("span", "read", typeset(a.value)), el("br"), el("span", "why", a.unit ? `${typeset(a.unit)} · ${a.why}` : a.why)), "read as"),
+        labelled(el("td", "base", typeset(a.base)), "base value"),
       ),
     );
   }
@@ -152,7 +159,7 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
   }
   if (call.error) card.append(el("p", "status error", `${MARK.error} ${call.error}`));
   else card.append(el("p", "result", "Result: ", el("strong", "", call.result ?? ""), call.resultBase && call.resultBase !== call.result ? ` (${call.resultBase} in base units)` : ""));
-  if (!call.error && call.table) card.append(spillTableView(call.table));
+  if (!call.error && call.table && !tableShown) card.append(spillTableView(call.table));
   for (const w of call.unitWarnings) {
     const box = el("div", "status warning unit-warning", el("p", "", `${MARK.warning} Unit check: ${w.message}`));
     if (w.fixedFormula) {
@@ -163,6 +170,7 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
           await ctx.undo.write(`join the unit in ${where}`, [cell], () => ctx.port.setFormula(cell.sheet, cell.address, w.fixedFormula!));
           ctx.say(`Joined the unit in ${where}. Undo puts the formula back.`);
           if (w.input) ctx.notice(await sameInputNotice(ctx, w.input, cell, refresh, w.label));
+          ctx.showChangeNext();
           refresh();
         }),
       );
@@ -293,10 +301,15 @@ function renderCell(target: HTMLElement, cell: CellExplanation, ctx: PaneContext
   target.replaceChildren();
   target.append(el("h2", "cell-address", `${cell.sheet}!${cell.address}`));
   if (cell.formula) target.append(el("code", "formula", `=${cell.formula}`));
+  // The answer first: the value, its status and any warning, then a spilled result, the chart, the derivations.
   if (cell.value !== "") target.append(el("p", "value", "Value: ", el("strong", "", cell.value), cell.exact && cell.exact !== cell.value ? el("span", "why", ` (exact ${cell.exact})`) : ""));
   if (cell.message) target.append(el("p", "message", cell.message));
   if (cell.formula && !cell.calls.length && !cell.error) target.append(crossCheckView(cell, ctx));
   if (cell.error) target.append(el("p", "status error", `${MARK.error} ${cell.error}`));
+  if (cell.calls.length && !cell.error) target.append(valueStatus(cell, target));
+  const last = cell.calls[cell.calls.length - 1];
+  const topTable = last && !last.error && last.table ? last : undefined;
+  if (topTable?.table) target.append(spillTableView(topTable.table));
   if (cell.chart) {
     // Chart.js loads when a cell first has a chart, not with the pane: a slot of the chart's height waits for it.
     const chart = cell.chart;
@@ -306,8 +319,19 @@ function renderCell(target: HTMLElement, cell: CellExplanation, ctx: PaneContext
       .then(({ drawChart }) => slot.replaceWith(drawChart(chart)))
       .catch((e: unknown) => slot.replaceWith(el("p", "status error", `${MARK.error} Could not draw the chart: ${e instanceof Error ? e.message : String(e)}`)));
   }
-  for (const call of cell.calls) target.append(callCard(call, cell, ctx, refresh));
+  for (const call of cell.calls) target.append(callCard(call, cell, ctx, refresh, call === topTable));
   if (cell.calls.length && cell.formula) target.append(copyAsText(cell, ctx));
+}
+
+/** Under the value: its status, and the first warning with a button to the rest (they sit further down, in each call's card). */
+function valueStatus(cell: CellExplanation, target: HTMLElement): HTMLElement {
+  const warnings = cell.calls.flatMap((c) => [...c.unitWarnings.map((w) => `Unit check: ${w.message}`), ...c.warnings, ...(c.error ? [c.error] : [])]);
+  if (!warnings.length) return el("p", "value-status status ok", `${MARK.ok} No warnings: every check passed`);
+  const first = warnings[0];
+  const short = first.length > 110 ? `${first.slice(0, 108)}…` : first;
+  const go = el("button", "show-warnings", warnings.length === 1 ? "Show it" : `Show all ${warnings.length}`);
+  go.addEventListener("click", () => target.querySelector(".unit-warning, .warnings, .call .status.error")?.scrollIntoView({ block: "start", behavior: "smooth" }));
+  return el("p", "value-status status warning", `${MARK.warning} ${warnings.length === 1 ? "1 warning" : `${warnings.length} warnings`}: ${short} `, go);
 }
 
 /** "Copy as text": the derivation of every call in the cell, as a reviewer pastes it into a report. */
@@ -480,7 +504,8 @@ export function mountPane(root: HTMLElement, port: HostPort, extraTabs: { name: 
   status.setAttribute("role", "status");
   const noticeArea = el("div", "notice-area");
   const undo = new UndoStack(port);
-  const ctx: PaneContext = { port, say: (t) => (status.textContent = t), notice: (content) => noticeArea.replaceChildren(...(content ? [content] : [])), undo };
+  let showChange = false;
+  const ctx: PaneContext = { port, say: (t) => (status.textContent = t), notice: (content) => noticeArea.replaceChildren(...(content ? [content] : [])), undo, showChangeNext: () => (showChange = true) };
   const undoButton = el("button", "undo", "Undo");
   const showUndo = () => {
     undoButton.disabled = !undo.last;
@@ -512,12 +537,21 @@ export function mountPane(root: HTMLElement, port: HostPort, extraTabs: { name: 
   root.replaceChildren(el("header", "pane-header", el("div", "title-row", el("h1", "", "Nappe"), tools), status), bar, body, caution);
 
   let generation = 0;
+  let shown = "";
   const refresh = async () => {
     const mine = ++generation;
     try {
       const sel = await port.selection();
       const explanation = await explainCell(port, sel.sheet, sel.address);
-      if (mine === generation) renderCell(cellView, explanation, ctx, () => void refresh());
+      if (mine !== generation) return;
+      renderCell(cellView, explanation, ctx, () => void refresh());
+      const here = `${sel.sheet}!${sel.address}`;
+      if (showChange) {
+        // After a fix: the follow-up offer (Fix all) if there is one, else the new value.
+        showChange = false;
+        (noticeArea.childElementCount ? noticeArea : cellView.querySelector(".value") ?? cellView).scrollIntoView({ block: "start" });
+      } else if (here !== shown) body.scrollTop = 0; // a new cell opens at its top
+      shown = here;
     } catch (e) {
       if (mine === generation) cellView.replaceChildren(el("p", "status error", `${MARK.error} Could not read the cell: ${e instanceof Error ? e.message : String(e)}`));
     }

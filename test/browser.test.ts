@@ -314,9 +314,83 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
     await countIs(page.locator(".unit-warning"), 1);
   });
 
+  it("answers on the first screen at 350 px: value, status and first warning, then the spilled result, then the chart, then the derivation", async () => {
+    const context = await browser.newContext({ viewport: { width: 1000, height: 760 } });
+    const p = await context.newPage();
+    await p.goto(`${preview.url}?pane=350`);
+    await p.locator("table.grid").waitFor();
+    await selectCell(p, "Calc", "B28");
+    await p.locator(".cell-view .chart").first().waitFor();
+    // In this order in the cell view.
+    const order = await p.evaluate(() => {
+      const view = document.querySelector(".cell-view")!;
+      const at = (sel: string) => Array.from(view.querySelectorAll("*")).indexOf(view.querySelector(sel)!);
+      return { value: at(".value"), status: at(".value-status"), spill: at("table.spill"), chart: at(".chart"), card: at(".call") };
+    });
+    expect(order.value).toBeLessThan(order.status);
+    expect(order.status).toBeLessThan(order.spill);
+    expect(order.spill).toBeLessThan(order.chart);
+    expect(order.chart).toBeLessThan(order.card);
+    // The operating point (flow and head) and the warning's hint are on the first screen of the pane's body.
+    const onFirstScreen = await p.evaluate(() => {
+      const body = document.querySelector(".pane-body")!.getBoundingClientRect();
+      const r = (sel: string) => document.querySelector(".cell-view " + sel)!.getBoundingClientRect();
+      return [".value", ".value-status", "table.spill"].map((sel) => [sel, r(sel).bottom <= body.bottom && r(sel).top >= body.top]);
+    });
+    expect(onFirstScreen).toEqual([[".value", true], [".value-status", true], ["table.spill", true]]);
+    await containsText(p.locator(".value-status"), 'Unit check: E4, under "Length (m)"');
+    await containsText(p.locator(".cell-view table.spill"), "87.46");
+    // The legend is a list under the chart, every curve in it; the plot keeps the chart's height.
+    const series = (await p.locator(".cell-view .chart").first().getAttribute("data-series"))!.split("|").filter((n) => !n.endsWith("(points)"));
+    const legend = await p.locator(".cell-view .chart-legend").first().locator("li").allInnerTexts();
+    expect(legend.filter((t) => series.includes(t.trim())).length).toBe(series.filter((n) => !/^NPSH/.test(n)).length);
+    expect((await p.locator(".cell-view .chart canvas").first().boundingBox())!.height).toBeGreaterThanOrEqual(260);
+    // The argument table's "read as" and base values typeset units, never with carets (the column "as written" keeps the formula's text).
+    const readAs = await p.locator(".cell-view table.args").first().locator(".read, .why, td.base").allInnerTexts();
+    expect(readAs.join(" ")).toContain("m³/h");
+    expect(readAs.join(" ")).not.toMatch(/\^/);
+    await p.locator("#app").screenshot({ path: join(shots, "pane-350-first-screen.png") });
+    // Scrolled down, then another cell: it opens at its top.
+    await p.evaluate(() => (document.querySelector(".pane-body")!.scrollTop = 2000));
+    await selectCell(p, "Calc", "B9");
+    await eventually(() => p.evaluate(() => document.querySelector(".pane-body")!.scrollTop), (t) => t === 0, "the pane scrolled to the top");
+    // After a one-click fix, the follow-up offer (Fix all) is in view.
+    await selectCell(p, "Calc", "B21");
+    await p.locator(".unit-warning").getByRole("button", { name: 'Use Inputs!B14&" ft"' }).click();
+    await containsText(p.locator(".same-input"), "Fix all");
+    await eventually(
+      () => p.evaluate(() => {
+        const body = document.querySelector(".pane-body")!.getBoundingClientRect();
+        const r = document.querySelector(".same-input")!.getBoundingClientRect();
+        return r.top >= body.top - 1 && r.top < body.bottom;
+      }),
+      (inView) => inView,
+      "the Fix all offer in view",
+    );
+    await containsText(p.locator(".cell-view .value"), "0.07804 m"); // 0.256 m × 9.144/30: the 30 ft read as 9.144 m
+    await p.locator("#app").screenshot({ path: join(shots, "pane-350-after-fix.png") });
+    await context.close();
+  });
+
+  it("draws the envelope's chart with a plot at least 200 px tall at 350 px and every curve in its legend", async () => {
+    const context = await browser.newContext({ viewport: { width: 1000, height: 760 } });
+    const p = await context.newPage();
+    await p.goto(`${preview.url}?pane=350`);
+    await p.locator("table.grid").waitFor();
+    await selectCell(p, "Envelope", "A19");
+    const chart = p.locator(".cell-view .chart").first();
+    await chart.waitFor();
+    expect((await chart.locator("canvas").boundingBox())!.height).toBeGreaterThanOrEqual(260);
+    const series = (await chart.getAttribute("data-series"))!.split("|").filter((n) => !n.endsWith("(points)") && !/^NPSH/.test(n));
+    const legend = (await p.locator(".cell-view .chart-legend").first().locator("li").allInnerTexts()).map((t) => t.trim());
+    for (const name of series) expect(legend, name).toContain(name);
+    await p.locator("#app").screenshot({ path: join(shots, "pane-350-envelope-chart.png") });
+    await context.close();
+  });
+
   it("shows a spilled result as a labelled table with units, and a single result with its unit", async () => {
     await selectCell(page, "Calc", "B27");
-    const spill = page.locator(".call table.spill").first();
+    const spill = page.locator(".cell-view table.spill").first();
     await hasExactText(spill.locator("th").first(), "Impeller");
     await containsText(spill.locator("tr").first(), "Head (m)");
     await containsText(spill.locator("tr").first(), "NPSHr (m)");
@@ -338,6 +412,8 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
       const views: [string, () => Promise<void>][] = [
         ["cell-headloss", () => selectCell(p, "Calc", "B21")],
         ["cell-spill", () => selectCell(p, "Calc", "J3")],
+        ["cell-duty", () => selectCell(p, "Calc", "B28")],
+        ["cell-envelope", () => selectCell(p, "Envelope", "A19")],
         [
           "guide",
           async () => {
