@@ -258,12 +258,19 @@ function envelopeSheet(ws: ExcelJS.Worksheet): void {
   spill("A26", 'NAPPE.PUMP.MAXPOWER(Pump!H3:K9, Calc!B5, , "IEC", "m^3/h", "kW")', "A26:C27");
   put("A29", "The impellers compared over every case; the design case must deliver the duty flow (Calc!B11)", true);
   spill("A30", 'NAPPE.PUMP.SHORTLIST(Pump!A3:E21, A4:I8, A11:D12, F11:I12, , Calc!B4&" kPa", , "IEC", "m^3/h", "m", "kW", Calc!B11&" m^3/h")', "A30:K33");
-  ws.getColumn(1).width = 28;
-  for (let c = 2; c <= 11; c++) ws.getColumn(c).width = 15;
-  // The envelope's verdicts are in L; the selection table's (in K) run on into the empty L beside them.
-  ws.getColumn(12).width = 90;
-  ws.getRow(4).alignment = { wrapText: true, vertical: "top" };
-  ws.getRow(4).height = 30;
+  // Narrow number columns and wrapped verdicts (the envelope's in L, the selection table's in K),
+  // so that the sheet prints one page wide at 60 % or more on A4 and Letter.
+  ws.getColumn(1).width = 26;
+  for (let c = 2; c <= 10; c++) ws.getColumn(c).width = 11;
+  ws.getColumn(11).width = 30;
+  ws.getColumn(12).width = 30;
+  for (const r of [4, 11, 15, 19, 26, 30]) {
+    ws.getRow(r).alignment = { wrapText: true, vertical: "top" };
+    ws.getRow(r).height = r === 4 ? 42 : 30;
+  }
+  for (const address of ["L20", "L21", "L22", "L23", "K31", "K32", "K33"]) ws.getCell(address).alignment = { wrapText: true, vertical: "top" };
+  for (const r of [20, 21, 22, 23]) ws.getRow(r).height = 30;
+  for (const r of [31, 32, 33]) ws.getRow(r).height = r === 33 ? 80 : 60;
   printSetup(ws, "A1:L33", "landscape");
 }
 
@@ -285,7 +292,7 @@ function printSetup(ws: ExcelJS.Worksheet, area: string, orientation: "portrait"
     margins: { left: 0.5, right: 0.5, top: 0.6, bottom: 0.6, header: 0.3, footer: 0.3 },
     ...(titles ? { printTitlesRow: titles } : {}),
   };
-  ws.headerFooter = { oddFooter: "&L&A&RPage &P of &N" };
+  ws.headerFooter = { oddFooter: "&L&A&RPage &P" };
 }
 
 /** The demo workbook with every formula's result cached from Nappe's recalculation. */

@@ -93,7 +93,7 @@ export async function writeHandoff(source: string, target: string, result: Recal
     about.getRow(i + 1).height = Math.max(15, 15 * Math.ceil(l[0].length / 95));
   });
   about.getCell(1, 1).font = { bold: true, size: 14 };
-  about.getColumn(1).width = 100;
+  about.getColumn(1).width = 80;
   about.pageSetup = { ...about.pageSetup, orientation: "portrait", paperSize: 9, fitToPage: true, fitToWidth: 1, fitToHeight: 0 };
   // The about sheet first, the audit last; the rest keep their order.
   // exceljs writes sheets by their orderNo, a field its type declarations leave out.

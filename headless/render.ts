@@ -88,7 +88,7 @@ export function addAuditSheet(book: ExcelJS.Workbook, report: AuditReport, name 
   if (old) book.removeWorksheet(old.id);
   const ws = book.addWorksheet(name, {
     pageSetup: { orientation: "landscape", fitToPage: true, fitToWidth: 1, fitToHeight: 0, paperSize: 9, margins: { left: 0.4, right: 0.4, top: 0.5, bottom: 0.5, header: 0.3, footer: 0.3 } },
-    headerFooter: { oddFooter: "&L&A&RPage &P of &N" },
+    headerFooter: { oddFooter: "&L&A&RPage &P" },
   });
   const total = AUDIT_WIDTHS.reduce((a, b) => a + b, 0);
   const { rows, headerRow, preamble, blockHeaders } = auditSheetRows(report);
