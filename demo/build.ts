@@ -209,11 +209,12 @@ function layout(): ExcelJS.Workbook {
     ws.getColumn(1).width = ws === pump ? 14 : 44;
     for (let c = 2; c <= 11; c++) ws.getColumn(c).width = 14;
   }
-  calc.getColumn(4).width = 14;
+  // Calc prints landscape one page wide at 70 % or more: its number columns narrower than the others'.
+  for (let c = 2; c <= 8; c++) calc.getColumn(c).width = 12;
   calc.getColumn(9).width = 3;
   pump.getColumn(6).width = 3;
   pump.getColumn(7).width = 3;
-  inputs.getColumn(4).width = 48;
+  inputs.getColumn(4).width = 40;
   for (let r = 4; r < 4 + INPUTS.length; r++) inputs.getCell(r, 4).alignment = { wrapText: true, vertical: "top" };
   summary.getColumn(4).width = 30;
   printSetup(summary, `A1:D${2 + SUMMARY.length}`, "portrait");
@@ -260,17 +261,18 @@ function envelopeSheet(ws: ExcelJS.Worksheet): void {
   spill("A30", 'NAPPE.PUMP.SHORTLIST(Pump!A3:E21, A4:I8, A11:D12, F11:I12, , Calc!B4&" kPa", , "IEC", "m^3/h", "m", "kW", Calc!B11&" m^3/h")', "A30:K33");
   // Narrow number columns and wrapped verdicts (the envelope's in L, the selection table's in K),
   // so that the sheet prints one page wide at 60 % or more on A4 and Letter.
-  ws.getColumn(1).width = 26;
-  for (let c = 2; c <= 10; c++) ws.getColumn(c).width = 11;
-  ws.getColumn(11).width = 30;
-  ws.getColumn(12).width = 30;
+  ws.getColumn(1).width = 22;
+  for (let c = 2; c <= 10; c++) ws.getColumn(c).width = 10;
+  ws.getColumn(11).width = 24;
+  ws.getColumn(12).width = 24;
   for (const r of [4, 11, 15, 19, 26, 30]) {
     ws.getRow(r).alignment = { wrapText: true, vertical: "top" };
-    ws.getRow(r).height = r === 4 ? 42 : 30;
+    ws.getRow(r).height = r === 4 ? 42 : 28;
   }
   for (const address of ["L20", "L21", "L22", "L23", "K31", "K32", "K33"]) ws.getCell(address).alignment = { wrapText: true, vertical: "top" };
-  for (const r of [20, 21, 22, 23]) ws.getRow(r).height = 30;
-  for (const r of [31, 32, 33]) ws.getRow(r).height = r === 33 ? 80 : 60;
+  for (const r of [20, 21, 22, 23]) ws.getRow(r).height = 26;
+  for (const r of [9, 13, 17, 24, 28]) ws.getRow(r).height = 8;
+  for (const r of [31, 32, 33]) ws.getRow(r).height = r === 33 ? 80 : 50;
   printSetup(ws, "A1:L33", "landscape");
 }
 
@@ -288,6 +290,8 @@ function printSetup(ws: ExcelJS.Worksheet, area: string, orientation: "portrait"
     fitToPage: true,
     fitToWidth: 1,
     fitToHeight: 0,
+    // Each sheet's pages numbered from 1 (without it LibreOffice numbers on from the sheet before).
+    firstPageNumber: 1,
     horizontalCentered: false,
     margins: { left: 0.5, right: 0.5, top: 0.6, bottom: 0.6, header: 0.3, footer: 0.3 },
     ...(titles ? { printTitlesRow: titles } : {}),

@@ -94,7 +94,7 @@ export async function writeHandoff(source: string, target: string, result: Recal
   });
   about.getCell(1, 1).font = { bold: true, size: 14 };
   about.getColumn(1).width = 80;
-  about.pageSetup = { ...about.pageSetup, orientation: "portrait", paperSize: 9, fitToPage: true, fitToWidth: 1, fitToHeight: 0 };
+  about.pageSetup = { ...about.pageSetup, orientation: "portrait", paperSize: 9, fitToPage: true, fitToWidth: 1, fitToHeight: 0, firstPageNumber: 1 };
   // The about sheet first, the audit last; the rest keep their order.
   // exceljs writes sheets by their orderNo, a field its type declarations leave out.
   const ordered = (w: ExcelJS.Worksheet) => w as ExcelJS.Worksheet & { orderNo: number };

@@ -87,7 +87,7 @@ export function addAuditSheet(book: ExcelJS.Workbook, report: AuditReport, name 
   const old = book.getWorksheet(name);
   if (old) book.removeWorksheet(old.id);
   const ws = book.addWorksheet(name, {
-    pageSetup: { orientation: "landscape", fitToPage: true, fitToWidth: 1, fitToHeight: 0, paperSize: 9, margins: { left: 0.4, right: 0.4, top: 0.5, bottom: 0.5, header: 0.3, footer: 0.3 } },
+    pageSetup: { orientation: "landscape", fitToPage: true, fitToWidth: 1, fitToHeight: 0, firstPageNumber: 1, paperSize: 9, margins: { left: 0.4, right: 0.4, top: 0.5, bottom: 0.5, header: 0.3, footer: 0.3 } },
     headerFooter: { oddFooter: "&L&A&RPage &P" },
   });
   const total = AUDIT_WIDTHS.reduce((a, b) => a + b, 0);
@@ -106,13 +106,21 @@ export function addAuditSheet(book: ExcelJS.Workbook, report: AuditReport, name 
     row.height = 15 * wrappedLines(text, total);
   });
   // The summary: key results and inputs, each a heading, a header row and rows.
+  // Widths of the summary's columns: the value spans C to E, a heading's description B to the end.
+  const valueWidth = AUDIT_WIDTHS[2] + AUDIT_WIDTHS[3] + AUDIT_WIDTHS[4];
+  const restWidth = total - AUDIT_WIDTHS[0];
   rows.slice(preamble, headerRow).forEach((cells, k) => {
     const i = preamble + k;
     const row = ws.addRow(cells);
     row.alignment = { wrapText: true, vertical: "top" };
+    const heading = blockHeaders.includes(i + 1) || i === headerRow - 1;
+    if (heading && cells.length > 1) ws.mergeCells(row.number, 2, row.number, AUDIT_COLUMNS.length);
+    else if (cells.length > 3) ws.mergeCells(row.number, 3, row.number, 5);
     if (blockHeaders.includes(i)) headerStyle(row);
-    else if (blockHeaders.includes(i + 1) || i === headerRow - 1) row.font = { bold: true, size: 12 };
-    else row.height = Math.min(409, 15 * Math.max(1, ...cells.map((text, j) => wrappedLines(text, AUDIT_WIDTHS[j]))));
+    else if (heading) {
+      row.font = { bold: true, size: 12 };
+      row.height = 18 * Math.max(1, wrappedLines(cells[1] ?? "", restWidth));
+    } else row.height = Math.min(409, 15 * Math.max(1, ...cells.map((text, j) => wrappedLines(text, j === 2 ? valueWidth : AUDIT_WIDTHS[j]))));
   });
   headerStyle(ws.addRow(rows[headerRow]));
   for (const row of rows.slice(headerRow + 1)) {

@@ -9,6 +9,7 @@
  * Needs Debian's libreoffice-calc-nogui (`soffice`). Without it these tests are skipped with a
  * notice; `.ci/run` installs it and sets NAPPE_REQUIRE_LIBREOFFICE=1, so there they fail instead.
  */
+import { execFileSync } from "node:child_process";
 import { readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import ExcelJS from "exceljs";
@@ -97,7 +98,56 @@ describe.skipIf(!soffice)("LibreOffice, a second spreadsheet engine", () => {
     const boxes = [...pdf.matchAll(/\/MediaBox\s*\[\s*0 0 ([\d.]+) ([\d.]+)\s*\]/g)].map((m) => [Number(m[1]), Number(m[2])]);
     expect(boxes.length).toBeGreaterThan(0);
     for (const [w, h] of boxes) expect(w).toBeGreaterThan(h);
-    expect(pdfPages(join(dir, "audit.pdf"))).toBeLessThan(20);
+    // 34 formulas with their derivations, printed at 7 pt or more (the test below): about 20 pages.
+    expect(pdfPages(join(dir, "audit.pdf"))).toBeLessThan(30);
+  });
+
+  it("prints the demo, the hand-off copy and the audit workbook with no text under 7 pt on any page", async () => {
+    const dir = tempDir();
+    const copy = join(dir, "handoff.xlsx");
+    expect((await nappe("handoff", join(root, "demo", DEMO_FILE), "--out", copy)).code).toBe(0);
+    expect((await nappe("audit", join(root, "demo", DEMO_FILE), "--html", join(dir, "a.html"), "--xlsx", join(dir, "audit.xlsx"))).code).toBe(0);
+    const demo = join(dir, DEMO_FILE);
+    writeFileSync(demo, readFileSync(join(root, "demo", DEMO_FILE)));
+    convert([demo, copy, join(dir, "audit.xlsx")], "pdf", dir);
+    for (const name of [DEMO_FILE.replace(/\.xlsx$/, ".pdf"), "handoff.pdf", "audit.pdf"]) {
+      // Each word's box from poppler's pdftotext -bbox. A word's box is 1.3 times its font size
+      // (measured here: 11 pt text printed at 100 % gives boxes 14.3 pt tall), so 7 pt is 9.1.
+      execFileSync("pdftotext", ["-bbox", join(dir, name), join(dir, `${name}.html`)]);
+      const pages = readFileSync(join(dir, `${name}.html`), "utf8").split("<page ").slice(1);
+      pages.forEach((page, i) => {
+        const heights = [...page.matchAll(/yMin="([\d.]+)" xMax="[\d.]+" yMax="([\d.]+)">([^<]*)</g)].map((m) => ({ h: Number(m[2]) - Number(m[1]), word: m[3] }));
+        const smallest = heights.reduce((a, b) => (b.h < a.h ? b : a), { h: Infinity, word: "" });
+        expect(smallest.h / 1.3, `${name} page ${i + 1}: "${smallest.word}" at ${(smallest.h / 1.3).toFixed(1)} pt`).toBeGreaterThanOrEqual(7);
+      });
+    }
+  });
+
+  it("shows no number with more than 6 significant figures in the hand-off copy or the demo, but in their Exact columns", async () => {
+    const dir = tempDir();
+    const copy = join(dir, "handoff.xlsx");
+    expect((await nappe("handoff", join(root, "demo", DEMO_FILE), "--out", copy)).code).toBe(0);
+    const demo = join(dir, "demo.xlsx");
+    writeFileSync(demo, readFileSync(join(root, "demo", DEMO_FILE)));
+    // Values as shown (the ninth field of the filter: true), every sheet.
+    execFileSync(soffice!, [`-env:UserInstallation=file://${join(dir, ".profile")}`, "--headless", "--norestore", "--convert-to", "csv:Text - txt - csv (StarCalc):44,34,UTF8,1,,0,false,true,true,false,false,-1", "--outdir", dir, copy, demo], { stdio: "pipe", timeout: 180_000 });
+    const files = readdirSync(dir).filter((f) => f.endsWith(".csv"));
+    expect(files.length).toBeGreaterThan(10);
+    const long: string[] = [];
+    for (const f of files) {
+      const rows = readCsv(join(dir, f));
+      const exact = new Set(rows.flatMap((r) => r.map((c, j) => (/^exact$/i.test(c.trim()) ? j : -1)).filter((j) => j >= 0)));
+      rows.forEach((r, i) =>
+        r.forEach((c, j) => {
+          if (exact.has(j)) return;
+          for (const m of c.matchAll(/\d[\d.]*(?:[eE][+-]?\d+)?/g)) {
+            const digits = m[0].split(/[eE]/)[0].replace(/\D/g, "").replace(/^0+/, "");
+            if (digits.length > 6 && !/^\d{4}-\d{2}-\d{2}/.test(c)) long.push(`${f} row ${i + 1}, column ${j + 1}: ${c.slice(0, 60)}`);
+          }
+        }),
+      );
+    }
+    expect(long).toEqual([]);
   });
 
   it("computes the plain formulas Nappe's engine supports to the same values", async () => {

@@ -95,7 +95,7 @@ export function buildAudit(cells: readonly CellOutcome[], meta: { title: string;
 export const AUDIT_COLUMNS = ["Cell", "Formula", "Status", "Result", "Exact", "Function and purpose", "Inputs (as written → as read)", "Warnings, assumptions, sources, cautions"];
 
 /** Column widths of the audit sheet, in characters (about 220 in all: landscape A4 or Letter at 65 % or more). */
-export const AUDIT_WIDTHS = [16, 32, 9, 16, 18, 30, 44, 55];
+export const AUDIT_WIDTHS = [12, 25, 8, 12, 14, 23, 31, 38];
 
 /** Said at the top of an audit that found nothing to check. */
 export const NOTHING_FOUND = "No NAPPE formulas found in this workbook: nothing was checked.";
@@ -152,15 +152,16 @@ export function auditSheetRows(report: AuditReport): { rows: string[][]; headerR
   if (s && s.results.length) {
     rows.push([KEY_RESULTS, s.basis]);
     blockHeaders.push(rows.length);
-    rows.push(["Cell", "Label", "Value", "Exact"]);
-    for (const r of s.results) rows.push([r.cell, r.label, r.value, r.exact]);
+    // The value takes the room of three of the table's columns (C to E; merged in the printed sheet).
+    rows.push(["Cell", "Label", "Value", "", "", "Exact"]);
+    for (const r of s.results) rows.push([r.cell, r.label, r.value, "", "", r.exact]);
     rows.push([]);
   }
   if (s && s.inputs.length) {
     rows.push([INPUTS, "The constant cells the NAPPE formulas read, and how each was read."]);
     blockHeaders.push(rows.length);
-    rows.push(["Cell", "Label", "Value", "Exact", "Read as"]);
-    for (const r of s.inputs) rows.push([r.cell, r.label, r.value, r.exact, r.readAs]);
+    rows.push(["Cell", "Label", "Value", "", "", "Exact", "Read as"]);
+    for (const r of s.inputs) rows.push([r.cell, r.label, r.value, "", "", r.exact, r.readAs]);
     rows.push([]);
   }
   if (blockHeaders.length) rows.push(["Every NAPPE formula, with its derivation"]);

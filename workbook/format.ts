@@ -46,7 +46,8 @@ export function formatNumber(x: number, digits = figures): string {
  * a scientific code outside 0.001 to 1e6. Whole numbers show no decimals.
  */
 export function numberFormatFor(x: number, digits = figures): string {
-  if (!Number.isFinite(x) || x === 0 || Number.isInteger(x)) return "0";
+  // A whole number, or one within rounding noise of it (a motor rating of 15.00000000088 kW), shows no decimals.
+  if (!Number.isFinite(x) || x === 0 || Number.isInteger(x) || (Math.abs(x) >= 1 && Math.abs(x - Math.round(x)) <= 1e-9 * Math.abs(x))) return "0";
   const size = Math.abs(Number(x.toPrecision(digits)));
   if (size < 0.001 || size >= 1e6) return `0.${"0".repeat(digits - 1)}E+00`;
   const decimals = Math.max(0, digits - 1 - Math.floor(Math.log10(size)));
