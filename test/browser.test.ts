@@ -368,6 +368,8 @@ describe.runIf(hasChromium)("preview page in Chromium", () => {
       "the Fix all offer in view",
     );
     await containsText(p.locator(".cell-view .value"), "0.07804 m"); // 0.256 m × 9.144/30: the 30 ft read as 9.144 m
+    // The derivation is worked again with the length read in ft (0.07804 m is 0.2560 ft).
+    await containsText(p.locator(".cell-view .call .substituted").first(), "(30 ft/0.5054 ft)");
     await p.locator("#app").screenshot({ path: join(shots, "pane-350-after-fix.png") });
     await context.close();
   });

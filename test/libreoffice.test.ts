@@ -121,6 +121,19 @@ describe.skipIf(!soffice)("LibreOffice, a second spreadsheet engine", () => {
         expect(smallest.h / 1.3, `${name} page ${i + 1}: "${smallest.word}" at ${(smallest.h / 1.3).toFixed(1)} pt`).toBeGreaterThanOrEqual(7);
       });
     }
+    // No header cut: every word of the Envelope sheet's headings is printed whole on the hand-off copy's page of it.
+    const pages = readFileSync(join(dir, "handoff.pdf.html"), "utf8").split("<page ").slice(1);
+    const envelopePage = pages.find((p) => p.includes(">Envelope</word>"))!; // the footer names the sheet
+    const words = new Set([...envelopePage.matchAll(/>([^<]+)<\/word>/g)].map((m) => m[1].replace(/&amp;/g, "&")));
+    const values = recalculate(await readWorkbook(join(root, "demo", DEMO_FILE)), { all: true });
+    const headings = ["A4", "A11", "A19", "A26", "A30"].flatMap((a) => {
+      const v = values.valueOf("Envelope", a);
+      return Array.isArray(v) ? v[0].map(String) : [];
+    });
+    // A word may wrap at its hyphen (End-of- / curve): its parts are then printed whole.
+    const printed = (w: string) => words.has(w) || (w.includes("-") && w.split("-").every((part) => !part || [...words].some((x) => x.includes(part))));
+    const cut = headings.flatMap((h) => h.split(/\s+/).filter((w) => w && !printed(w)).map((w) => `${w} (of "${h}")`));
+    expect(cut).toEqual([]);
   });
 
   it("shows no number with more than 6 significant figures in the hand-off copy or the demo, but in their Exact columns", async () => {
