@@ -16,9 +16,9 @@ export const ACCEPTANCE_CELLS = ["Calc!B9", "Calc!B21", "Calc!B28", "Calc!B31", 
 
 export const CHROMIUM = "/usr/bin/chromium";
 
-/** Starts the preview of the demo workbook on a free port. */
-export async function startPreview(): Promise<{ url: string; server: ChildProcess }> {
-  const server = spawn(process.execPath, ["--import", "tsx", "scripts/preview.ts", "--port", "0", "--no-open"], { cwd: root, stdio: ["ignore", "pipe", "pipe"] });
+/** Starts the preview of the demo workbook (or the one given) on a free port. */
+export async function startPreview(file?: string): Promise<{ url: string; server: ChildProcess }> {
+  const server = spawn(process.execPath, ["--import", "tsx", "scripts/preview.ts", "--port", "0", "--no-open", ...(file ? [file] : [])], { cwd: root, stdio: ["ignore", "pipe", "pipe"] });
   const url = await new Promise<string>((resolve, reject) => {
     let out = "";
     const timer = setTimeout(() => reject(new Error(`preview server did not start: ${out}`)), 120_000);

@@ -4,12 +4,13 @@
  * tests are skipped with a loud notice, unless NAPPE_REQUIRE_BROWSER=1 (as .ci/run sets), when
  * they fail instead.
  */
-import { type ChildProcess, spawn } from "node:child_process";
+import type { ChildProcess } from "node:child_process";
 import { existsSync, mkdirSync, mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import ExcelJS from "exceljs";
 import { type Browser, chromium, type Locator, type Page } from "playwright-core";
+import { startPreview } from "../scripts/acceptance";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { DEMO_FILE } from "../demo/build";
 import { renderHtml } from "../headless/renderHtml";
@@ -28,25 +29,6 @@ if (!hasChromium) {
   const notice = `\n${"!".repeat(78)}\n! BROWSER TESTS SKIPPED: ${CHROMIUM} is missing (apt-get install -y chromium).\n${"!".repeat(78)}\n`;
   if (required) throw new Error(`NAPPE_REQUIRE_BROWSER=1 but ${CHROMIUM} is missing`);
   console.warn(notice);
-}
-
-async function startPreview(file?: string): Promise<{ url: string; server: ChildProcess }> {
-  const server = spawn(process.execPath, ["--import", "tsx", "scripts/preview.ts", "--port", "0", ...(file ? [file] : [])], { cwd: root, stdio: ["ignore", "pipe", "pipe"] });
-  const url = await new Promise<string>((resolve, reject) => {
-    let out = "";
-    const timer = setTimeout(() => reject(new Error(`preview server did not start: ${out}`)), 30000);
-    server.stdout!.on("data", (d) => {
-      out += String(d);
-      const m = /(http:\/\/127\.0\.0\.1:\d+\/preview\.html)/.exec(out);
-      if (m) {
-        clearTimeout(timer);
-        resolve(m[1]);
-      }
-    });
-    server.stderr!.on("data", (d) => (out += String(d)));
-    server.on("exit", (code) => reject(new Error(`preview server exited (${code}): ${out}`)));
-  });
-  return { url, server };
 }
 
 /** Waits until `read` gives a value that passes `check` (Playwright's own matchers are not vitest's). */

@@ -18,7 +18,7 @@
  * chunk of its own.
  */
 import type { Node, CellNode } from "./parser";
-import { compareScalars, err, FormulaError, generalNumber, Lambda, MAX_COLUMN, MAX_ROW, numbersEqual, Ref, type Scalar, toLogical, toNumber, toText, type Value, XArray, type ErrorCode, finite } from "./values";
+import { compareScalars, err, FormulaError, generalNumber, holds, Lambda, MAX_COLUMN, MAX_ROW, numbersEqual, Ref, type Scalar, toLogical, toNumber, toText, type Value, XArray, type ErrorCode, finite } from "./values";
 
 /** What the evaluator asks of the workbook. */
 export interface Host {
@@ -206,21 +206,7 @@ function arithmetic(op: string, a: Scalar, b: Scalar): Scalar {
 function comparison(op: string, a: Scalar, b: Scalar): Scalar {
   if (a instanceof FormulaError) return a;
   if (b instanceof FormulaError) return b;
-  const d = compareScalars(a, b);
-  switch (op) {
-    case "=":
-      return d === 0;
-    case "<>":
-      return d !== 0;
-    case "<":
-      return d < 0;
-    case ">":
-      return d > 0;
-    case "<=":
-      return d <= 0;
-    default:
-      return d >= 0;
-  }
+  return holds(op, compareScalars(a, b));
 }
 
 function concatenate(a: Scalar, b: Scalar): Scalar {

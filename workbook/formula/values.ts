@@ -163,6 +163,24 @@ export function compareScalars(a: Exclude<Scalar, FormulaError>, b: Exclude<Scal
   return x === y ? 0 : x < y ? -1 : 1;
 }
 
+/** Whether a comparison operator (= <> < > <= >=) holds for the sign of a comparison's result. */
+export function holds(op: string, d: number): boolean {
+  switch (op) {
+    case "=":
+      return d === 0;
+    case "<>":
+      return d !== 0;
+    case "<":
+      return d < 0;
+    case ">":
+      return d > 0;
+    case "<=":
+      return d <= 0;
+    default:
+      return d >= 0;
+  }
+}
+
 /** Excel's = on numbers: equal to 15 significant figures (documented: Excel keeps 15 digits of precision). */
 export function numbersEqual(a: number, b: number): boolean {
   if (a === b) return true;

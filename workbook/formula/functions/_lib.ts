@@ -6,7 +6,7 @@
  */
 import type { ArgKind, Ctx, FnDef } from "../evaluate";
 import { asArray } from "../evaluate";
-import { compareScalars, err, FormulaError, generalNumber, numberFromText, toLogical, Ref, type Scalar, toNumber, type Value, XArray } from "../values";
+import { compareScalars, err, FormulaError, generalNumber, holds, numberFromText, toLogical, Ref, type Scalar, toNumber, type Value, XArray } from "../values";
 
 export type Defs = Record<string, FnDef>;
 
@@ -199,12 +199,12 @@ export function criterion(crit: Scalar): Criterion {
         return op === "=" && typeof x === "string" && numberFromText(x) === n;
       }
       const d = compareScalars(x, n);
-      return test(op, d);
+      return holds(op, d);
     };
   }
   if (upper === "TRUE" || upper === "FALSE") {
     const b = upper === "TRUE";
-    return (x) => (typeof x === "boolean" ? test(op, x === b ? 0 : x ? 1 : -1) : op === "<>");
+    return (x) => (typeof x === "boolean" ? holds(op, x === b ? 0 : x ? 1 : -1) : op === "<>");
   }
   const errorCode = /^#/.test(rest) ? upper : undefined;
   if (errorCode) return (x) => (x instanceof FormulaError ? (x.error === errorCode) === (op === "=") : op === "<>");
@@ -214,25 +214,9 @@ export function criterion(crit: Scalar): Criterion {
     const eq = (x: Scalar) => typeof x === "string" && (re ? re.test(x) : x.toLowerCase() === lower);
     return op === "=" ? eq : (x) => !eq(x);
   }
-  return (x) => typeof x === "string" && test(op, compareScalars(x, rest));
+  return (x) => typeof x === "string" && holds(op, compareScalars(x, rest));
 }
 
-function test(op: string, d: number): boolean {
-  switch (op) {
-    case "=":
-      return d === 0;
-    case "<>":
-      return d !== 0;
-    case "<":
-      return d < 0;
-    case ">":
-      return d > 0;
-    case "<=":
-      return d <= 0;
-    default:
-      return d >= 0;
-  }
-}
 
 /** A range of a criteria function as a reference or array (a range the same size as another is read from its top left). */
 export function sameShape(v: Value, like: Ref | XArray, c: Ctx): XArray {
