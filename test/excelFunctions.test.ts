@@ -117,6 +117,11 @@ describe("no silent wrong values (each failed on the formula engine before our o
     expect(got[18]).toBe(28.4);
     expect(got[19]).toBe(12);
   });
+  it("reads INDIRECT's text only as a reference: a function, an operator or a name in it is #REF!, never computed", () => {
+    const r = recalculate(modelWith({ A1: { v: 5 }, B1: { f: 'INDIRECT("A1")' }, B2: { f: 'INDIRECT("A1:INDEX(A1:A3,2)")' }, B3: { f: 'INDIRECT("SUM(A1)")' }, B4: { f: 'INDIRECT("A1+1")' }, B5: { f: 'INDIRECT("HeadAt")' }, B6: { f: 'INDIRECT("R0C1",FALSE)' } }), { all: true });
+    expect(r.valueOf("Calc", "B1")).toBe(5);
+    for (const a of ["B2", "B3", "B4", "B5", "B6"]) expect({ a, v: r.valueOf("Calc", a) }).toEqual({ a, v: "#REF!" });
+  });
   it("says which function it does not compute, never a value", () => {
     const r = recalculate(modelWith({ A1: { f: "CUBEVALUE(\"x\")" }, A2: { f: "A1+1" } }), { all: true });
     expect(r.cells.find((x) => x.address === "A1")!.messages.join(" ")).toMatch(/unsupported function CUBEVALUE/);

@@ -105,13 +105,14 @@ function paramKey(written: string): string {
 // ---------------------------------------------------------------------------------------------
 // Values in and out
 
-/** Implicit intersection: the one cell of a range in the formula's row or column. */
+/**
+ * Implicit intersection: the one cell of a range in the formula's row or column. A range on
+ * another sheet is crossed by the formula's row or column number, as Excel does.
+ */
 export function intersect(ref: Ref, c: Ctx): Scalar {
   if (ref.r1 === ref.r2 && ref.c1 === ref.c2) return c.host.cell(ref.sheet, ref.r1, ref.c1);
-  if (ref.sheet.toLowerCase() === c.sheet.toLowerCase() || true) {
-    if (ref.c1 === ref.c2 && c.row >= ref.r1 && c.row <= ref.r2) return c.host.cell(ref.sheet, c.row, ref.c1);
-    if (ref.r1 === ref.r2 && c.col >= ref.c1 && c.col <= ref.c2) return c.host.cell(ref.sheet, ref.r1, c.col);
-  }
+  if (ref.c1 === ref.c2 && c.row >= ref.r1 && c.row <= ref.r2) return c.host.cell(ref.sheet, c.row, ref.c1);
+  if (ref.r1 === ref.r2 && c.col >= ref.c1 && c.col <= ref.c2) return c.host.cell(ref.sheet, ref.r1, c.col);
   return err("#VALUE!", "the range does not cross the formula's row or column (implicit intersection; enter it as an array formula to use every value)");
 }
 

@@ -140,15 +140,21 @@ function transpose(a: XArray): XArray {
   return XArray.of(Array.from({ length: a.cols }, (_, j) => a.data.map((row) => row[j])));
 }
 
-/** A reference written as text (INDIRECT): A1 style, or R1C1 with absolute row and column numbers. */
+/**
+ * A reference written as text (INDIRECT): A1 style (a cell, a range, whole columns or rows, with
+ * or without a sheet), or R1C1 with absolute row and column numbers. The text is only ever read
+ * as a reference: anything else in it (a function, an operator, a name) is #REF!, never evaluated.
+ */
 function referenceFromText(s: string, a1: boolean, c: Ctx): Value {
   let t = s.trim();
+  const notRef = () => err("#REF!", `INDIRECT: "${s}" is not a reference`);
   if (!a1) {
     const m = /^(?:(.*)!)?R(\d+)C(\d+)(?::R(\d+)C(\d+))?$/i.exec(t);
     if (!m) return err("#REF!", `INDIRECT: "${s}" is not an R1C1 reference`);
     const sheet = m[1] ? m[1].replace(/^'(.*)'$/, "$1").replace(/''/g, "'") : c.sheet;
     const [r1, c1] = [Number(m[2]), Number(m[3])];
     const [r2, c2] = m[4] ? [Number(m[4]), Number(m[5])] : [r1, c1];
+    if (Math.min(r1, r2, c1, c2) < 1 || Math.max(r1, r2) > MAX_ROW || Math.max(c1, c2) > MAX_COLUMN) return notRef();
     return new Ref(sheet, Math.min(r1, r2), Math.min(c1, c2), Math.max(r1, r2), Math.max(c1, c2));
   }
   if (t.startsWith("=")) t = t.slice(1);
@@ -156,11 +162,12 @@ function referenceFromText(s: string, a1: boolean, c: Ctx): Value {
   try {
     tree = parse(t);
   } catch {
-    return err("#REF!", `INDIRECT: "${s}" is not a reference`);
+    return notRef();
   }
-  if (!["cell", "area", "cols", "rows", "name", "range"].includes(tree.k)) return err("#REF!", `INDIRECT: "${s}" is not a reference`);
+  // Plain reference nodes only: compiling them builds a Ref and reads nothing else.
+  if (!["cell", "area", "cols", "rows"].includes(tree.k)) return notRef();
   const v = compileTree(tree)(c);
-  return v instanceof Ref ? v : err("#REF!", `INDIRECT: "${s}" is not a reference`);
+  return v instanceof Ref ? v : notRef();
 }
 
 function lookupRows(table: XArray, byRow: boolean): { keys: Scalar[]; pick: (i: number, k: number) => Scalar; width: number } {
