@@ -14,11 +14,8 @@
  */
 import { basename, extname, join, resolve } from "node:path";
 import { parseArgs as parseCommandLine } from "node:util";
-import { type AuditReport, buildAudit, GENERAL_CAUTIONS } from "../workbook/audit";
-import { readAsLabelled } from "../workbook/slips";
-import { parseAddress } from "../workbook/model";
-import { inSiBaseUnits } from "../functions/units/quantity";
-import { demoSummaryLines, type Slip, wrap } from "./demoSummary";
+import { buildAudit, GENERAL_CAUTIONS } from "../workbook/audit";
+import { demoSummaryLines, slipsOf, wrap } from "./demoSummary";
 import { setSignificantFigures } from "../workbook/format";
 import { writeAtomically } from "./atomic";
 import { Budget, DEFAULT_LIMITS, type Limits } from "./package";
@@ -233,30 +230,6 @@ async function main(argv: string[]): Promise<number> {
     default:
       throw new UsageError(`unknown command "${opts.command}"\n\n${USAGE}`);
   }
-}
-
-/**
- * Inputs the unit check flags as a bare number read in another unit than its label declares, each
- * with the workbook recalculated as the label says (a linear unit only).
- */
-function slipsOf(wb: WorkbookModel, report: AuditReport): Slip[] {
-  const seen = new Map<string, { sheet: string; address: string; text: string; unit: string }>();
-  for (const e of report.entries)
-    for (const call of e.calls)
-      for (const f of call.unitFindings) if (f.unit && f.label) seen.set(`${f.label.sheet}!${f.label.address}`, { ...f.label, unit: f.unit });
-  const slips: Slip[] = [];
-  for (const [cell, s] of seen) {
-    let base: { value: number; unit: string };
-    try {
-      if (inSiBaseUnits(0, s.unit).value !== 0) continue; // a scale with an offset (°F) is not a factor
-      base = inSiBaseUnits(1, s.unit);
-    } catch {
-      continue;
-    }
-    const value = wb.sheets.find((x) => x.name === s.sheet)?.cells.get(`${parseAddress(s.address).row}:${parseAddress(s.address).col}`)?.value ?? null;
-    slips.push({ cell, label: s.text, value, labelled: s.unit, readAs: base.unit, fixed: recalculate(readAsLabelled(wb, s, base.value), { all: true }) });
-  }
-  return slips;
 }
 
 /** The main job: build the demo workbook, recalculate it, print the sizing summary, write the audit. */

@@ -6,14 +6,17 @@
  * unit check flags is marked ‡, and a note gives what it becomes once that input is read in the
  * unit its label declares. Lines fit 80 columns.
  */
-import type { RecalcResult } from "../workbook/recalc";
-import type { CellValue, WorkbookModel } from "../workbook/model";
+import { recalculate, type RecalcResult } from "../workbook/recalc";
+import { type CellValue, getCell, parseAddress, type WorkbookModel } from "../workbook/model";
+import type { AuditReport } from "../workbook/audit";
+import { readAsLabelled } from "../workbook/slips";
+import { inSiBaseUnits } from "../functions/units/quantity";
 import { formatNumber, formatPercent, formatUnit, formatValue } from "../workbook/format";
 
 const WIDTH = 80;
 
 /** An input the unit check flags, read as its label says in `fixed`. */
-export interface Slip {
+interface Slip {
   /** "Inputs!B14" */
   cell: string;
   label: string;
@@ -23,6 +26,31 @@ export interface Slip {
   readAs: string;
   /** The recalculation with the input read as labelled. */
   fixed: RecalcResult;
+}
+
+/**
+ * Inputs the unit check flags as a bare number read in another unit than its label declares, each
+ * with the workbook recalculated as the label says (a linear unit only).
+ */
+export function slipsOf(wb: WorkbookModel, report: AuditReport): Slip[] {
+  const seen = new Map<string, { sheet: string; address: string; text: string; unit: string }>();
+  for (const e of report.entries)
+    for (const call of e.calls)
+      for (const f of call.unitFindings) if (f.unit && f.label) seen.set(`${f.label.sheet}!${f.label.address}`, { ...f.label, unit: f.unit });
+  const slips: Slip[] = [];
+  for (const [cell, s] of seen) {
+    let base: { value: number; unit: string };
+    try {
+      if (inSiBaseUnits(0, s.unit).value !== 0) continue; // a scale with an offset (°F) is not a factor
+      base = inSiBaseUnits(1, s.unit);
+    } catch {
+      continue;
+    }
+    const { row, col } = parseAddress(s.address);
+    const value = getCell(wb, s.sheet, row, col)?.value ?? null;
+    slips.push({ cell, label: s.text, value, labelled: s.unit, readAs: base.unit, fixed: recalculate(readAsLabelled(wb, s, base.value), { all: true }) });
+  }
+  return slips;
 }
 
 /** Words wrapped to the width, each line after the first indented. */

@@ -213,22 +213,13 @@ export class Recalculation implements Host {
   cell(sheetName: string, row: number, col: number): Scalar {
     const v = this.valueAt(sheetName, row, col);
     if (Array.isArray(v)) return (v[0]?.[0] ?? null) as Scalar;
-    if (typeof v === "string") {
-      if (v.charCodeAt(0) === 35 && ERROR_TEXT.test(v)) {
-        const sheet = this.sheet(sheetName);
-        const c = sheet && this.cellAt(sheet, row, col);
-        if (!c?.formula) return new FormulaError(v as never, `${v} stored in ${sheetName}!${addressOf(row, col)}`);
-      } else if (v.length >= 10 && v.charCodeAt(4) === 45) {
-        const sheet = this.sheet(sheetName);
-        const c = sheet && this.cellAt(sheet, row, col);
-        if (c?.numFmt && !c.formula) return serialFromIso(v) ?? v;
-      }
-    }
-    return v as Scalar;
-  }
-
-  area(ref: Ref): XArray {
-    return this.rangeValues(ref);
+    if (typeof v !== "string" || !(v.charCodeAt(0) === 35 || (v.length >= 10 && v.charCodeAt(4) === 45))) return v as Scalar;
+    // A constant cell's stored error (t="e", read as its text), or a dated cell (read as an ISO date).
+    const sheet = this.sheet(sheetName);
+    const c = sheet && this.cellAt(sheet, row, col);
+    if (!c || c.formula) return v;
+    if (ERROR_TEXT.test(v)) return new FormulaError(v as ErrorCode, `${v} stored in ${sheetName}!${addressOf(row, col)}`);
+    return c.numFmt ? (serialFromIso(v) ?? v) : v;
   }
 
   spill(sheetName: string, row: number, col: number): Value {
@@ -261,7 +252,8 @@ export class Recalculation implements Host {
     return s;
   }
 
-  private rangeValues(ref: Ref): XArray {
+  /** The values of a rectangle, whole columns and rows cut to the used part of the sheet; frozen, read once. */
+  area(ref: Ref): XArray {
     const sheet = this.sheet(ref.sheet);
     let lastRow = ref.r2;
     let lastCol = ref.c2;

@@ -5,8 +5,9 @@
  * heading cell reading "Results"; a workbook with neither gets the NAPPE cells no other formula
  * computes with (the ends of its chains of calculation: the duty, the motor, the margin; a
  * formula that only shows one of them elsewhere, =Calc!B32 on a summary sheet, does not count),
- * each labelled from its own row, never by a column header. Inputs are the constant cells the NAPPE calls read, found through plain
- * references (=Inputs!B4), each with its label and the unit it was read in.
+ * each labelled from its own row, never by a column header. Inputs are the constant cells the
+ * NAPPE calls read, found through plain references (=Inputs!B4), each with its label and the
+ * unit it was read in.
  */
 import { addressOf, parseAddress, splitReference } from "./address";
 import type { CallView } from "./callView";
@@ -69,11 +70,11 @@ function rowLabelOf(wb: WorkbookModel, labels: LabelSource | undefined, sheet: s
   return labelOf(labels, sheet, address);
 }
 
-/** The unit written beside a value in its row (a short text such as "kW" or "m³/h"), if any. */
+/** The unit written beside a value in its row (a short text such as "kW", "m³/h" or "fraction"), if any. */
 function unitBeside(wb: WorkbookModel, sheet: string, address: string): string {
   const { row, col } = parseAddress(address);
   const v = getCell(wb, sheet, row, col + 1)?.value;
-  return typeof v === "string" && v.length <= 12 && /^[A-Za-z°µ%³²/·^ ]+$/.test(v) && !/^fraction$/i.test(v) ? v : "";
+  return typeof v === "string" && v.length <= 12 && /^[A-Za-z°µ%³²/·^ ]+$/.test(v) ? v : "";
 }
 
 /** A single cell a defined name refers to, or undefined for ranges and constants. */
@@ -155,9 +156,9 @@ export function auditSummary(wb: WorkbookModel, outcomes: readonly CellOutcome[]
     const { row: r, col } = parseAddress(address);
     const cell = getCell(wb, sheet, r, col);
     const value = o ? o.value : (cell?.value ?? null);
-    const beside = getCell(wb, sheet, parseAddress(address).row, parseAddress(address).col + 1)?.value;
+    const beside = o?.unit ? "" : unitBeside(wb, sheet, address);
     // An efficiency held as a fraction, labelled so, reads as percent (the formatting rule).
-    const v = !o?.unit && typeof value === "number" && beside === "fraction" ? { value: formatPercent(value), exact: exactNumber(value) } : valueText(value, o?.unit || unitBeside(wb, sheet, address));
+    const v = beside === "fraction" && typeof value === "number" ? { value: formatPercent(value), exact: exactNumber(value) } : valueText(value, o?.unit || (beside === "fraction" ? "" : beside));
     return { cell: ref(sheet, address), label, ...v };
   };
   const results: SummaryRow[] = [];
