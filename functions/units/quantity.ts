@@ -73,6 +73,8 @@ function normaliseUnitText(unit: string): string {
     .replace(/°\s*C\b/g, "degC")
     .replace(/°\s*F\b/g, "degF")
     .replace(/·/g, " ")
+    .replace(/²/g, "^2")
+    .replace(/³/g, "^3")
     .replace(/\bµ/g, "u");
 }
 
