@@ -19,7 +19,8 @@ import { demoSummaryLines, slipsOf, wrap } from "./demoSummary";
 import { setSignificantFigures } from "../workbook/format";
 import { writeAtomically } from "./atomic";
 import { Budget, DEFAULT_LIMITS, type Limits } from "./package";
-import { recalculate, type RecalcResult } from "../workbook/recalc";
+import { recalculate, type RecalcResult, savedWithoutAddinNotice, summaryLine } from "../workbook/recalc";
+import { hasNappeCall } from "../workbook/storedForm";
 import { addAuditSheet, renderTable, renderText } from "./render";
 import { BudgetError, labelSource, readWorkbook, type WorkbookModel, WorkbookError } from "./readXlsx";
 
@@ -137,15 +138,9 @@ async function load(file: string, flags: Options["flags"]): Promise<{ wb: Workbo
   }
 }
 
-/** What the run found and did, in one line: always counts found, recalculated and not. */
-export function summaryLine(result: RecalcResult, all = false, counted?: Record<"ok" | "warning" | "error", number>): string {
-  const n = counted ?? { ok: 0, warning: 0, error: 0 };
-  if (!counted) for (const c of result.cells) n[c.status]++;
-  const k = result.counts;
-  const statuses = `${n.ok} ok, ${n.warning} warning, ${n.error} error`;
-  const done = `${k.recalculated} recalculated${k.notRecalculated ? `, ${k.notRecalculated} could not be` : ""}`;
-  if (all) return `${k.formulas} formulas, ${k.nappe} of them calling NAPPE (${done}): ${statuses}`;
-  return `${k.nappe} NAPPE formulas found in ${k.formulas} formulas (${done}): ${statuses}`;
+/** What the run found and did, in one line (workbook/recalc.ts), after the notice of a copy saved without the add-in. */
+function found(result: RecalcResult, all = false): string {
+  return summaryLine(result.counts, result.cells.filter((c) => all || hasNappeCall(c.formula)), all);
 }
 
 /** Says loudly that nothing was found; names other add-ins' functions when there are any. */
@@ -156,7 +151,7 @@ function emptyNotice(file: string, result: RecalcResult): string {
 }
 
 async function writeAudit(wb: WorkbookModel, result: RecalcResult, source: string, htmlPath: string, xlsxPath: string, textPath: string, title: string) {
-  const report = buildAudit(result.cells, { title, source, found: summaryLine(result), workbook: wb }, labelSource(wb));
+  const report = buildAudit(result.cells, { title, source, found: found(result), notice: savedWithoutAddinNotice(result.counts), workbook: wb }, labelSource(wb));
   const { renderHtml } = await import("./renderHtml");
   await writeAtomically(htmlPath, renderHtml(report));
   await writeAtomically(textPath, renderText(report));
@@ -188,8 +183,10 @@ async function main(argv: string[]): Promise<number> {
         console.error(emptyNotice(opts.file, result));
         return EXIT_EMPTY;
       }
+      const notice = savedWithoutAddinNotice(result.counts);
+      if (notice) console.log(`${notice}\n`);
       console.log(renderTable(result.cells, { spills, width }));
-      console.log(`\n${summaryLine(result, flags.all)}`);
+      console.log(`\n${found(result, flags.all)}`);
       if (result.counts.otherAddins.length) console.log(`Not recalculated, another add-in's functions: ${result.counts.otherAddins.join(", ")}`);
       return result.cells.some((c) => c.status === "error") ? 1 : 0;
     }
@@ -206,7 +203,7 @@ async function main(argv: string[]): Promise<number> {
         return EXIT_EMPTY;
       }
       const report = await writeAudit(wb, result, basename(opts.file), html, xlsx, text, `Nappe audit of ${basename(opts.file)}`);
-      console.log(`${summaryLine(result, flags.all, report.counts)} (with the unit check)\nAudit written:\n  ${html}\n  ${xlsx}\n  ${text}`);
+      console.log(`${report.notice ? `${report.notice}\n` : ""}${found(result)}\nAudit written:\n  ${html}\n  ${xlsx}\n  ${text}`);
       return report.counts.error ? 1 : 0;
     }
     case "handoff": {
@@ -219,10 +216,10 @@ async function main(argv: string[]): Promise<number> {
         console.error(`${emptyNotice(opts.file, result)}\nNo copy written.`);
         return EXIT_EMPTY;
       }
-      const report = buildAudit(result.cells, { title: `Nappe audit of ${basename(opts.file)}`, source: basename(opts.file), found: summaryLine(result), workbook: wb }, labelSource(wb));
+      const report = buildAudit(result.cells, { title: `Nappe audit of ${basename(opts.file)}`, source: basename(opts.file), found: found(result), notice: savedWithoutAddinNotice(result.counts), workbook: wb }, labelSource(wb));
       const { writeHandoff } = await import("./handoff");
       const frozen = await writeHandoff(opts.file, out, result, report, limitsOf(flags));
-      console.log(`${summaryLine(result, false, report.counts)}\nHand-off copy written: ${out}\n  ${frozen.nappe} NAPPE formulas frozen to their values${frozen.other ? `, ${frozen.other} formulas of another add-in frozen to their cached values` : ""}; the original is untouched.`);
+      console.log(`${found(result)}\nHand-off copy written: ${out}\n  ${frozen.nappe} NAPPE formulas frozen to their values${frozen.other ? `, ${frozen.other} formulas of another add-in frozen to their cached values` : ""}; the original is untouched.`);
       return report.counts.error ? 1 : 0;
     }
     case "demo":
@@ -241,16 +238,14 @@ async function demo(out: string): Promise<number> {
   const report = await writeAudit(wb, result, DEMO_FILE, join(out, "orchard-audit.html"), join(out, "orchard-audit.xlsx"), join(out, "orchard-audit.txt"), "Nappe audit: hillside orchard pumping station (invented demo)");
   console.log("Nappe demo: hillside orchard pumping station (invented scenario)");
   for (const line of demoSummaryLines(wb, result, slipsOf(wb, report))) console.log(line);
-  const flagged = result.cells.filter((c) => c.status !== "ok");
-  const unitFindings = report.entries.flatMap((e) => e.messages.filter((m) => m.includes("unit check")).map((m) => `${e.sheet}!${e.address}: ${m}`));
-  console.log(`\nWarnings and checks (${flagged.length + unitFindings.length}):`);
-  for (const c of flagged) for (const m of c.messages) for (const line of wrap(m, `  ${c.sheet}!${c.address}: `, "      ")) console.log(line);
-  for (const m of unitFindings) for (const line of wrap(m, "  ", "      ")) console.log(line);
+  const flagged = result.cells.filter((c) => c.status !== "ok").flatMap((c) => c.messages.map((m) => ({ c, m })));
+  console.log(`\nWarnings and checks (${flagged.length}):`);
+  for (const { c, m } of flagged) for (const line of wrap(m, `  ${c.sheet}!${c.address}: `, "      ")) console.log(line);
   const { writeHandoff } = await import("./handoff");
   await writeHandoff(path, join(out, "orchard-handoff.xlsx"), result, report, DEFAULT_LIMITS);
   console.log("");
-  const [found, counted] = summaryLine(result, false, report.counts).split(/(?<=\)): /);
-  console.log(counted ? `${found}:\n  ${counted} (with the unit check)` : `${found} (with the unit check)`);
+  const [what, tally] = found(result).split(/(?<=\)): /);
+  console.log(tally ? `${what}:\n  ${tally}` : what);
   console.log(`Workbook: ${path}\nAudit report: ${join(out, "orchard-audit.html")}\nAudit sheet:  ${join(out, "orchard-audit.xlsx")}\nAudit text:   ${join(out, "orchard-audit.txt")}\nHand-off copy (values, no add-in needed): ${join(out, "orchard-handoff.xlsx")}`);
   console.log("");
   for (const line of wrap(GENERAL_CAUTIONS.join(" "), "", "")) console.log(line);

@@ -85,7 +85,7 @@ ${c.steps.length ? `<table class="steps"><tr><th colspan="3">intermediate values
 <p><strong>Result:</strong> ${escapeHtml(c.result ?? "(error)")}${c.resultBase && c.resultBase !== c.result ? ` (${escapeHtml(c.resultBase)} in base units)` : ""}</p>
 ${c.table ? spillHtml(c.table) : ""}
 ${c.error ? `<p class="status error">${escapeHtml(c.error)}</p>` : ""}
-${list("Warnings", [...c.warnings, ...c.unitFindings.map((f) => `Unit check: ${f.message}`)])}${list("Assumptions", c.assumptions)}${list("Cautions", c.cautions)}${list("Sources", c.sources)}
+${list("Cross-check", c.diagnosis, "diagnosis")}${list("Warnings", [...c.warnings, ...c.unitFindings.map((f) => `Unit check: ${f.message}`)])}${list("Assumptions", c.assumptions)}${list("Cautions", c.cautions)}${list("Sources", c.sources)}
 </div>`,
         )
         .join("\n");

@@ -11,7 +11,8 @@ import { DIMENSIONS } from "../functions/units/dimensions";
 import { callView, type CallView, pairCalls } from "../workbook/callView";
 import { exactNumber, formatQuantity, formatValue } from "../workbook/format";
 import { callSites, directPrecedents, evaluationOrder, type PrecedentRef, replaceArgument, type CallSite } from "../workbook/formula";
-import { addressOf, cellKey, type CellModel, type CellValue, type DefinedName, parseAddress, type WorkbookModel } from "../workbook/model";
+import { addressOf, cellKey, type CellModel, type CellValue, type DefinedName, getCell, parseAddress, type WorkbookModel } from "../workbook/model";
+import { addFindings } from "../workbook/findings";
 import { splitReference } from "../workbook/address";
 import { type CallRecord, type CellOutcome, outcomeFor, Recalculation } from "../workbook/recalc";
 import { displayFormula, hasNappeCall, resolveNames } from "../workbook/storedForm";
@@ -233,6 +234,8 @@ const NO_LABELS: LabelSource = { labelsNear: () => [], numberFormat: () => undef
  */
 interface AnalysisCache {
   npsha?: Promise<{ value: number; cell: string } | undefined>;
+  /** The whole workbook, for kept cross-checks. */
+  workbook?: Promise<WorkbookModel>;
 }
 
 /** Explains the cell at sheet!address. */
@@ -265,11 +268,13 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
   const model = snap.wb.sheets.find((s) => s.name === sheet)!.cells.get(cellKey(row, col))!;
   const computed = engine.compute(model);
   const labels = labelSourceFrom(snap.labels, snap.formats, snap.formulas);
-  const pairs = pairCalls(computed.calls, sites);
-  const calls = computed.calls.map((rec, i) => explainCall(rec, pairs[i], formula, sheet, labels));
+  // The unit check, and a kept cross-check's diagnosis over the whole workbook (read once per check).
+  const whole = /CROSSCHECK/i.test(formula) ? await (shared.workbook ??= port.workbookSnapshot()) : snap.wb;
+  const outcome = addFindings(outcomeFor({ ...model, value: cell.value }, computed), { wb: whole, value: (s, r, c) => getCell(whole, s, r, c)?.value ?? null }, labels);
+  const pairs = pairCalls(outcome.calls, sites);
+  const calls = outcome.calls.map((rec, i) => explainCall(rec, pairs[i], formula, sheet, labels));
   // Outermost first reads best: reverse evaluation order.
   calls.reverse();
-  const outcome = outcomeFor({ ...model, value: cell.value }, computed);
   const error = computed.error ? computed.message ?? computed.error : undefined;
   let chart: ChartData | undefined;
   try {

@@ -184,6 +184,7 @@ function callCard(call: CallExplanation, cell: CellExplanation, ctx: PaneContext
     }
     card.append(box);
   }
+  card.append(list("Cross-check", call.diagnosis, "warnings diagnosis"));
   card.append(list("Warnings", call.warnings, "warnings"));
   card.append(el("div", `checks ${call.warnings.length || call.unitWarnings.length ? "warn" : "ok"}`, el("h4", "", call.warnings.length || call.unitWarnings.length ? `${MARK.warning} Checks: see the warnings` : `${MARK.ok} Checks: all passed`), ...call.checks.map((c) => el("p", "check", c))));
   card.append(list("Assumptions", call.assumptions));

@@ -5,7 +5,7 @@
  */
 import { type AuditReport, AUDIT_WIDTHS, auditSheetRows, buildAudit } from "../workbook/audit";
 import { formulaLibraryReady } from "../workbook/formulaLibrary";
-import type { CellOutcome, Status } from "../workbook/recalc";
+import { type CellOutcome, type Status, summaryLine } from "../workbook/recalc";
 import type { LabelSource } from "../workbook/unitCheck";
 import type { WorkbookModel } from "../workbook/model";
 import { displayFormula } from "../workbook/storedForm";
@@ -29,6 +29,8 @@ export interface WorkbookCheck {
   labels: LabelSource;
   /** The snapshot the check analysed: the audit's summary reads names, headings and inputs from it. */
   workbook: WorkbookModel;
+  /** The one summary line, as every command prints it ("3 NAPPE formulas found in 9 formulas (3 recalculated): …"). */
+  found: string;
 }
 
 /** Name of the sheet the audit is written to; it is replaced, never any other sheet. */
@@ -54,14 +56,13 @@ export async function checkWorkbook(port: HostPort, onProgress?: (done: number, 
   const outcomes: CellOutcome[] = [];
   const labels: LabelSource[] = [];
   const counts: Record<Status, number> = { ok: 0, warning: 0, error: 0 };
-  const shared = {};
+  const shared = { workbook: Promise.resolve(local.workbook) };
   for (let i = 0; i < cells.length; i++) {
     const c = cells[i];
     const analysis = await analyseCell(local, c.sheet, c.address, shared);
-    const unitWarnings = analysis.explanation.calls.flatMap((x) => x.unitWarnings.map((w) => `Unit check: ${w.message}`));
-    let status: Status = analysis.outcome?.status ?? "error";
-    if (status === "ok" && unitWarnings.length) status = "warning";
-    const note = [...unitWarnings, ...(analysis.outcome?.messages ?? [analysis.explanation.error ?? ""])][0] ?? "";
+    // The outcome's status holds the unit check and a kept check's diagnosis, as every command counts it.
+    const status: Status = analysis.outcome?.status ?? "error";
+    const note = (analysis.outcome?.messages ?? [analysis.explanation.error ?? ""])[0] ?? "";
     rows.push({ sheet: c.sheet, address: c.address, formula: `=${displayFormula(c.formula)}`, status, note });
     counts[status]++;
     if (analysis.outcome) outcomes.push(analysis.outcome);
@@ -69,12 +70,15 @@ export async function checkWorkbook(port: HostPort, onProgress?: (done: number, 
     onProgress?.(i + 1, cells.length);
     if ((i + 1) % yieldEvery === 0) await new Promise((r) => setTimeout(r, 0));
   }
-  return { rows, counts, outcomes, labels: mergeLabels(labels), workbook: local.workbook };
+  const recalculated = outcomes.filter((o) => o.recalculated).length;
+  const formulas = local.workbook.sheets.reduce((n, sh) => n + [...sh.cells.values()].filter((c) => c.formula).length, 0);
+  const found = summaryLine({ formulas, nappe: cells.length, recalculated, notRecalculated: cells.length - recalculated, otherAddins: [], savedWithoutAddin: 0 }, rows);
+  return { rows, counts, outcomes, labels: mergeLabels(labels), workbook: local.workbook, found };
 }
 
 /** The audit report for the checked workbook (same model as `nappe audit`), named by its file name where Excel gives one. */
 export function auditOf(check: WorkbookCheck, source = check.workbook.name ?? "this workbook"): AuditReport {
-  return buildAudit(check.outcomes, { title: "Nappe audit", source, workbook: check.workbook }, check.labels);
+  return buildAudit(check.outcomes, { title: "Nappe audit", source, found: check.found, workbook: check.workbook }, check.labels);
 }
 
 

@@ -27,7 +27,7 @@ function build(ctx: PaneContext): HTMLElement {
         counts.textContent = `Checking ${done} of ${total}…`;
       });
       counts.replaceChildren(
-        el("span", "", `${last.rows.length} NAPPE formulas`),
+        el("span", "", `${last.found.split(/(?<=\)): /)[0]}:`),
         el("span", "status ok", `${MARK.ok} ${last.counts.ok} ok`),
         el("span", "status warning", `${MARK.warning} ${last.counts.warning} warning`),
         el("span", "status error", `${MARK.error} ${last.counts.error} error`),

@@ -43,6 +43,8 @@ export interface AuditReport {
   summary?: AuditSummary;
   /** What the run found and did ("30 NAPPE formulas found in 45 formulas (30 recalculated): …"). */
   found?: string;
+  /** Said once at the top: a copy saved where the add-in was not loaded. */
+  notice?: string;
   counts: Record<Status, number>;
   cautions: string[];
   entries: AuditEntry[];
@@ -60,11 +62,11 @@ export function readableDate(d: Date): string {
  * Builds the audit from recalculated cells. `labels` enables the unit check of referenced cells;
  * `workbook` (the model the cells came from) lets the audit open with the key results and inputs.
  */
-export function buildAudit(cells: readonly CellOutcome[], meta: { title: string; source: string; generated?: string; found?: string; workbook?: WorkbookModel }, labels?: LabelSource): AuditReport {
+export function buildAudit(cells: readonly CellOutcome[], meta: { title: string; source: string; generated?: string; found?: string; notice?: string; workbook?: WorkbookModel }, labels?: LabelSource): AuditReport {
   const counts: Record<Status, number> = { ok: 0, warning: 0, error: 0 };
   const entries = cells.map((cell): AuditEntry => {
-    const messages = [...cell.messages];
-    let status = cell.status;
+    // Status and messages are the outcome's own: they already hold the unit check and a kept check's diagnosis (findings.ts).
+    const { messages, status } = cell;
     let sites: ReturnType<typeof callSites> = [];
     try {
       sites = evaluationOrder(callSites(cell.formula.replace(/^=/, "")));
@@ -72,20 +74,13 @@ export function buildAudit(cells: readonly CellOutcome[], meta: { title: string;
       sites = [];
     }
     const pairs = pairCalls(cell.calls, sites);
-    const calls = cell.calls.map((call, i) => {
-      const view = callView(call, pairs[i], cell.sheet, labels);
-      for (const f of view.unitFindings) {
-        messages.push(`NAPPE.${call.id}: unit check: ${f.message}`);
-        if (status === "ok") status = "warning";
-      }
-      return view;
-    });
+    const calls = cell.calls.map((call, i) => callView(call, pairs[i], cell.sheet, labels));
     counts[status]++;
     const result = typeof cell.value === "number" ? formatQuantity(cell.value, cell.unit) : Array.isArray(cell.value) ? `${spillsRows(cell.value.length)} (table in the derivation)` : formatValue(cell.value);
     return { sheet: cell.sheet, address: cell.address, formula: cell.formula, status, result, exact: typeof cell.value === "number" ? exactNumber(cell.value) : "", messages, calls };
   });
   const summary = meta.workbook ? auditSummary(meta.workbook, cells, entries.map((e) => e.calls), labels) : undefined;
-  return { title: meta.title, source: meta.source, generated: meta.generated ?? readableDate(new Date()), summary, found: meta.found, counts, cautions: [...GENERAL_CAUTIONS], entries };
+  return { title: meta.title, source: meta.source, generated: meta.generated ?? readableDate(new Date()), summary, found: meta.found, notice: meta.notice, counts, cautions: [...GENERAL_CAUTIONS], entries };
 }
 
 /**
@@ -107,6 +102,7 @@ function auditRows(report: AuditReport): string[][] {
     calls.forEach((c, i) => {
       const notes = [
         ...(c?.error ? [`Error: ${c.error}`] : []),
+        ...(c?.diagnosis ?? []),
         ...(c?.warnings ?? []).map((w) => `Warning: ${w}`),
         ...(c?.unitFindings ?? []).map((f) => `Warning: Unit check: ${f.message}`),
         ...(i === 0 && !c ? e.messages : []),
@@ -142,7 +138,8 @@ const INPUTS = "Inputs";
 export function auditSheetRows(report: AuditReport): { rows: string[][]; headerRow: number; preamble: number; blockHeaders: number[] } {
   const rows: string[][] = [
     [report.title],
-    [`Workbook: ${report.source} · ${report.generated} · ${report.found ?? `${report.entries.length} NAPPE formulas`} · ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`],
+    [`Workbook: ${report.source} · ${report.generated} · ${report.found ?? `${report.entries.length} NAPPE formulas: ${report.counts.ok} ok, ${report.counts.warning} warning, ${report.counts.error} error`}`],
+    ...(report.notice ? [[report.notice]] : []),
     [report.cautions.join(" ")],
     [report.entries.length ? "" : NOTHING_FOUND],
   ];

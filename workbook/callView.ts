@@ -16,6 +16,7 @@ import { fromBase } from "../functions/units/quantity";
 import { formatNumber, formatPercent, formatQuantity, formatUnit, labelledSpill, shortenQuantityText, type SpillTable } from "./format";
 import type { CallSite } from "./formula";
 import type { CallRecord } from "./recalc";
+import { diagnosisLines } from "./crossCheck";
 import { checkCallUnits, type LabelSource, type UnitFinding } from "./unitCheck";
 
 interface ArgView {
@@ -61,6 +62,8 @@ export interface CallView {
   warnings: readonly string[];
   /** Bare numbers read from cells labelled in another unit, and implausible magnitudes. */
   unitFindings: UnitFinding[];
+  /** A kept cross-check's diagnosis, line by line (crossCheck.ts): the verdict, the steps that depart, the causes. */
+  diagnosis: string[];
   cautions: readonly string[];
   sources: readonly string[];
   error?: string;
@@ -213,8 +216,10 @@ export function callView(rec: CallRecord, site: CallSite | undefined, sheet: str
     table: ev && typeof ev.value !== "number" ? labelledSpill(ev.value, ev.header) : undefined,
     assumptions: spec.assumptions,
     checks: spec.validity,
-    warnings: ev?.warnings ?? [],
+    // A kept check's own "Differs" warning is said in full by its diagnosis.
+    warnings: (ev?.warnings ?? []).filter((w) => !(rec.diagnosis && /^Differs: the hand value/.test(w))),
     unitFindings: ev && labels ? checkCallUnits(spec, ev, rec.refs, sheet, labels) : [],
+    diagnosis: rec.diagnosis ? diagnosisLines(rec.diagnosis) : [],
     cautions: spec.cautions,
     sources: spec.sources,
     error: rec.error?.message,

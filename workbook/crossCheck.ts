@@ -694,5 +694,8 @@ export function diagnoseKeptCheck(src: CheckSource, sheet: string, handRef: stri
   const inputs: InputSource[] = inner.readings.filter((r) => r.how !== "default").map((r) => ({ name: r.name, from: "(the check's call)", how: "kept check" as const, shown: typeof r.raw === "string" || typeof r.raw === "number" ? String(r.raw) : "" }));
   const unitIndex = spec.params.findIndex((p) => p.name === "unit");
   if (unitIndex >= 0) given[unitIndex] = undefined;
-  return diagnose(src, target, spec, given, inputs, tolerance);
+  const d = diagnose(src, target, spec, given, inputs, tolerance);
+  const defaulted = inner.readings.filter((r) => r.how === "default" && ENVIRONMENT.includes(r.name) && d.inputs.some((x) => x.name === r.name && x.how === "workbook"));
+  if (defaulted.length) d.notes.unshift(`The check's NAPPE.${specId} leaves ${defaulted.map((r) => r.name).join(" and ")} to the default (water at 20 °C), so the value it shows compares with 20 °C water; the diagnosis uses the workbook's`);
+  return d;
 }

@@ -14,6 +14,7 @@ export function derivationText(where: { sheet: string; address: string; formula:
   if (view.steps.length) lines.push("Intermediate values:", ...view.steps.map((s) => `  ${s.symbol} = ${s.value}  (${s.name}; ${s.how})`));
   lines.push(view.error ? `Error: ${view.error}` : `Result: ${view.result ?? ""}${view.resultBase && view.resultBase !== view.result ? ` (${view.resultBase})` : ""}`);
   if (!view.error && view.table) lines.push(formatSpillText(view.table, "  "));
+  lines.push(...view.diagnosis);
   for (const w of [...view.warnings, ...view.unitFindings.map((f) => `Unit check: ${f.message}`)]) lines.push(`Warning: ${w}`);
   return lines.join("\n");
 }

@@ -16,6 +16,9 @@ import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAdd
 import { sheetPrefix } from "./address";
 import { displayFormula, dottedName, externalLinkIndexes, hasNappeCall, otherAddinFunctions, resolveNames, unknownNappeFunctions } from "./storedForm";
 import { formatNumber } from "./format";
+import type { Diagnosis } from "./crossCheck";
+import { addFindings } from "./findings";
+import { labelSource } from "./model";
 
 /** One NAPPE call made while computing a cell. */
 export interface CallRecord {
@@ -24,6 +27,8 @@ export interface CallRecord {
   refs: (string | undefined)[];
   evaluation?: Evaluation;
   error?: { kind: "num" | "value"; message: string };
+  /** A kept cross-check's diagnosis (NAPPE.CROSSCHECK), added by findings.ts. */
+  diagnosis?: Diagnosis;
 }
 
 export type Status = "ok" | "warning" | "error";
@@ -511,7 +516,9 @@ export function outcomeFor(cell: CellModel, computed: Computed, tolerance = 1e-6
   const unit = isSingleNappeCall(formula) && top?.evaluation ? top.evaluation.unit : "";
   const shown = Array.isArray(computed.value) ? computed.value[0]?.[0] ?? null : computed.value;
   let difference: number | null = null;
-  if (VOLATILE.test(formula)) {
+  if (cell.value === "#NAME?" && hasNappeCall(cell.formula!)) {
+    // Saved where the add-in was not loaded (LibreOffice, Excel without Nappe): the cache proves nothing.
+  } else if (VOLATILE.test(formula)) {
     // NOW, TODAY, RAND...: a new value at every recalculation, so the cached one proves nothing.
   } else if (typeof shown === "number" && typeof cell.value === "number") {
     difference = relativeDifference(shown, cell.value);
@@ -528,7 +535,7 @@ export function outcomeFor(cell: CellModel, computed: Computed, tolerance = 1e-6
 }
 
 /** What a run found and did, for the summary line. */
-interface RecalcCounts {
+export interface RecalcCounts {
   /** Formula cells in the workbook. */
   formulas: number;
   /** Formula cells that call a NAPPE function (either stored form). */
@@ -539,6 +546,34 @@ interface RecalcCounts {
   notRecalculated: number;
   /** Custom functions of other add-ins the workbook calls, by name. */
   otherAddins: string[];
+  /** NAPPE formula cells whose cached value is #NAME?: saved where the add-in was not loaded. */
+  savedWithoutAddin: number;
+}
+
+/** "1 formula", "2 formulas". */
+export function count(n: number, noun: string): string {
+  return `${n} ${noun}${n === 1 ? "" : "s"}`;
+}
+
+/**
+ * The one summary line every command and view prints, in one format: "34 NAPPE formulas found in
+ * 68 formulas (34 recalculated): 23 ok, 11 warning, 0 error". Statuses are the outcomes' own,
+ * which include the unit check and kept cross-checks (findings.ts).
+ */
+export function summaryLine(counts: RecalcCounts, statuses: readonly { status: Status }[], all = false): string {
+  const n = { ok: 0, warning: 0, error: 0 };
+  for (const c of statuses) n[c.status]++;
+  const done = `${counts.recalculated} recalculated${counts.notRecalculated ? `, ${counts.notRecalculated} not recalculated` : ""}`;
+  const tally = `${n.ok} ok, ${n.warning} warning, ${n.error} error`;
+  if (all) return `${count(counts.formulas, "formula")}, ${counts.nappe} of them calling NAPPE (${done}): ${tally}`;
+  return `${count(counts.nappe, "NAPPE formula")} found in ${count(counts.formulas, "formula")} (${done}): ${tally}`;
+}
+
+/** Said once, at the top, of a copy saved where the add-in was not loaded (every NAPPE cell cached as #NAME?). */
+export function savedWithoutAddinNotice(counts: RecalcCounts): string | undefined {
+  const n = counts.savedWithoutAddin;
+  if (!n) return undefined;
+  return `${n === counts.nappe ? `Every NAPPE formula (${n})` : count(n, "NAPPE formula")} ${n === 1 ? "was" : "were"} saved where the add-in was not loaded (the file caches #NAME?, as LibreOffice or Excel without Nappe leave it): recalculated here, not compared with the cache.`;
 }
 
 export interface RecalcResult {
@@ -560,7 +595,15 @@ export function recalculate(wb: WorkbookModel, options: RecalcOptions = {}): Rec
     engine.compute(cell);
     options.onProgress?.(i + 1, formulaCells.length);
   });
-  const outcomes = reported.map((cell) => outcomeFor(cell, engine.compute(cell), tolerance));
+  const src = { wb, value: (sheet: string, row: number, col: number) => {
+    const v = engine.valueAt(sheet, row, col);
+    return v instanceof FormulaError ? v.error : v;
+  } };
+  const labels = labelSource(wb);
+  const outcomes = reported.map((cell) => {
+    const outcome = outcomeFor(cell, engine.compute(cell), tolerance);
+    return isNappe.has(cell) ? addFindings(outcome, src, labels) : outcome;
+  });
   const nappeOutcomes = outcomes.filter((_, i) => isNappe.has(reported[i]));
   const counts: RecalcCounts = {
     formulas: formulaCells.length,
@@ -568,6 +611,7 @@ export function recalculate(wb: WorkbookModel, options: RecalcOptions = {}): Rec
     recalculated: nappeOutcomes.filter((c) => c.recalculated).length,
     notRecalculated: nappeOutcomes.filter((c) => !c.recalculated).length,
     otherAddins: [...new Set(formulaCells.flatMap((c) => otherAddinFunctions(c.formula!)))].sort(),
+    savedWithoutAddin: [...isNappe].filter((c) => c.value === "#NAME?").length,
   };
   return {
     cells: outcomes,
