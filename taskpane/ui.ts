@@ -11,7 +11,8 @@ import type { HostPort } from "./host/port";
 import { writeAction } from "./actions";
 import { GENERAL_CAUTIONS } from "../functions/catalog/_shared";
 import { crossCheckCell } from "./crossCheck";
-import { formatNumber, formatQuantity, formatUnit, setSignificantFigures, significantFigures } from "../workbook/format";
+import { diagnosisLines } from "../workbook/crossCheck";
+import { formatNumber, formatUnit, setSignificantFigures, significantFigures } from "../workbook/format";
 import { UndoStack } from "./undo";
 import { addressOf, parseAddress } from "../workbook/address";
 import { derivationText } from "../workbook/derivation";
@@ -243,10 +244,10 @@ async function correctLabel(ctx: PaneContext, label: NonNullable<CallExplanation
   refresh();
 }
 
-/** The cross-check of a plain (hand) formula: pick the quantity, see the verdict and the departing steps, keep the check. */
+/** The cross-check of a plain (hand) formula: pick the quantity, see the diagnosis, point arguments at cells by hand, keep the check. */
 function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
   const box = el("section", "cross-check");
-  box.append(el("h3", "", "Cross-check this hand formula"), el("p", "", "Pick the quantity it computes; Nappe reads its inputs from the cells it uses (by label and unit) and computes the same."));
+  box.append(el("h3", "", "Cross-check this hand formula"), el("p", "", "Pick the quantity it computes; Nappe reads its inputs from the cells it uses, at any depth (by label, unit and symbol), computes the same and names the first step that departs."));
   const result = el("div", "cross-check-result");
   const tolerance = el("input", "tolerance");
   tolerance.type = "number";
@@ -257,16 +258,47 @@ function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
   tolerance.setAttribute("aria-label", "Tolerance, percent");
   const toleranceRow = el("label", "tolerance-row", "Agrees within ", tolerance, " %");
   const numeric = CATALOG.filter((s) => !s.result.spill && s.id !== "CROSSCHECK");
+  /** Argument → cell or literal, as the user pointed them: kept while the same quantity is checked. */
+  let mapping: Record<string, string> = {};
+  let current = "";
+  /** The arguments as a small form: each can be pointed at a cell ("Inputs!B3") or given ("20 degC"). */
+  const mappingForm = (specId: string, read: { name: string; from: string; how: string; shown: string }[]) => {
+    const spec = numeric.find((s) => s.id === specId)!;
+    const form = el("form", "mapping");
+    const table = el("table", "args");
+    table.append(el("tr", "", el("th", "", "argument"), el("th", "", "read from"), el("th", "", "as")));
+    const fields = new Map<string, HTMLInputElement>();
+    for (const p of spec.params) {
+      if (p.kind !== "quantity") continue;
+      const r = read.find((x) => x.name === p.name);
+      const field = el("input", "map-to");
+      field.value = mapping[p.name] ?? (r && (r.how === "label" || r.how === "by hand" || r.how === "workbook") && !r.from.startsWith("water at") ? r.from : "");
+      field.placeholder = r?.how === "default" || r?.how === "assumed" ? `assumed: ${r.shown || r.from}` : p.optional ? "default" : "cell such as Inputs!B3";
+      field.setAttribute("aria-label", `${p.name}: read from`);
+      fields.set(p.name, field);
+      table.append(el("tr", r && (r.how === "default" || r.how === "assumed") ? "assumed" : "", el("td", "name", p.name), el("td", "", field), el("td", "why", r ? `${r.shown}${r.how === "label" ? "" : ` (${r.how})`}` : "")));
+    }
+    const again = el("button", "recheck", "Check again with these cells");
+    again.type = "submit";
+    form.addEventListener("submit", (e) => {
+      e.preventDefault();
+      mapping = Object.fromEntries([...fields].map(([k, f]) => [k, f.value.trim()]).filter(([, v]) => v));
+      void show(specId);
+    });
+    form.append(el("div", "table-wrap", table), again);
+    return form;
+  };
   const show = async (specId: string) => {
+    if (specId !== current) mapping = {};
+    current = specId;
     result.replaceChildren(el("p", "", "Checking…"));
     try {
       const percent = Number(tolerance.value);
       if (!(percent > 0 && percent < 100)) throw new Error("the tolerance must be a percentage above 0 and below 100");
-      const r = await crossCheckCell(ctx.port, cell.sheet, cell.address, specId, { tolerance: percent / 100 });
-      const verdict = el("p", `status ${r.verdict === "agrees" ? "ok" : "warning"}`, `${r.verdict === "agrees" ? "✓ Agrees" : "⚠ Differs"}: hand ${formatNumber(r.handValue)}, Nappe ${formatQuantity(r.nappeValue, r.unit)}, difference ${formatNumber(r.relativeDifference * 100, 3)} % (tolerance ${formatNumber(r.tolerance * 100, 2)} %)`);
-      const mapping = el("table", "args");
-      mapping.append(el("tr", "", el("th", "", "argument"), el("th", "", "read from")));
-      for (const [name, from] of Object.entries(r.mapping)) mapping.append(el("tr", "", el("td", "name", name), el("td", "", from)));
+      const r = await crossCheckCell(ctx.port, cell.sheet, cell.address, specId, { tolerance: percent / 100, mapping });
+      const mark = r.verdict === "agrees" ? MARK.ok : MARK.warning;
+      const lines = diagnosisLines(r);
+      const verdict = el("p", `status verdict ${r.verdict === "agrees" ? "ok" : "warning"}`, `${mark} ${r.headline}`);
       const keep = el("button", "keep", "Keep the check in the workbook");
       keep.addEventListener("click", () =>
         writeAction(ctx, "keep the check", async () => {
@@ -281,16 +313,10 @@ function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
           ctx.say(`Kept the check in ${cell.sheet}!${target}.`);
         }),
       );
-      result.replaceChildren(
-        verdict,
-        el("div", "table-wrap", mapping),
-        list("Steps that depart by more than 0.01 %", r.departures, "warnings"),
-        list("Usual causes", r.causes, "warnings"),
-        el("code", "formula", `=${r.keepFormula}`),
-        keep,
-      );
+      result.replaceChildren(verdict, list("Diagnosis", lines.slice(1), "warnings diagnosis"), mappingForm(specId, r.inputs), el("code", "formula", `=${r.keepFormula}`), keep);
     } catch (e) {
-      result.replaceChildren(el("p", "status error", `${MARK.error} Could not cross-check as NAPPE.${specId}: ${e instanceof Error ? e.message : String(e)}`));
+      const message = e instanceof Error ? e.message : String(e);
+      result.replaceChildren(el("p", "status error", `${MARK.error} Could not cross-check as NAPPE.${specId}: ${message}`), el("p", "", "Point each argument at the cell that holds it (or type a value with its unit), then check again."), mappingForm(specId, []));
     }
   };
   const picker = functionPicker(numeric, { placeholder: "Quantity: head loss, shaft power, npsh…", label: "Quantity the formula computes", listLabel: "Quantities", most: 6 }, (spec) => void show(spec.id));

@@ -6,6 +6,7 @@ import ExcelJS from "exceljs";
 import { describe, expect, it } from "vitest";
 import { colebrookFriction, swameeJainFriction } from "../functions/calc/friction";
 import { crossCheckCell } from "../taskpane/crossCheck";
+import { diagnosisLines } from "../workbook/crossCheck";
 import { MemoryHost } from "../taskpane/host/memory";
 import { fromExcelJS } from "../workbook/fromExcelJS";
 import { recalculate } from "../workbook/recalc";
@@ -41,12 +42,13 @@ describe("cross-check of a hand head-loss calculation", () => {
       ["Head loss (ft)", "B8*B3/(B2/12)*B6^2/(2*32.174)"],
     ]);
     const r = await crossCheckCell(host, "Hand", "B9", "HEADLOSS");
-    expect(r.mapping).toMatchObject({ flow: "B1", diameter: "B2", length: "B3", roughness: "B4", kinematic_viscosity: "B5" });
+    expect(Object.fromEntries(r.inputs.map((x) => [x.name, x.from]))).toMatchObject({ flow: "B1", diameter: "B2", length: "B3", roughness: "B4", kinematic_viscosity: "B5" });
     // Independent check of the difference: Swamee–Jain against Colebrook at the same Re and ε/D (the other factors cancel).
-    const re = r.nappe.steps.find((s) => s.symbol === "Re")!.value;
+    const re = r.evaluation.steps.find((s) => s.symbol === "Re")!.value;
     const want = swameeJainFriction(re, 0.0018 / 6.065) / colebrookFriction(re, 0.0018 / 6.065) - 1;
     expect(Math.abs(r.relativeDifference - want)).toBeLessThan(1e-5);
-    expect(r.departures[0]).toMatch(/^B8 Darcy friction factor 0\.0\d+ vs Nappe 0\.0\d+ at Re [\d.e+]+, ε\/D [\d.e-]+/);
+    expect(r.departures[0]).toMatchObject({ cell: "B8", symbol: "f" });
+    expect(diagnosisLines(r)[1]).toMatch(/^First step that departs: B8 f \(Darcy friction factor\) 0\.0\d+ vs Nappe 0\.0\d+, \+0\.\d+ %$/);
     expect(r.causes.join("; ")).toMatch(/explicit friction formula \(Swamee–Jain\)/);
     expect(r.keepFormula).toBe('NAPPE.CROSSCHECK(B9, NAPPE.HEADLOSS(B1&" gpm", B2&" in", B3&" ft", B4&" in", B5&" ft^2/s", "ft"), 0.005)');
   });
@@ -60,13 +62,13 @@ describe("cross-check of a hand head-loss calculation", () => {
     ]);
     const r = await crossCheckCell(host, "Hand", "B9", "HEADLOSS");
     expect(r.verdict).toBe("differs");
-    expect(r.departures[0]).toMatch(/^B6 mean velocity/);
+    expect(r.departures[0]).toMatchObject({ cell: "B6", symbol: "V" });
     expect(r.causes.join("; ")).toMatch(/gpm \/ ft³\/s slip/);
   });
 });
 
 describe("cross-check of a hand shaft-power calculation", () => {
-  it("agrees within 0.5 % yet names g = 9.81 and a density of 1000", async () => {
+  it("never agrees while a default stands in: incomplete (no temperature anywhere), and names g = 9.81 and a density of 1000", async () => {
     const host = handSheet([
       ["Flow (m^3/h)", 100],
       ["Head (m)", 50],
@@ -76,10 +78,10 @@ describe("cross-check of a hand shaft-power calculation", () => {
     const r = await crossCheckCell(host, "Hand", "B4", "POWER.SHAFT");
     // By hand: 1000·9.81 over water at 20 °C (998.21 kg/m³, IAPWS-IF97; from the water tests) times 9.80665.
     expect(relativeError(1 + r.relativeDifference, (1000 * 9.81) / (998.21 * 9.80665))).toBeLessThan(2e-5);
-    expect(r.verdict).toBe("agrees");
+    expect(r.verdict).toBe("incomplete");
+    expect(r.headline).toMatch(/^Incomplete: Nappe assumed water at 20 °C for the density/);
     expect(r.causes.join("; ")).toMatch(/g = 9\.81 m\/s²/);
     expect(r.causes.join("; ")).toMatch(/density 1000 kg\/m³/);
-    expect(r.departures.join("; ")).toMatch(/B4 result/);
   });
 });
 
@@ -100,7 +102,7 @@ describe("cross-check of a hand NPSHa calculation", () => {
     expect(r.causes.join("; ")).toMatch(/gauge pressure used where absolute is expected/);
     expect(r.causes.join("; ")).not.toMatch(/density 1000/); // its 1000 turns kPa into Pa: not a density
     // The gap is the atmosphere as head: 101.325 kPa/(ρg) ≈ 10.35 m at 20 °C.
-    expect(Math.abs(r.handValue - r.nappeValue + 101325 / (998.21 * 9.80665))).toBeLessThan(0.02);
+    expect(Math.abs(r.hand - r.nappe + 101325 / (998.21 * 9.80665))).toBeLessThan(0.02);
   });
 });
 

@@ -377,7 +377,7 @@ function stepScore(label: string, step: { symbol: string; aliases: string[] }): 
 /** Digits enough for two numbers differing by `relative` to show the difference. */
 function digitsFor(relative: number): number {
   if (!(Math.abs(relative) > 1e-9)) return 6;
-  return Math.min(12, Math.max(4, Math.ceil(-Math.log10(Math.abs(relative))) + 2));
+  return Math.min(12, Math.max(4, Math.ceil(-Math.log10(Math.abs(relative))) + 3));
 }
 
 /** A number with `digits` significant figures and its unit, as people read it. */
