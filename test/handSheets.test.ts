@@ -169,7 +169,7 @@ describe("one diagnosis, every view", () => {
     const wb = books.get(key(book, "dotted"))!;
     const result = recalculate(wb);
     const report = buildAudit(result.cells, { title: "t", source: "g322-us.xlsx", found: summaryLine(result.counts, result.cells), workbook: wb }, labelSource(wb));
-    const first = /First step that departs: B16 V²\/2g \(velocity head\) 0\.88765\d* ft vs Nappe 0\.88836\d* ft, -0\.0805 %/;
+    const first = /First step that departs: B16 V²\/2g \(velocity head\) 0\.88764\d* ft vs Nappe 0\.88836\d* ft, -0\.0805 %/;
     const cause = /Likely cause: g = 32\.2 ft\/s² in Inputs!B6 \("g \(ft\/s²\)"\) instead of standard gravity 32\.174 ft\/s²/;
     for (const [name, text] of [
       ["text", renderText(report)],
