@@ -13,6 +13,7 @@ import { type Browser, chromium, type Locator, type Page } from "playwright-core
 import { startPreview } from "../scripts/acceptance";
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { DEMO_FILE } from "../demo/build";
+import { HAND_BOOKS, handBookBytes } from "./fixtures/handSheets";
 import { renderHtml } from "../headless/renderHtml";
 import { readWorkbook } from "../headless/readXlsx";
 import { buildAudit } from "../workbook/audit";
@@ -552,7 +553,7 @@ describe.runIf(hasChromium)("cross-check of a hand formula", () => {
       await page.getByRole("searchbox", { name: "Quantity the formula computes" }).fill("head loss darcy");
       await page.getByRole("button", { name: "NAPPE.HEADLOSS", exact: true }).click();
       const result = page.locator(".cross-check-result");
-      await containsText(result, "B8 Darcy friction factor");
+      await containsText(result, "First step that departs: B8 f (Darcy friction factor)");
       await containsText(result, "Differs"); // 0.40 % apart: beyond the 0.2 % asked for
       await containsText(result, "(tolerance 0.2 %)");
       await containsText(result, "explicit friction formula (Swamee–Jain)");
@@ -567,6 +568,98 @@ describe.runIf(hasChromium)("cross-check of a hand formula", () => {
       preview.server.kill();
     }
   }, 60000);
+});
+
+describe.runIf(hasChromium)("cross-check of hand sheets in the pane at 350 px", () => {
+  /** The pane at 350 px beside the grid, the hand cell selected. */
+  async function paneAt(browser: Browser, url: string, cell: string): Promise<Page> {
+    const page = await browser.newPage({ viewport: { width: 1100, height: 1400 } });
+    await page.goto(`${url}?pane=350&cell=${encodeURIComponent(cell)}`);
+    await page.locator(".cell-address", { hasText: cell }).waitFor({ timeout: 20_000 });
+    return page;
+  }
+  async function pick(page: Page, search: string, id: string): Promise<Locator> {
+    await page.getByRole("searchbox", { name: "Quantity the formula computes" }).fill(search);
+    await page.getByRole("button", { name: `NAPPE.${id}`, exact: true }).click();
+    return page.locator(".cross-check-result");
+  }
+
+  it("walks a Colebrook chain to any depth, asks for the length by hand, keeps the check, and Undo takes it back", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "nappe-hand-"));
+    const file = join(dir, "clean-si.xlsx");
+    writeFileSync(file, await handBookBytes(HAND_BOOKS.find((b) => b.id === "clean-si")!, { stored: true }));
+    const preview = await startPreview(file);
+    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
+    try {
+      const page = await paneAt(browser, preview.url, "Calc!B17");
+      const result = await pick(page, "head loss darcy", "HEADLOSS");
+      // "Straight pipe, total (m)" names no length the vocabulary knows: the pane asks, it never guesses.
+      await containsText(result, "length: no cell the hand formula reads is labelled as one; point it at a cell");
+      await page.getByRole("textbox", { name: "length: read from" }).fill("Inputs!B3");
+      await page.getByRole("button", { name: "Check again with these cells" }).click();
+      await containsText(result.locator(".verdict"), "Agrees");
+      await containsText(result, "Inputs!B3");
+      await page.screenshot({ path: join(shots, "pane-cross-check-by-hand.png"), fullPage: true });
+      await result.getByRole("button", { name: "Keep the check in the workbook" }).click();
+      await containsText(page.locator(".status-line"), "Kept the check in Calc!C17");
+      const undo = page.getByRole("button", { name: /^Undo/ });
+      expect(await undo.getAttribute("aria-label")).toBe("Undo: keep the check in Calc!C17");
+      await undo.click();
+      await containsText(page.locator(".status-line"), "Undone: keep the check in Calc!C17.");
+    } finally {
+      await browser.close();
+      preview.server.kill();
+    }
+  }, 90_000);
+
+  it("says incomplete, in amber, while Nappe assumes 20 °C; a temperature given by hand completes it", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "nappe-hand-"));
+    const file = join(dir, "npsh.xlsx");
+    writeFileSync(file, await handBookBytes(HAND_BOOKS.find((b) => b.id === "npsh-no-temp-si")!));
+    const preview = await startPreview(file);
+    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
+    try {
+      const page = await paneAt(browser, preview.url, "Calc!B3");
+      const result = await pick(page, "npsha", "NPSHA");
+      const verdict = result.locator(".verdict");
+      await containsText(verdict, "Incomplete: Nappe assumed 20 °C for the temperature");
+      expect(await verdict.getAttribute("class")).toMatch(/\bwarning\b/);
+      expect(await verdict.innerText()).not.toMatch(/Agrees/);
+      await page.screenshot({ path: join(shots, "pane-cross-check-incomplete.png"), fullPage: true });
+      await page.getByRole("textbox", { name: "temperature: read from" }).fill("40 degC");
+      await page.getByRole("button", { name: "Check again with these cells" }).click();
+      await containsText(verdict, "Agrees");
+      await containsText(result, "40 degC");
+    } finally {
+      await browser.close();
+      preview.server.kill();
+    }
+  }, 90_000);
+
+  it("names a slip in a labelled constant cell, in the sheet's US units", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "nappe-hand-"));
+    const file = join(dir, "g322.xlsx");
+    writeFileSync(file, await handBookBytes(HAND_BOOKS.find((b) => b.id === "g322-us")!));
+    const preview = await startPreview(file);
+    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
+    try {
+      const page = await paneAt(browser, preview.url, "Calc!B17");
+      await page.getByRole("spinbutton", { name: "Tolerance, percent" }).fill("0.05");
+      const result = await pick(page, "head loss darcy", "HEADLOSS");
+      await containsText(result.locator(".verdict"), "Differs: hand 31.76");
+      await containsText(result, "First step that departs: B16 V²/2g (velocity head) 0.8876");
+      await containsText(result, 'g = 32.2 ft/s² in Inputs!B6 ("g (ft/s²)")');
+      const overflow = await page.evaluate(() => {
+        const pane = document.querySelector<HTMLElement>("#app")!;
+        return pane.scrollWidth - pane.clientWidth;
+      });
+      expect(overflow).toBeLessThanOrEqual(0);
+      await page.screenshot({ path: join(shots, "pane-cross-check-us.png"), fullPage: true });
+    } finally {
+      await browser.close();
+      preview.server.kill();
+    }
+  }, 90_000);
 });
 
 describe.runIf(hasChromium)("the HTML audit report in print", () => {

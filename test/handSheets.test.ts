@@ -157,7 +157,7 @@ describe("the walk of a hand formula", () => {
         },
       ],
     };
-    const d = crossCheckHand({ wb, value: (s, r, c) => wb.sheets[0].cells.get(`${r}:${c}`)?.value ?? null }, "Hand", "B3", "VELOCITY");
+    const d = crossCheckHand({ wb, value: (_sheet, r, c) => wb.sheets[0].cells.get(`${r}:${c}`)?.value ?? null }, "Hand", "B3", "VELOCITY");
     expect(d.cycles.join("\n")).toMatch(/B4 → B3 → B4|B3 → B4 → B3/);
     expect(diagnosisLines(d).join("\n")).toMatch(/^Cycle: /m);
   });

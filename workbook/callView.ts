@@ -102,7 +102,7 @@ function describeArg(r: ArgReading, written: string, baseUnit: string): ArgView 
   }
   const raw = r.raw === null || r.raw === undefined ? undefined : Array.isArray(r.raw) ? "(range)" : typeof r.raw === "number" ? formatNumber(r.raw) : shortenQuantityText(String(r.raw));
   if (typeof r.value !== "number") return { name: r.name, written, value: raw ?? String(r.value), unit, why, base: String(r.value) };
-  const base = baseUnit === "(fraction)" ? `${formatNumber(r.value)} (fraction, ${formatPercent(r.value)})` : formatQuantity(r.value, baseUnit);
+  const base = baseUnit === "(fraction)" ? `fraction, ${formatPercent(r.value)}` : formatQuantity(r.value, baseUnit);
   return { name: r.name, written, value: raw ?? formatNumber(r.value), unit, why, base };
 }
 
@@ -110,27 +110,50 @@ function describeArg(r: ArgReading, written: string, baseUnit: string): ArgView 
 const US_UNITS: Partial<Record<Dimension, string>> = { length: "ft", area: "ft^2", flow: "gpm", velocity: "ft/s", pressure: "psi", power: "hp", kinematicViscosity: "ft^2/s", density: "lb/ft^3" };
 const US_UNIT_TEXT = /^(gpm|gal\/min|MGD|cfs|cfm|ft|feet|foot|in|inch|inches|yd|mi|mile|ftH2O|inH2O|psi|psia|ft\/s|ft\^3\/s|hp)$/i;
 
-/** True when the call's flow or a length (or a table column of them) was given in US customary units. */
-function usesUsUnits(ev: NonNullable<CallRecord["evaluation"]>): boolean {
-  return ev.readings.some((r) => {
-    if (r.how === "text quantity") return US_UNIT_TEXT.test(r.unit.trim());
-    if (r.how === "table") return (r.value as Table).columns.some((c) => (c.dim === "flow" || c.dim === "length") && US_UNIT_TEXT.test(c.unit.trim()));
-    return false;
-  });
+/** The units a call's numbers are shown in: one system through and through, the units the user wrote where they belong to it. */
+interface Shown {
+  us: boolean;
+  /** Units the user wrote, by dimension, in that system: the unit asked for the result, then the inputs' text quantities. */
+  units: Partial<Record<Dimension, string>>;
+}
+
+/**
+ * The system of the result the user asked for (its `unit` argument); without one, US customary
+ * when the call's flow or a length (or a table column of them) was given in US units, else SI.
+ */
+function shownFor(ev: Evaluation, spec: FunctionSpec): Shown {
+  const asked = ev.readings.find((r) => r.name === "unit" && r.how === "unit name" && typeof r.value === "string")?.value as string | undefined;
+  const us =
+    asked && ev.dim !== "ratio" && ev.dim !== "efficiency"
+      ? US_UNIT_TEXT.test(asked.trim())
+      : ev.readings.some((r) => {
+          if (r.how === "text quantity") return US_UNIT_TEXT.test(r.unit.trim());
+          if (r.how === "table") return (r.value as Table).columns.some((c) => (c.dim === "flow" || c.dim === "length") && US_UNIT_TEXT.test(c.unit.trim()));
+          return false;
+        });
+  const units: Partial<Record<Dimension, string>> = {};
+  if (asked && ev.unit) units[ev.dim] = ev.unit;
+  for (const r of ev.readings) {
+    if (r.how !== "text quantity" || !r.unit) continue;
+    const p = spec.params.find((x) => x.name === r.name);
+    const dim = p?.kind === "quantity" ? p.dim : undefined;
+    if (dim && !units[dim] && US_UNIT_TEXT.test(r.unit.trim()) === us && dim !== "temperature") units[dim] = r.unit;
+  }
+  return { us, units };
 }
 
 /** Energy reads in kWh in either system (joules of a year's pumping are 1e11). */
 const SHOWN_UNITS: Partial<Record<Dimension, string>> = { energy: "kWh" };
 
-/** The unit a value of `dim` is shown in: US customary when the call's inputs are, else the base unit. */
-function shownUnit(dim: Dimension, us: boolean): string {
-  return (us && US_UNITS[dim]) || SHOWN_UNITS[dim] || DIMENSIONS[dim].base;
+/** The unit a value of `dim` is shown in: the one the user wrote for it, else the system's. */
+function shownUnit(dim: Dimension, s: Shown): string {
+  return s.units[dim] || (s.us && US_UNITS[dim]) || SHOWN_UNITS[dim] || DIMENSIONS[dim].base;
 }
 
 /** A base-unit value in the unit it is shown in, with that unit; an efficiency as percent. */
-function shown(value: number, dim: Dimension, us: boolean, unit = shownUnit(dim, us)): string {
+function shown(value: number, dim: Dimension, s: Shown, unit = shownUnit(dim, s), digits?: number): string {
   if (dim === "efficiency" && unit === "") return formatPercent(value);
-  return formatQuantity(unit === DIMENSIONS[dim].base ? value : fromBase("value", value, dim, unit), unit);
+  return formatQuantity(unit === DIMENSIONS[dim].base ? value : fromBase("value", value, dim, unit), unit, digits);
 }
 
 /** The result as the view shows it: in the unit asked for, an efficiency as percent, a spill as its rows. */
@@ -140,8 +163,8 @@ function resultText(ev: Evaluation): string {
   return formatQuantity(ev.value, ev.unit);
 }
 
-function stepView(s: Step, us: boolean): StepView {
-  return { symbol: s.symbol, name: s.name, value: shown(s.value, s.dim, us), how: s.how };
+function stepView(s: Step, units: Shown): StepView {
+  return { symbol: s.symbol, name: s.name, value: shown(s.value, s.dim, units), how: s.how };
 }
 
 /** Standard gravity (NIST SP 811) as a derivation line writes it. */
@@ -151,27 +174,28 @@ const GRAVITY = { si: "9.80665 m/s²", us: "32.174 ft/s²" };
  * The spec's derivation line with the numbers of one evaluation: in US customary units when the
  * call's flow or a length was given in them, else in base units.
  */
-function substitutedLine(spec: FunctionSpec, ev: Evaluation, us: boolean): string | undefined {
+function substitutedLine(spec: FunctionSpec, ev: Evaluation, units: Shown): string | undefined {
+  const us = units.us;
   const derivation = spec.derivation;
   if (!derivation) return undefined;
   const missing = () => {
     throw new Error("a number the derivation names is missing");
   };
-  const arg = (name: string, unit?: string) => {
+  const arg = (name: string, unit?: string, digits?: number) => {
     const r = ev.readings.find((x) => x.name === name);
     if (r && typeof r.value === "string") return r.value;
     if (!r || typeof r.value !== "number") return missing();
     const p = spec.params.find((x) => x.name === name);
-    if (p?.kind === "quantity") return shown(r.value, p.dim, us, unit);
+    if (p?.kind === "quantity") return shown(r.value, p.dim, units, unit ?? shownUnit(p.dim, units), digits);
     // A value whose dimension another argument sets (AFFINITY's value) has the result's dimension.
-    return p?.kind === "anyQuantity" ? shown(r.value, ev.dim, us, unit) : formatQuantity(r.value, "");
+    return p?.kind === "anyQuantity" ? shown(r.value, ev.dim, units, unit ?? shownUnit(ev.dim, units), digits) : formatQuantity(r.value, "", digits);
   };
   const stepValue = (symbol: string) => {
     const s = ev.steps.find((x) => x.symbol === symbol);
-    return s ? shown(s.value, s.dim, us) : missing();
+    return s ? shown(s.value, s.dim, units) : missing();
   };
   try {
-    const result = typeof ev.base === "number" ? shown(ev.base, ev.dim, us) : "";
+    const result = typeof ev.base === "number" ? shown(ev.base, ev.dim, units) : "";
     const has = (symbol: string) => ev.steps.some((x) => x.symbol === symbol);
     return derivation({ arg, step: stepValue, has, result, g: us ? GRAVITY.us : GRAVITY.si, us });
   } catch {
@@ -203,14 +227,14 @@ export function callView(rec: CallRecord, site: CallSite | undefined, sheet: str
     return [describeArg(r, written, dim ? DIMENSIONS[dim].base || (dim === "efficiency" ? "(fraction)" : "") : "")];
   });
   const numeric = ev && typeof ev.value === "number" && typeof ev.base === "number";
-  const us = ev ? usesUsUnits(ev) : false;
+  const units = ev ? shownFor(ev, spec) : { us: false, units: {} };
   return {
     id: rec.id,
     purpose: spec.purpose,
     equation: spec.equation,
     args,
-    steps: ev ? ev.steps.map((s) => stepView(s, us)) : [],
-    substituted: ev ? substitutedLine(spec, ev, us) : undefined,
+    steps: ev ? ev.steps.map((s) => stepView(s, units)) : [],
+    substituted: ev ? substitutedLine(spec, ev, units) : undefined,
     result: ev ? resultText(ev) : undefined,
     resultBase: numeric && ev.dim !== "efficiency" ? formatQuantity(ev.base as number, DIMENSIONS[ev.dim].base) : undefined,
     table: ev && typeof ev.value !== "number" ? labelledSpill(ev.value, ev.header) : undefined,

@@ -80,8 +80,8 @@ export function formatUnit(unit: string): string {
 }
 
 /** A number with its unit ("20.43 m", "81.56 m³/h"); just the number when there is no unit. */
-export function formatQuantity(x: number, unit: string): string {
-  return unit ? `${formatNumber(x)} ${formatUnit(unit)}` : formatNumber(x);
+export function formatQuantity(x: number, unit: string, digits = figures): string {
+  return unit ? `${formatNumber(x, digits)} ${formatUnit(unit)}` : formatNumber(x, digits);
 }
 
 /** One cell of a table as people read it: numbers by the rule, text as it is, blank for nothing. */

@@ -573,7 +573,7 @@ export function summaryLine(counts: RecalcCounts, statuses: readonly { status: S
 export function savedWithoutAddinNotice(counts: RecalcCounts): string | undefined {
   const n = counts.savedWithoutAddin;
   if (!n) return undefined;
-  return `${n === counts.nappe ? `Every NAPPE formula (${n})` : count(n, "NAPPE formula")} ${n === 1 ? "was" : "were"} saved where the add-in was not loaded (the file caches #NAME?, as LibreOffice or Excel without Nappe leave it): recalculated here, not compared with the cache.`;
+  return `${n === counts.nappe ? `Every NAPPE formula (${n}) was` : `${count(n, "NAPPE formula")} ${n === 1 ? "was" : "were"}`} saved where the add-in was not loaded (the file caches #NAME?, as LibreOffice or Excel without Nappe leave it): recalculated here, not compared with the cache.`;
 }
 
 export interface RecalcResult {

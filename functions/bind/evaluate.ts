@@ -182,6 +182,10 @@ function readOne(p: Exclude<ParamSpec, { kind: "table" }>, raw: number | string 
   }
 }
 
+/** Unit names of the US customary system, as users write them. */
+const US_CUSTOMARY = /^(gpm|gal\/min|MGD|cfs|cfm|ft|feet|foot|in|inch|inches|ftH2O|inH2O|psi|psia|ft\/s|ft\^3\/s|hp|lb\/ft\^3|ft\^2\/s|degF|°F)$/i;
+const US_DEFAULTS: Partial<Record<Dimension, string>> = { length: "ft", flow: "gpm", velocity: "ft/s", pressure: "psi", power: "hp", density: "lb/ft^3", kinematicViscosity: "ft^2/s" };
+
 /**
  * Rewrites the quantities a calc message marks (calc/_lib/result.ts, `quoted`) in the unit the
  * user gave for that kind of quantity: a text quantity's unit, a table column's header unit, or
@@ -208,6 +212,8 @@ function userUnits(readings: readonly ArgReading[], spec: FunctionSpec, args: Ar
     const dim = typeof spec.result.dim === "string" ? spec.result.dim : undefined;
     if (dim && !units.has(dim)) units.set(dim, out);
   }
+  // A call in US customary units says the rest in them too: a velocity in ft/s, not m/s, on a gpm/ft sheet.
+  if ([...units.values()].some((u) => US_CUSTOMARY.test(u.trim()))) for (const [dim, u] of Object.entries(US_DEFAULTS) as [Dimension, string][]) if (!units.has(dim)) units.set(dim, u);
   return (text) =>
     unquote(text, (value, dim) => {
       const unit = units.get(dim);
@@ -230,7 +236,12 @@ export function evaluate(spec: FunctionSpec, rawArgs: readonly RawArg[]): Evalua
   try {
     result = spec.compute(args);
   } catch (e) {
-    if (e instanceof CalcError) throw new CalcError(e.arg, inUserUnits(e.detail), e.kind);
+    if (e instanceof CalcError) {
+      // "got -0.1016" for a diameter typed "-4 in": the value as the user typed it.
+      const r = readings.find((x) => x.name === e.arg && x.how === "text quantity" && typeof x.value === "number");
+      const detail = r ? e.detail.replace(/got (-?[\d.]+(?:e[-+]?\d+)?)( \S+)?$/, (m, n: string) => (Math.abs(Number(n) - (r.value as number)) <= 1e-12 * Math.abs(r.value as number) ? `got ${String(r.raw).trim()}` : m)) : e.detail;
+      throw new CalcError(e.arg, inUserUnits(detail), e.kind);
+    }
     throw e;
   }
   result = { ...result, warnings: result.warnings.map(inUserUnits) };

@@ -15,9 +15,8 @@ export function crossCheck(hand: number, nappe: number, tolerance: number): Calc
   if (!(tolerance > 0 && tolerance < 1)) throw new CalcError("tolerance", `expected a fraction above 0 and below 1 (0.005 or "0.5%"); got ${tolerance}`);
   const difference = (hand - nappe) / nappe;
   const percent = (x: number) => `${(x * 100).toPrecision(3)} %`;
-  const warnings =
-    Math.abs(difference) > tolerance
-      ? [`Differs: the hand value is ${percent(Math.abs(difference))} ${difference > 0 ? "above" : "below"} Nappe's (tolerance ${percent(tolerance)}). Select the hand cell and cross-check it in the pane to find the step that departs.`]
-      : [];
+  // Far apart, a ratio reads better than a percentage ("41.0 times", never "4.10e+3 %").
+  const how = Math.abs(difference) >= 10 ? `${Number((hand / nappe).toPrecision(3))} times Nappe's` : `${percent(Math.abs(difference))} ${difference > 0 ? "above" : "below"} Nappe's`;
+  const warnings = Math.abs(difference) > tolerance ? [`Differs: the hand value is ${how} (tolerance ${percent(tolerance)}); the cross-check's diagnosis names the step that departs.`] : [];
   return ok(difference, warnings, [step("|Δ|/tol", "difference over the tolerance", Math.abs(difference) / tolerance, "ratio", Math.abs(difference) > tolerance ? "differs" : "agrees")]);
 }

@@ -21,7 +21,8 @@ export const specs: FunctionSpec[] = [
     ],
     result: { dim: "ratio", description: "Relative difference (hand − Nappe)/Nappe; a warning says when it exceeds the tolerance." },
     equation: String.raw`\Delta = \frac{x_{hand} - x_{Nappe}}{x_{Nappe}}, \qquad |\Delta| \le \text{tol} \Rightarrow \text{agrees}`,
-    derivation: (n) => `Δ = (hand − Nappe)/Nappe = (${n.arg("hand")} − ${n.arg("nappe")})/${n.arg("nappe")} = ${n.result}`,
+    // Nine figures: enough for the subtraction to come out from the numbers shown.
+    derivation: (n) => `Δ = (hand − Nappe)/Nappe = (${n.arg("hand", undefined, 9)} − ${n.arg("nappe", undefined, 9)})/${n.arg("nappe", undefined, 9)} = ${n.result}`,
     assumptions: ["Both values are in the same unit: give the NAPPE call the unit of the hand cell."],
     validity: ["Nappe's value must not be zero; tolerance above 0 and below 1."],
     cautions: ["Agreement within the tolerance does not prove both right: the pane's cross-check names every step that departs."],

@@ -132,8 +132,8 @@ export function numberArg(args: Args, name: string): number {
  * the call's flow or a length was given in them, else base units.
  */
 interface DerivationNumbers {
-  /** An argument's value ("30 m"), or in a unit named here ("0.0446 ft^3/s"). */
-  arg(name: string, unit?: string): string;
+  /** An argument's value ("30 m"), or in a unit named here ("0.0446 ft^3/s"), to `digits` significant figures where given. */
+  arg(name: string, unit?: string, digits?: number): string;
   /** An intermediate value by its symbol ("0.0189"). */
   step(symbol: string): string;
   /** True when the call recorded an intermediate value of that symbol (for lines that depend on the method). */
