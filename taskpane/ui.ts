@@ -313,7 +313,11 @@ function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
           ctx.say(`Kept the check in ${cell.sheet}!${target}.`);
         }),
       );
-      result.replaceChildren(verdict, list("Diagnosis", lines.slice(1), "warnings diagnosis"), mappingForm(specId, r.inputs), el("code", "formula", `=${r.keepFormula}`), keep);
+      // An incomplete check is never kept: it would bake the assumption into the workbook.
+      const incomplete = r.verdict === "incomplete";
+      keep.disabled = incomplete;
+      const why = incomplete ? el("p", "why", "Give Nappe the missing input above before keeping the check: kept now, it would carry the assumption into the workbook.") : "";
+      result.replaceChildren(verdict, list("Diagnosis", lines.slice(1), "warnings diagnosis"), mappingForm(specId, r.inputs), ...(incomplete ? [] : [el("code", "formula", `=${r.keepFormula}`)]), keep, why);
     } catch (e) {
       const message = e instanceof Error ? e.message : String(e);
       result.replaceChildren(el("p", "status error", `${MARK.error} Could not cross-check as NAPPE.${specId}: ${message}`), el("p", "", "Point each argument at the cell that holds it (or type a value with its unit), then check again."), mappingForm(specId, []));

@@ -625,11 +625,14 @@ describe.runIf(hasChromium)("cross-check of hand sheets in the pane at 350 px", 
       await containsText(verdict, "Incomplete: Nappe assumed 20 °C for the temperature");
       expect(await verdict.getAttribute("class")).toMatch(/\bwarning\b/);
       expect(await verdict.innerText()).not.toMatch(/Agrees/);
+      expect(await result.getByRole("button", { name: "Keep the check in the workbook" }).isDisabled()).toBe(true);
       await page.screenshot({ path: join(shots, "pane-cross-check-incomplete.png"), fullPage: true });
       await page.getByRole("textbox", { name: "temperature: read from" }).fill("40 degC");
       await page.getByRole("button", { name: "Check again with these cells" }).click();
       await containsText(verdict, "Agrees");
       await containsText(result, "40 degC");
+      expect(await result.getByRole("button", { name: "Keep the check in the workbook" }).isDisabled()).toBe(false);
+      await containsText(result.locator("code.formula"), '"40 degC"');
     } finally {
       await browser.close();
       preview.server.kill();

@@ -6,7 +6,8 @@
  * cross-checked as the pane does, and Nappe's value is compared with the independent reference
  * (test/reference/hand_sheets_reference.py: IAPWS-IF97 by python3-iapws, Colebrook by mpmath).
  */
-import { mkdirSync, writeFileSync } from "node:fs";
+import { mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import ExcelJS from "exceljs";
 import { join } from "node:path";
 import { beforeAll, describe, expect, it } from "vitest";
 import { readWorkbook } from "../headless/readXlsx";
@@ -18,7 +19,7 @@ import { labelSource, type WorkbookModel } from "../workbook/model";
 import { recalculate, type RecalcResult, savedWithoutAddinNotice, summaryLine } from "../workbook/recalc";
 import { HAND_BOOKS, HAND_REFERENCE, type HandBook, handBookBytes } from "./fixtures/handSheets";
 import { convert, noticeIfMissing, soffice } from "./fixtures/libreoffice";
-import { relativeError, tempDir } from "./helpers";
+import { nappe, relativeError, tempDir } from "./helpers";
 
 type Variant = "dotted" | "stored" | "cached" | "libreoffice";
 
@@ -180,5 +181,26 @@ describe("one diagnosis, every view", () => {
       expect(text, name).toMatch(cause);
     }
     expect(report.found).toBe("1 NAPPE formula found in 18 formulas (1 recalculated): 0 ok, 1 warning, 0 error");
+  });
+
+  it("the hand-off copy's note and the three commands say the same: one diagnosis, one count", async () => {
+    const book = HAND_BOOKS.find((b) => b.id === "density-text-si")!;
+    const file = join(dir, `${book.id}.xlsx`);
+    const out = join(dir, "handoff.xlsx");
+    const recalc = await nappe("recalc", file);
+    const audit = await nappe("audit", file, "--html", join(dir, "a.html"), "--xlsx", join(dir, "a.xlsx"), "--text", join(dir, "a.txt"));
+    const handoff = await nappe("handoff", file, "--out", out);
+    const line = "1 NAPPE formula found in 4 formulas (1 recalculated): 0 ok, 1 warning, 0 error";
+    for (const r of [recalc, audit, handoff]) expect(r.stdout).toContain(line);
+    // The check as written agrees (0.18 %, water at 20 °C): the diagnosis, with the workbook's 60 °C, does not.
+    expect(recalc.stdout).toMatch(/Differs: hand 12\.75\d* kW, Nappe 12\.54\d* kW, difference \+1\.71 %/);
+    const copy = new ExcelJS.Workbook();
+    await copy.xlsx.readFile(out);
+    const note = copy.getWorksheet("Calc")!.getCell(book.check).note;
+    const text = typeof note === "string" ? note : (note as { texts: { text: string }[] }).texts.map((t) => t.text).join("");
+    expect(text).toMatch(/Status: warning/);
+    expect(text).toMatch(/First step that departs: B2 P_h \(hydraulic power ρgQH\)/);
+    expect(text).toMatch(/Nappe took the density of water at 60 °C from Inputs!B4/);
+    expect(readFileSync(join(dir, "a.txt"), "utf8")).toContain(line);
   });
 });
