@@ -4,12 +4,12 @@
  * ("Reynolds number", "vapor pressure"); a symbol matches a whole token of the label in its own
  * case ("Re", "D", "ΣK", "ε/D"). US and British spellings both.
  */
-export interface Vocabulary {
+interface Vocabulary {
   words: readonly string[];
   symbols: readonly string[];
 }
 
-export const VOCABULARY: Readonly<Record<string, Vocabulary>> = {
+const VOCABULARY: Readonly<Record<string, Vocabulary>> = {
   flow: { words: ["flow", "flow rate", "discharge", "capacity", "duty flow"], symbols: ["Q"] },
   diameter: { words: ["diameter", "diam", "inside diameter", "bore", "ID"], symbols: ["D", "d", "ID"] },
   length: { words: ["length", "pipe length", "run"], symbols: ["L"] },

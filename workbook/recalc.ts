@@ -535,7 +535,7 @@ export function outcomeFor(cell: CellModel, computed: Computed, tolerance = 1e-6
 }
 
 /** What a run found and did, for the summary line. */
-export interface RecalcCounts {
+interface RecalcCounts {
   /** Formula cells in the workbook. */
   formulas: number;
   /** Formula cells that call a NAPPE function (either stored form). */
@@ -551,7 +551,7 @@ export interface RecalcCounts {
 }
 
 /** "1 formula", "2 formulas". */
-export function count(n: number, noun: string): string {
+function count(n: number, noun: string): string {
   return `${n} ${noun}${n === 1 ? "" : "s"}`;
 }
 
