@@ -171,11 +171,14 @@ function stepView(s: Step, units: Shown): StepView {
 const GRAVITY = { si: "9.80665 m/s²", us: "32.174 ft/s²" };
 
 /**
- * The spec's derivation line with the numbers of one evaluation: in US customary units when the
- * call's flow or a length was given in them, else in base units.
+ * The spec's derivation line with the numbers of one evaluation, so that it multiplies out: in
+ * the system of the result asked for (US customary or SI, coherent units), the result's own
+ * dimension in the unit asked for.
  */
-function substitutedLine(spec: FunctionSpec, ev: Evaluation, units: Shown): string | undefined {
-  const us = units.us;
+function substitutedLine(spec: FunctionSpec, ev: Evaluation, shownUnits: Shown): string | undefined {
+  const us = shownUnits.us;
+  // The equation multiplies out: its numbers in the system's coherent units, the result's own dimension in the unit asked.
+  const units: Shown = { us, units: shownUnits.units[ev.dim] ? { [ev.dim]: shownUnits.units[ev.dim] } : {} };
   const derivation = spec.derivation;
   if (!derivation) return undefined;
   const missing = () => {
