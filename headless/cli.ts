@@ -21,6 +21,7 @@ import { writeAtomically } from "./atomic";
 import { Budget, DEFAULT_LIMITS, type Limits } from "./package";
 import { recalculate, type RecalcResult, savedWithoutAddinNotice, summaryLine } from "../workbook/recalc";
 import { hasNappeCall } from "../workbook/storedForm";
+import { diagnoseKeptCheck } from "../workbook/crossCheck";
 import { addAuditSheet, renderTable, renderText } from "./render";
 import { BudgetError, labelSource, readWorkbook, type WorkbookModel, WorkbookError } from "./readXlsx";
 
@@ -132,7 +133,7 @@ async function load(file: string, flags: Options["flags"]): Promise<{ wb: Workbo
   const total = wb.sheets.reduce((n, s) => n + [...s.cells.values()].filter((c) => c.formula).length, 0);
   const progress = progressFor(total);
   try {
-    return { wb, result: recalculate(wb, { tolerance, all: flags.all, budget, onProgress: (d) => progress.update(d) }) };
+    return { wb, result: recalculate(wb, { tolerance, all: flags.all, budget, diagnose: diagnoseKeptCheck, onProgress: (d) => progress.update(d) }) };
   } finally {
     progress.stop();
   }

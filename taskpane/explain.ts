@@ -269,8 +269,11 @@ export async function analyseCell(port: HostPort, sheet: string, address: string
   const computed = engine.compute(model);
   const labels = labelSourceFrom(snap.labels, snap.formats, snap.formulas);
   // The unit check, and a kept cross-check's diagnosis over the whole workbook (read once per check).
-  const whole = /CROSSCHECK/i.test(formula) ? await (shared.workbook ??= port.workbookSnapshot()) : snap.wb;
-  const outcome = addFindings(outcomeFor({ ...model, value: cell.value }, computed), { wb: whole, value: (s, r, c) => getCell(whole, s, r, c)?.value ?? null }, labels);
+  const kept = /CROSSCHECK/i.test(formula);
+  const whole = kept ? await (shared.workbook ??= port.workbookSnapshot()) : snap.wb;
+  // The diagnosis loads as a chunk of its own, the first time a kept check is analysed.
+  const diagnose = kept ? (await import(/* webpackChunkName: "crosscheck" */ "../workbook/crossCheck")).diagnoseKeptCheck : undefined;
+  const outcome = addFindings(outcomeFor({ ...model, value: cell.value }, computed), { wb: whole, value: (s, r, c) => getCell(whole, s, r, c)?.value ?? null }, labels, diagnose);
   const pairs = pairCalls(outcome.calls, sites);
   const calls = outcome.calls.map((rec, i) => explainCall(rec, pairs[i], formula, sheet, labels));
   // Outermost first reads best: reverse evaluation order.

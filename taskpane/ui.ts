@@ -10,8 +10,6 @@ import { describeArguments, exampleFormula, searchCatalog, signature } from "./g
 import type { HostPort } from "./host/port";
 import { writeAction } from "./actions";
 import { GENERAL_CAUTIONS } from "../functions/catalog/_shared";
-import { crossCheckCell } from "./crossCheck";
-import { diagnosisLines } from "../workbook/crossCheck";
 import { formatNumber, formatUnit, setSignificantFigures, significantFigures } from "../workbook/format";
 import { UndoStack } from "./undo";
 import { addressOf, parseAddress } from "../workbook/address";
@@ -295,9 +293,11 @@ function crossCheckView(cell: CellExplanation, ctx: PaneContext): HTMLElement {
     try {
       const percent = Number(tolerance.value);
       if (!(percent > 0 && percent < 100)) throw new Error("the tolerance must be a percentage above 0 and below 100");
+      // The cross-check loads as a chunk of its own, the first time it is used.
+      const { crossCheckCell } = await import(/* webpackChunkName: "crosscheck" */ "./crossCheck");
       const r = await crossCheckCell(ctx.port, cell.sheet, cell.address, specId, { tolerance: percent / 100, mapping });
       const mark = r.verdict === "agrees" ? MARK.ok : MARK.warning;
-      const lines = diagnosisLines(r);
+      const lines = r.lines;
       const verdict = el("p", `status verdict ${r.verdict === "agrees" ? "ok" : "warning"}`, `${mark} ${r.headline}`);
       const keep = el("button", "keep", "Keep the check in the workbook");
       keep.addEventListener("click", () =>

@@ -6,7 +6,6 @@ import ExcelJS from "exceljs";
 import { describe, expect, it } from "vitest";
 import { colebrookFriction, swameeJainFriction } from "../functions/calc/friction";
 import { crossCheckCell } from "../taskpane/crossCheck";
-import { diagnosisLines } from "../workbook/crossCheck";
 import { MemoryHost } from "../taskpane/host/memory";
 import { fromExcelJS } from "../workbook/fromExcelJS";
 import { recalculate } from "../workbook/recalc";
@@ -48,7 +47,7 @@ describe("cross-check of a hand head-loss calculation", () => {
     const want = swameeJainFriction(re, 0.0018 / 6.065) / colebrookFriction(re, 0.0018 / 6.065) - 1;
     expect(Math.abs(r.relativeDifference - want)).toBeLessThan(1e-5);
     expect(r.departures[0]).toMatchObject({ cell: "B8", symbol: "f" });
-    expect(diagnosisLines(r)[1]).toMatch(/^First step that departs: B8 f \(Darcy friction factor\) 0\.0\d+ vs Nappe 0\.0\d+, \+0\.\d+ %$/);
+    expect(r.lines[1]).toMatch(/^First step that departs: B8 f \(Darcy friction factor\) 0\.0\d+ vs Nappe 0\.0\d+, \+0\.\d+ %$/);
     expect(r.causes.join("; ")).toMatch(/explicit friction formula \(Swamee–Jain\)/);
     expect(r.keepFormula).toBe('NAPPE.CROSSCHECK(B9, NAPPE.HEADLOSS(B1&" gpm", B2&" in", B3&" ft", B4&" in", B5&" ft^2/s", "ft"), 0.005)');
   });

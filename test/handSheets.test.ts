@@ -14,7 +14,7 @@ import { readWorkbook } from "../headless/readXlsx";
 import { renderText } from "../headless/render";
 import { renderHtml } from "../headless/renderHtml";
 import { auditSheetRows, buildAudit } from "../workbook/audit";
-import { crossCheckHand, type Diagnosis, diagnosisLines } from "../workbook/crossCheck";
+import { crossCheckHand, type Diagnosis, diagnoseKeptCheck } from "../workbook/crossCheck";
 import { labelSource, type WorkbookModel } from "../workbook/model";
 import { recalculate, type RecalcResult, savedWithoutAddinNotice, summaryLine } from "../workbook/recalc";
 import { HAND_BOOKS, HAND_REFERENCE, type HandBook, handBookBytes } from "./fixtures/handSheets";
@@ -60,7 +60,7 @@ function checkOf(result: RecalcResult, book: HandBook) {
 }
 
 function expectDiagnosis(d: Diagnosis, want: HandBook["expect"], label: string) {
-  const text = diagnosisLines(d).join("\n");
+  const text = d.lines.join("\n");
   expect(d.verdict, `${label}\n${text}`).toBe(want.verdict);
   if (want.first === "result") expect(d.departures, `${label}\n${text}`).toEqual([]);
   else if (want.first) expect(d.departures[0]?.symbol, `${label}\n${text}`).toBe(want.first);
@@ -82,7 +82,7 @@ describe("hand-calculation workbooks with planted slips", () => {
     for (const variant of ["dotted", "stored", "cached", "libreoffice"] as Variant[]) {
       it.skipIf(variant === "libreoffice" && !soffice)(`${book.id} (${book.system}; ${book.slip || "clean"}), ${variant}: the kept check's diagnosis, headless`, () => {
         const wb = books.get(key(book, variant))!;
-        const result = recalculate(wb);
+        const result = recalculate(wb, { diagnose: diagnoseKeptCheck });
         const { cell, diagnosis } = checkOf(result, book);
         expectDiagnosis(diagnosis, book.expect, `${book.id} ${variant}`);
         // Nappe's value against the independent reference (Python: IAPWS-IF97, mpmath Colebrook, NIST SP 811).
@@ -134,7 +134,7 @@ describe("the walk of a hand formula", () => {
     const deep: HandBook = { ...book, sheets: [book.sheets[0], { name: "Calc", rows: calc.map((r) => r ?? ["", ""]) }] };
     const path = join(dir, "deep.xlsx");
     writeFileSync(path, await handBookBytes(deep));
-    const { diagnosis } = checkOf(recalculate(await readWorkbook(path)), deep);
+    const { diagnosis } = checkOf(recalculate(await readWorkbook(path), { diagnose: diagnoseKeptCheck }), deep);
     expect(diagnosis.departures[0].symbol).toBe("V²/2g");
     expect(diagnosis.causes.join("\n")).toMatch(/g = 9\.81 m\/s² in Inputs!B7/);
   });
@@ -160,7 +160,7 @@ describe("the walk of a hand formula", () => {
     };
     const d = crossCheckHand({ wb, value: (_sheet, r, c) => wb.sheets[0].cells.get(`${r}:${c}`)?.value ?? null }, "Hand", "B3", "VELOCITY");
     expect(d.cycles.join("\n")).toMatch(/B4 → B3 → B4|B3 → B4 → B3/);
-    expect(diagnosisLines(d).join("\n")).toMatch(/^Cycle: /m);
+    expect(d.lines.join("\n")).toMatch(/^Cycle: /m);
   });
 });
 
@@ -168,7 +168,7 @@ describe("one diagnosis, every view", () => {
   it("the text, HTML and audit sheet name the first departing step and the cause in the user's units", () => {
     const book = HAND_BOOKS.find((b) => b.id === "g322-us")!;
     const wb = books.get(key(book, "dotted"))!;
-    const result = recalculate(wb);
+    const result = recalculate(wb, { diagnose: diagnoseKeptCheck });
     const report = buildAudit(result.cells, { title: "t", source: "g322-us.xlsx", found: summaryLine(result.counts, result.cells), workbook: wb }, labelSource(wb));
     const first = /First step that departs: B16 V²\/2g \(velocity head\) 0\.88764\d* ft vs Nappe 0\.88836\d* ft, -0\.0805 %/;
     const cause = /Likely cause: g = 32\.2 ft\/s² in Inputs!B6 \("g \(ft\/s²\)"\) instead of standard gravity 32\.174 ft\/s²/;

@@ -16,7 +16,6 @@ import { fromBase } from "../functions/units/quantity";
 import { formatNumber, formatPercent, formatQuantity, formatUnit, labelledSpill, shortenQuantityText, type SpillTable } from "./format";
 import type { CallSite } from "./formula";
 import type { CallRecord } from "./recalc";
-import { diagnosisLines } from "./crossCheck";
 import { checkCallUnits, type LabelSource, type UnitFinding } from "./unitCheck";
 
 interface ArgView {
@@ -246,7 +245,7 @@ export function callView(rec: CallRecord, site: CallSite | undefined, sheet: str
     // A kept check's own "Differs" warning is said in full by its diagnosis.
     warnings: (ev?.warnings ?? []).filter((w) => !(rec.diagnosis && /^Differs: the hand value/.test(w))),
     unitFindings: ev && labels ? checkCallUnits(spec, ev, rec.refs, sheet, labels) : [],
-    diagnosis: rec.diagnosis ? diagnosisLines(rec.diagnosis) : [],
+    diagnosis: rec.diagnosis?.lines ?? [],
     cautions: spec.cautions,
     sources: spec.sources,
     error: rec.error?.message,

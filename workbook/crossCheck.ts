@@ -94,6 +94,8 @@ export interface Diagnosis {
   /** The whole line, as every view opens it. */
   headline: string;
   evaluation: Evaluation;
+  /** The diagnosis as every view shows it (diagnosisLines). */
+  lines: string[];
 }
 
 /** A step that departs by more than this is named, whatever the verdict. */
@@ -547,11 +549,12 @@ function diagnose(src: CheckSource, at: { sheet: string; address: string }, spec
     cycles,
     headline: `${word}: ${numbers}`,
     evaluation: ev,
+    lines: [],
   };
 }
 
 /** The diagnosis as lines of text, the same in every view: the verdict, the departing steps, the causes, what Nappe read or assumed. */
-export function diagnosisLines(d: Diagnosis): string[] {
+function diagnosisLines(d: Diagnosis): string[] {
   const lines = [`Cross-check of ${d.handCell}${d.handLabel ? ` ("${d.handLabel}")` : ""} as NAPPE.${d.specId}: ${d.headline}`];
   if (d.verdict === "incomplete") for (const i of d.incomplete) lines.push(`Incomplete: ${i}`);
   if (d.departures.length) {
@@ -662,6 +665,7 @@ export function crossCheckHand(src: CheckSource, sheet: string, address: string,
   if (unitIndex >= 0 && d.unit !== DIMENSIONS[d.evaluation.dim].base) written[unitIndex] = `"${d.unit}"`;
   while (written.length && written[written.length - 1] === "") written.pop();
   const keepFormula = `NAPPE.CROSSCHECK(${refText(hand.sheet, hand.address, sheet)}, NAPPE.${specId}(${written.join(", ")}), ${tolerance})`;
+  d.lines = diagnosisLines(d);
   return { ...d, keepFormula, candidates: walked.cells.map((c) => `${refText(c.sheet, c.address, sheet)}${c.label ? ` ${c.label}` : ""} = ${formatNumber(c.value)}`) };
 }
 
@@ -697,5 +701,6 @@ export function diagnoseKeptCheck(src: CheckSource, sheet: string, handRef: stri
   const d = diagnose(src, target, spec, given, inputs, tolerance);
   const defaulted = inner.readings.filter((r) => r.how === "default" && ENVIRONMENT.includes(r.name) && d.inputs.some((x) => x.name === r.name && x.how === "workbook"));
   if (defaulted.length) d.notes.unshift(`The check's NAPPE.${specId} leaves ${defaulted.map((r) => r.name).join(" and ")} to the default (water at 20 °C), so the value it shows compares with 20 °C water; the diagnosis uses the workbook's`);
+  d.lines = diagnosisLines(d);
   return d;
 }

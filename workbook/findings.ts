@@ -5,7 +5,7 @@
  * `nappe audit`, the hand-off copy and the pane's workbook check all call it.
  */
 import { CATALOG_BY_ID } from "../functions/catalog";
-import { type CheckSource, diagnoseKeptCheck, diagnosisLines } from "./crossCheck";
+import type { CheckSource, diagnoseKeptCheck } from "./crossCheck";
 import { callSites, evaluationOrder } from "./formula";
 import type { CallRecord, CellOutcome } from "./recalc";
 import { checkCallUnits, type LabelSource } from "./unitCheck";
@@ -13,8 +13,15 @@ import { checkCallUnits, type LabelSource } from "./unitCheck";
 /** The kept check's own warning, which the diagnosis says in full. */
 const CHECK_WARNING = /^Differs: the hand value is /;
 
-/** Adds the unit check's findings and a kept cross-check's diagnosis to an outcome (status, messages, the call's record). */
-export function addFindings(outcome: CellOutcome, src: CheckSource, labels: LabelSource): CellOutcome {
+/** The kept check's diagnosis (workbook/crossCheck.ts), passed in: the pane loads it as a chunk of its own. */
+export type KeptDiagnosis = typeof diagnoseKeptCheck;
+
+/**
+ * Adds the unit check's findings and a kept cross-check's diagnosis to an outcome (status,
+ * messages, the call's record). `diagnose` is workbook/crossCheck.ts's diagnoseKeptCheck: every
+ * caller that counts statuses passes it (the command, the pane's analyses).
+ */
+export function addFindings(outcome: CellOutcome, src: CheckSource, labels: LabelSource, diagnose?: KeptDiagnosis): CellOutcome {
   if (outcome.status === "error" && !outcome.recalculated) return outcome;
   const messages = [...outcome.messages];
   let status = outcome.status;
@@ -30,14 +37,14 @@ export function addFindings(outcome: CellOutcome, src: CheckSource, labels: Labe
     }
   }
   const calls = outcome.calls.map((call, i) => {
-    if (call.id !== "CROSSCHECK" || !call.evaluation || !call.refs[0]) return call;
+    if (call.id !== "CROSSCHECK" || !call.evaluation || !call.refs[0] || !diagnose) return call;
     const inner = innerCall(outcome, i);
     if (!inner?.evaluation) return call;
     try {
       const tolerance = call.evaluation.readings.find((r) => r.name === "tolerance")?.value;
-      const diagnosis = diagnoseKeptCheck(src, outcome.sheet, call.refs[0], inner.evaluation, inner.id, typeof tolerance === "number" ? tolerance : 0.005);
+      const diagnosis = diagnose(src, outcome.sheet, call.refs[0], inner.evaluation, inner.id, typeof tolerance === "number" ? tolerance : 0.005);
       const at = messages.findIndex((m) => m.startsWith("NAPPE.CROSSCHECK: ") && CHECK_WARNING.test(m.slice(18)));
-      const lines = diagnosisLines(diagnosis).map((l) => `NAPPE.CROSSCHECK: ${l}`);
+      const lines = diagnosis.lines.map((l) => `NAPPE.CROSSCHECK: ${l}`);
       if (diagnosis.verdict !== "agrees") {
         if (at >= 0) messages.splice(at, 1, ...lines);
         else messages.push(...lines);

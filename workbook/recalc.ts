@@ -17,7 +17,7 @@ import { sheetPrefix } from "./address";
 import { displayFormula, dottedName, externalLinkIndexes, hasNappeCall, otherAddinFunctions, resolveNames, unknownNappeFunctions } from "./storedForm";
 import { formatNumber } from "./format";
 import type { Diagnosis } from "./crossCheck";
-import { addFindings } from "./findings";
+import { addFindings, type KeptDiagnosis } from "./findings";
 import { labelSource } from "./model";
 
 /** One NAPPE call made while computing a cell. */
@@ -65,6 +65,8 @@ interface RecalcOptions {
   all?: boolean;
   /** Time and memory budget, checked as formulas are computed. */
   budget?: Budget;
+  /** Diagnoses kept cross-checks (workbook/crossCheck.ts diagnoseKeptCheck); without it they keep their own verdict. */
+  diagnose?: KeptDiagnosis;
 }
 
 interface Computed {
@@ -602,7 +604,7 @@ export function recalculate(wb: WorkbookModel, options: RecalcOptions = {}): Rec
   const labels = labelSource(wb);
   const outcomes = reported.map((cell) => {
     const outcome = outcomeFor(cell, engine.compute(cell), tolerance);
-    return isNappe.has(cell) ? addFindings(outcome, src, labels) : outcome;
+    return isNappe.has(cell) ? addFindings(outcome, src, labels, options.diagnose) : outcome;
   });
   const nappeOutcomes = outcomes.filter((_, i) => isNappe.has(reported[i]));
   const counts: RecalcCounts = {
