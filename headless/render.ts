@@ -5,6 +5,7 @@ import { derivationText } from "../workbook/derivation";
 import { formatNumber, formatSpillText, formatUnit, formatValue, labelledSpill } from "../workbook/format";
 import type { CellOutcome } from "../workbook/recalc";
 import { spillsRows } from "../workbook/summary";
+import { wrapText } from "./terminal";
 
 /** Spaces to pad columns with (wider than the widest column and its gap). */
 const SPACES = " ".repeat(64);
@@ -13,16 +14,24 @@ function clip(text: string, width: number): string {
   return text.length <= width ? text : `${text.slice(0, width - 1)}…`;
 }
 
+/** The narrowest a shortened formula column gets. */
+const MIN_FORMULA = 16;
+
 /**
- * The recalculation as a fixed-width table, with each cell's messages under it, and under a
- * spilled result its rows (labelled by its header, or the function's columns): `spills` rows at
- * most, then how many more; each such line cut to `width` when given (a terminal's).
+ * The recalculation as a fixed-width table fitted to `width` (a terminal's, or 80; Infinity for
+ * everything): each cell's messages under it, wrapped with a hanging indent; a formula too long
+ * for its column shortened with "…" and given in full under its row; under a spilled result its
+ * rows (labelled by its header, or the function's columns), `spills` rows at most, then how many
+ * more. Fitted, the cached and difference columns show only when some value differs from its cache.
  */
 export function renderTable(cells: readonly CellOutcome[], options: { spills?: number; width?: number } = {}): string {
   const spills = options.spills ?? 5;
-  const head = ["sheet", "cell", "formula", "value", "unit", "cached", "difference", "status"];
+  const width = options.width ?? Infinity;
+  // At a fitted width, the cached and difference columns show only when some value differs from its cache (--wide: always).
+  const anyDifference = !Number.isFinite(width) || cells.some((c) => (c.difference !== null && c.difference !== 0) || (c.cached !== null && c.difference === null && c.status === "error"));
+  const columns = ["sheet", "cell", "formula", "value", "unit", "cached", "difference", "status"];
   const limits = [16, 8, 48, 28, 10, 14, 10, 7];
-  const k = head.length;
+  const k = columns.length;
   // Every cell's texts in one flat list (row i, column j at i·k + j): a list per row costs a large
   // workbook tens of thousands of small arrays.
   const texts: string[] = new Array(cells.length * k);
@@ -37,37 +46,47 @@ export function renderTable(cells: readonly CellOutcome[], options: { spills?: n
     texts[i * k + 6] = c.difference === null ? "" : c.difference === 0 ? "0" : c.difference.toExponential(1);
     texts[i * k + 7] = c.status;
   });
+  const shownColumns = columns.map((_, j) => (j !== 5 && j !== 6) || anyDifference);
   // A loop, not Math.max(...texts): spreading a few hundred thousand values overflows the call stack.
-  const widths = head.map((h, j) => {
+  const widths = columns.map((h, j) => {
+    if (!shownColumns[j]) return 0;
     let w = h.length;
     for (let i = j; i < texts.length; i += k) if (texts[i].length > w) w = texts[i].length;
-    return Math.min(limits[j], w);
+    return Math.min(Number.isFinite(width) ? limits[j] : j === 2 ? Infinity : limits[j], w);
   });
+  // The formula column takes what the others leave of the width, down to MIN_FORMULA.
+  const gaps = 2 * (shownColumns.filter(Boolean).length - 1);
+  const others = widths.reduce((n, w, j) => n + (j === 2 ? 0 : w), 0);
+  if (Number.isFinite(width)) widths[2] = Math.max(Math.min(columns[2].length, widths[2]), Math.min(widths[2], Math.max(MIN_FORMULA, width - others - gaps)));
   // Each column padded to its width, two spaces between columns, no trailing spaces.
   const line = (row: readonly string[], from: number) => {
     let text = "";
+    let first = true;
     for (let j = 0; j < k; j++) {
+      if (!shownColumns[j]) continue;
       const v = clip(row[from + j], widths[j]);
-      text += j < k - 1 ? v + SPACES.slice(0, widths[j] - v.length + 2) : v;
+      text += (first ? "" : "  ") + v + (j < k - 1 ? SPACES.slice(0, Math.max(0, widths[j] - v.length)) : "");
+      first = false;
     }
     return text.trimEnd();
   };
-  const out = [line(head, 0), widths.map((w) => "-".repeat(w)).join("  ")];
+  const out = [line(columns, 0), columns.flatMap((_, j) => (shownColumns[j] ? ["-".repeat(widths[j])] : [])).join("  ")];
   cells.forEach((c, i) => {
     out.push(line(texts, i * k));
+    if (c.formula.length > widths[2]) out.push(...wrapText(c.formula, width, "    formula: ", "      "));
     if (Array.isArray(c.value) && spills > 0) {
       const t = labelledSpill(c.value, c.calls[c.calls.length - 1]?.evaluation?.header);
       const shown = formatSpillText({ header: t.header, rows: t.rows.slice(0, spills) }, "      ").split("\n");
-      for (const l of shown) out.push(options.width ? clip(l, options.width) : l);
+      for (const l of shown) out.push(Number.isFinite(width) ? clip(l, width) : l);
       if (t.rows.length > spills) out.push(`      … ${t.rows.length - spills} more row${t.rows.length - spills === 1 ? "" : "s"} (--spills all)`);
     }
-    for (const m of c.messages) out.push(`    ${c.status === "error" ? "!" : "-"} ${m}`);
+    for (const m of c.messages) out.push(...wrapText(m, width, `    ${c.status === "error" ? "!" : "-"} `, "      "));
   });
   return out.join("\n");
 }
 
 /** The audit as plain text: what was found, the cautions, then every cell with its derivations. */
-export function renderText(report: AuditReport): string {
+export function renderText(report: AuditReport, width = 80): string {
   const out = [report.title, `Workbook: ${report.source} · ${report.generated}`, report.found ?? `${report.entries.length} NAPPE formulas`, ""];
   if (!report.entries.length) out.push(NOTHING_FOUND, "");
   const s = report.summary;
@@ -79,7 +98,13 @@ export function renderText(report: AuditReport): string {
     for (const m of e.messages.filter((m) => !e.calls.some((c) => m.includes(c.id)))) out.push(`Note: ${m}`);
     for (const c of e.calls) out.push("", derivationText(e, c));
   }
-  return `${out.join("\n")}\n`;
+  // Fitted to `width` (80 unless --wide): long lines wrapped under their own indent.
+  const fitted = out.flatMap((text) => text.split("\n")).flatMap((l) => {
+    if (l.length <= width) return [l];
+    const lead = /^\s*/.exec(l)![0];
+    return wrapText(l.slice(lead.length), width, lead, `${lead}    `);
+  });
+  return `${fitted.join("\n")}\n`;
 }
 
 /** Adds the audit as a print-ready sheet to an exceljs workbook (replacing a sheet of that name). */

@@ -496,6 +496,9 @@ function relativeDifference(value: number, cached: number): number {
   return Math.abs(value - cached) / Math.max(Math.abs(cached), 1e-300);
 }
 
+/** What the engine could not compute, as its messages say: an unsupported function, text that is no formula, a name that is no Nappe function. */
+const CANNOT = /unsupported function|could not be parsed|is not a Nappe function|circular reference/;
+
 /** A formula cell's report: status, messages and the comparison with the cached value. */
 export function outcomeFor(cell: CellModel, computed: Computed, tolerance = 1e-6): CellOutcome {
   const messages: string[] = [];
@@ -533,7 +536,9 @@ export function outcomeFor(cell: CellModel, computed: Computed, tolerance = 1e-6
     status = "error";
     messages.push(`differs from the value cached in the file (${String(cell.value)})`);
   }
-  return { sheet: cell.sheet, address: cell.address, formula: `=${formula}`, value: computed.value, unit, cached: cell.value, difference, status, messages, calls: computed.calls, recalculated: !computed.error };
+  // A formula that returns an Excel error (#N/A from a lookup, #NUM! from a bad input) was recalculated; one the engine could not compute was not.
+  const recalculated = !computed.error || !CANNOT.test(computed.message ?? "");
+  return { sheet: cell.sheet, address: cell.address, formula: `=${formula}`, value: computed.value, unit, cached: cell.value, difference, status, messages, calls: computed.calls, recalculated };
 }
 
 /** What a run found and did, for the summary line. */
