@@ -8,8 +8,8 @@
 import { spawn } from "node:child_process";
 import { readdir, stat } from "node:fs/promises";
 import { availableParallelism } from "node:os";
-import { basename, extname, join, resolve } from "node:path";
-import packageJson from "../package.json";
+import { readFileSync } from "node:fs";
+import { basename, dirname, extname, join, resolve } from "node:path";
 import { parseArgs as parseCommandLine } from "node:util";
 import { buildAudit, GENERAL_CAUTIONS } from "../workbook/audit";
 import { demoSummaryLines, slipsOf, wrap } from "./demoSummary";
@@ -18,7 +18,17 @@ import { checkWritable, UnwritableError, writeAtomically } from "./atomic";
 import { JSON_VERSION, jsonReport, junitCases, junitXml, type WorkbookRecord, workbookRecord } from "./machine";
 import { outputWidth, plural, wrapText } from "./terminal";
 
-const VERSION = packageJson.version;
+/** The package's version, read beside the command (dist-cli/ and headless/ both sit one level below it). */
+function version(): string {
+  for (const base of [process.argv[1] ? dirname(process.argv[1]) : "", __dirname]) {
+    try {
+      return (JSON.parse(readFileSync(join(base, "..", "package.json"), "utf8")) as { version: string }).version;
+    } catch {
+      // try the next
+    }
+  }
+  return "(version unknown)";
+}
 import { Budget, DEFAULT_LIMITS, type Limits } from "./package";
 import { recalculate, type RecalcResult, savedWithoutAddinNotice, summaryLine } from "../workbook/recalc";
 import { hasNappeCall } from "../workbook/storedForm";
@@ -161,7 +171,7 @@ function parseArgs(argv: string[]): Options {
   const [command, ...rest] = argv;
   if (!command) throw new UsageError(USAGE);
   if (command === "--help" || command === "-h") throw new Done(USAGE, EXIT.ok);
-  if (command === "--version" || command === "-V" || command === "version") throw new Done(`nappe ${VERSION}`, EXIT.ok);
+  if (command === "--version" || command === "-V" || command === "version") throw new Done(`nappe ${version()}`, EXIT.ok);
   if (command === "help") {
     const verb = rest[0];
     if (!verb) throw new Done(USAGE, EXIT.ok);
@@ -261,6 +271,13 @@ async function writeAudit(wb: WorkbookModel, result: RecalcResult, source: strin
   return report;
 }
 
+/** The summary line, or where it does not fit, what was found and, indented below it, the statuses. */
+function fitted(line: string, width: number): string {
+  if ([...line].length <= width) return line;
+  const [what, tally] = line.split(/(?<=\)): /);
+  return tally ? `${what}:\n  ${tally}` : wrapText(line, width, "", "  ").join("\n");
+}
+
 /** Our own outputs and Excel's lock files are not workbooks to check. */
 const NOT_A_WORKBOOK = /(^~\$)|\.(audit|handoff)\.xlsx$/i;
 
@@ -321,7 +338,7 @@ async function recalcOne(file: string, flags: Options["flags"], format: Format):
   }
   if (notice) console.log(`${wrapText(notice, width).join("\n")}\n`);
   console.log(renderTable(result.cells, { spills, width }));
-  console.log(`\n${wrapText(found(result, flags.all), width, "", "  ").join("\n")}`);
+  console.log(`\n${fitted(found(result, flags.all), width)}`);
   if (result.counts.otherAddins.length) console.log(`Not recalculated, another add-in's functions: ${result.counts.otherAddins.join(", ")}`);
   return exit;
 }
@@ -346,7 +363,7 @@ async function auditOne(file: string, flags: Options["flags"], format: Format): 
     process.stdout.write(machineOutput("audit", [workbookRecord(file, result, result.cells, found(result), exit, { notice: report.notice, written: [html, xlsx, text] })], format, exit));
     return exit;
   }
-  console.log(`${report.notice ? `${wrapText(report.notice, width).join("\n")}\n` : ""}${wrapText(found(result), width, "", "  ").join("\n")}\nAudit written:\n  ${html}\n  ${xlsx}\n  ${text}`);
+  console.log(`${report.notice ? `${wrapText(report.notice, width).join("\n")}\n` : ""}${fitted(found(result), width)}\nAudit written:\n  ${html}\n  ${xlsx}\n  ${text}`);
   return exit;
 }
 
@@ -520,7 +537,7 @@ async function main(argv: string[]): Promise<number> {
       const report = buildAudit(result.cells, { title: `Nappe audit of ${basename(file)}`, source: basename(file), found: found(result), notice: savedWithoutAddinNotice(result.counts), workbook: wb }, labelSource(wb));
       const { writeHandoff } = await import("./handoff");
       const frozen = await writeHandoff(file, out, result, report, limitsOf(flags));
-      console.log(`${found(result)}\nHand-off copy written: ${out}\n  ${plural(frozen.nappe, "NAPPE formula")} frozen to their values${frozen.other ? `, ${plural(frozen.other, "formula")} of another add-in frozen to their cached values` : ""}; the original is untouched.`);
+      console.log(`${fitted(found(result), outputWidth(flags.wide))}\nHand-off copy written: ${out}\n  ${plural(frozen.nappe, "NAPPE formula")} frozen to their values${frozen.other ? `, ${plural(frozen.other, "formula")} of another add-in frozen to their cached values` : ""}; the original is untouched.`);
       return exit;
     }
     case "show":

@@ -130,7 +130,7 @@ function xml(text: string): string {
 }
 
 /** One test case of a JUnit report. */
-export interface JunitCase {
+interface JunitCase {
   classname: string;
   name: string;
   /** A failure: the test's finding (an error, a difference, a moved result). */

@@ -35,7 +35,7 @@ async function nappe(args: string[], env: Record<string, string> = {}, cwd = roo
   }
 }
 
-const ajv = new Ajv({ allErrors: true });
+const ajv = new Ajv({ allErrors: true, allowUnionTypes: true });
 const validate = ajv.compile(schema);
 function expectSchema(text: string): Record<string, unknown> {
   const data = JSON.parse(text);
