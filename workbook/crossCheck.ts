@@ -25,7 +25,7 @@ import type { FunctionSpec } from "../functions/catalog/types";
 import { type Dimension, DIMENSIONS } from "../functions/units/dimensions";
 import { fromBase, toBase } from "../functions/units/quantity";
 import { addressOf, parseAddress, sheetPrefix, splitReference } from "./address";
-import { labelScore, namesAnother } from "./crossCheckWords";
+import { labelScore, namesAnother, STEP_WORDS } from "./crossCheckWords";
 import { formatNumber, formatQuantity, formatUnit } from "./format";
 import { directPrecedents } from "./formula";
 import { type CellValue, getCell, labelSource, type WorkbookModel } from "./model";
@@ -337,39 +337,26 @@ function fillEnvironment(spec: FunctionSpec, src: CheckSource, sheet: string, gi
 }
 
 /** Nappe's steps, with the arguments a hand sheet also computes (Q in m³/s, D in m, L in m) first. */
-function comparable(spec: FunctionSpec, ev: Evaluation): { symbol: string; name: string; value: number; dim: Dimension; aliases: string[] }[] {
+function comparable(spec: FunctionSpec, ev: Evaluation): { symbol: string; name: string; value: number; dim: Dimension; aliases: readonly string[] }[] {
   const args = [
     ["flow", "Q", "flow", ["flow", "flow rate", "discharge"]],
     ["diameter", "D", "inside diameter", ["diameter", "bore"]],
     ["length", "L", "pipe length", ["length"]],
   ] as const;
-  const out: { symbol: string; name: string; value: number; dim: Dimension; aliases: string[] }[] = [];
+  const out: { symbol: string; name: string; value: number; dim: Dimension; aliases: readonly string[] }[] = [];
   for (const [param, symbol, name, aliases] of args) {
     const r = ev.readings.find((x) => x.name === param);
     const p = spec.params.find((x) => x.name === param);
     if (r && typeof r.value === "number" && p?.kind === "quantity") out.push({ symbol, name, value: r.value, dim: p.dim, aliases: [...aliases] });
   }
-  for (const s of ev.steps) out.push({ symbol: s.symbol, name: s.name, value: s.value, dim: s.dim as Dimension, aliases: STEP_ALIASES[s.symbol] ?? [s.name.split(/[,:(]/)[0].trim()] });
+  for (const s of ev.steps) out.push({ symbol: s.symbol, name: s.name, value: s.value, dim: s.dim as Dimension, aliases: STEP_WORDS[s.symbol] ?? [s.name.split(/[,:(]/)[0].trim()] });
   return out;
 }
-
-/** The words hand sheets use for Nappe's steps, by the step's symbol. */
-const STEP_ALIASES: Record<string, string[]> = {
-  V: ["velocity", "mean velocity"],
-  Re: ["reynolds"],
-  "ε/D": ["relative roughness"],
-  f: ["friction factor"],
-  "V²/2g": ["velocity head", "dynamic head"],
-  P_h: ["hydraulic power", "water power", "ρgQH"],
-  "p_s/ρg": ["pressure head", "surface pressure head", "atmospheric head", "atmospheric pressure head"],
-  "p_v/ρg": ["vapour pressure head", "vapor pressure head", "vapour head", "vapor head"],
-  A: ["area", "flow area"],
-};
 
 const escapeRe = (s: string) => s.replace(/[.*+?^${}()|[\]\\/]/g, "\\$&");
 
 /** How well a hand cell's label names a step: the longest alias it contains, else its symbol as a token. */
-function stepScore(label: string, step: { symbol: string; aliases: string[] }): number {
+function stepScore(label: string, step: { symbol: string; aliases: readonly string[] }): number {
   const name = label.replace(/\([^()]*\)\s*$/, " ");
   const words = step.aliases.filter((a) => new RegExp(`(^|[^A-Za-z])${escapeRe(a)}([^A-Za-z]|$)`, "i").test(name));
   if (words.length) return 10 + Math.max(...words.map((w) => w.length));
@@ -583,7 +570,7 @@ function literalArg(text: string): RawArg {
  * its inputs mapped from the hand formula's precedents by label, unit and symbol, or as the
  * user pointed them (`mapping`: argument → "B7", "Inputs!B7" or a literal such as "20 degC").
  */
-export function crossCheckHand(src: CheckSource, sheet: string, address: string, specId: string, options: { tolerance?: number; mapping?: Record<string, string> } = {}): Diagnosis & { keepFormula: string; candidates: string[] } {
+export function crossCheckHand(src: CheckSource, sheet: string, address: string, specId: string, options: { tolerance?: number; mapping?: Record<string, string> } = {}): Diagnosis & { keepFormula: string } {
   const spec = CATALOG_BY_ID.get(specId);
   if (!spec) throw new Error(`no function NAPPE.${specId}`);
   const { row, col } = parseAddress(address);
@@ -666,7 +653,7 @@ export function crossCheckHand(src: CheckSource, sheet: string, address: string,
   while (written.length && written[written.length - 1] === "") written.pop();
   const keepFormula = `NAPPE.CROSSCHECK(${refText(hand.sheet, hand.address, sheet)}, NAPPE.${specId}(${written.join(", ")}), ${tolerance})`;
   d.lines = diagnosisLines(d);
-  return { ...d, keepFormula, candidates: walked.cells.map((c) => `${refText(c.sheet, c.address, sheet)}${c.label ? ` ${c.label}` : ""} = ${formatNumber(c.value)}`) };
+  return { ...d, keepFormula };
 }
 
 function refUnit(src: CheckSource, ref: string, sheet: string): string {

@@ -59,3 +59,17 @@ export function namesAnother(label: string, quantity: string): boolean {
   const own = labelScore(label, quantity);
   return Object.keys(VOCABULARY).some((q) => q !== quantity && labelScore(label, q) > own);
 }
+
+/** The words hand sheets use for Nappe's intermediate values, by the step's symbol: the longest one a label holds wins ("vapor pressure head" over "pressure head"). */
+export const STEP_WORDS: Readonly<Record<string, readonly string[]>> = {
+  V: ["velocity", "mean velocity"],
+  Re: ["reynolds"],
+  "ε/D": ["relative roughness"],
+  f: ["friction factor"],
+  "V²/2g": ["velocity head", "dynamic head"],
+  P_h: ["hydraulic power", "water power", "ρgQH"],
+  "p_s/ρg": ["pressure head", "surface pressure head", "atmospheric head", "atmospheric pressure head"],
+  "p_v/ρg": ["vapour pressure head", "vapor pressure head", "vapour head", "vapor head"],
+  A: ["area", "flow area"],
+};
+
