@@ -25,7 +25,7 @@ export const specs: FunctionSpec[] = [
     derivation: (n) => `Δ = (hand − Nappe)/Nappe = (${n.arg("hand", undefined, 9)} − ${n.arg("nappe", undefined, 9)})/${n.arg("nappe", undefined, 9)} = ${n.result}`,
     assumptions: ["Both values are in the same unit: give the NAPPE call the unit of the hand cell."],
     validity: ["Nappe's value must not be zero; tolerance above 0 and below 1."],
-    cautions: ["Agreement within the tolerance does not prove both right: the pane's cross-check names every step that departs."],
+    cautions: ["Agreement within the tolerance does not prove both right: the cross-check's diagnosis (in the pane and every audit) names every step that departs."],
     sources: ["Relative difference (definition)"],
     examples: [
       { args: [10.2, 10, "0.5%"], expect: 0.02, tolerance: 1e-12, source: "Definition: (10.2 − 10)/10 = 0.02 (differs at 0.5 %)" },
