@@ -15,7 +15,7 @@ import { renderText } from "../headless/render";
 import { renderHtml } from "../headless/renderHtml";
 import { auditSheetRows, buildAudit } from "../workbook/audit";
 import { crossCheckHand, type Diagnosis, diagnoseKeptCheck } from "../workbook/crossCheck";
-import { labelSource, type WorkbookModel } from "../workbook/model";
+import { labelSource, parseAddress, type WorkbookModel } from "../workbook/model";
 import { recalculate, type RecalcResult, savedWithoutAddinNotice, summaryLine } from "../workbook/recalc";
 import { HAND_BOOKS, HAND_REFERENCE, type HandBook, handBookBytes } from "./fixtures/handSheets";
 import { convert, noticeIfMissing, soffice } from "./fixtures/libreoffice";
@@ -95,9 +95,10 @@ describe("hand-calculation workbooks with planted slips", () => {
           expect(result.counts.savedWithoutAddin).toBe(result.counts.nappe);
           expect(savedWithoutAddinNotice(result.counts)).toMatch(/saved where the add-in was not loaded/);
           expect(result.cells.filter((c) => c.status === "error")).toEqual([]);
-          // The hand value as LibreOffice computed and cached it, a second engine for the hand side.
-          const hand = wb.sheets.find((s) => s.name === "Calc")!.cells.get(`${book.hand.replace(/\d+/, "")}:${book.hand.replace(/\D+/, "")}`);
-          void hand;
+          // The hand value as LibreOffice computed and cached it: a second engine for the hand side.
+          const { row, col } = parseAddress(book.hand);
+          const cachedByLibreOffice = wb.sheets.find((x) => x.name === "Calc")!.cells.get(`${row}:${col}`)!.value as number;
+          expect(relativeError(diagnosis.hand, cachedByLibreOffice), `${book.id}: hand ${diagnosis.hand}, LibreOffice ${cachedByLibreOffice}`).toBeLessThan(1e-9);
         } else expect(savedWithoutAddinNotice(result.counts)).toBeUndefined();
       });
     }
