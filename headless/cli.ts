@@ -501,12 +501,14 @@ async function main(argv: string[]): Promise<number> {
     if (!(Number.isInteger(n) && n >= 2 && n <= 15)) throw new UsageError(`--digits must be a whole number from 2 to 15; got ${flags.digits}`);
     setSignificantFigures(n);
   }
-  // The time budget bounds the whole run, writing reports too: a backstop for what no check inside can stop.
+  // The time budget bounds a workbook's whole run, writing reports too: a backstop for what no
+  // check inside can stop. Several workbooks: each child process has its own.
   const limits = limitsOf(flags);
-  setTimeout(() => {
-    console.error(`nappe: stopped after ${limits.seconds + 15} s, over the time budget of ${limits.seconds} s (raise it with --max-seconds)`);
-    process.exit(EXIT.usage);
-  }, (limits.seconds + 15) * 1000).unref();
+  const watchdog = (files: number) =>
+    setTimeout(() => {
+      console.error(`nappe: stopped after ${files * limits.seconds + 15} s, over the time budget of ${limits.seconds} s per workbook (raise it with --max-seconds)`);
+      process.exit(EXIT.usage);
+    }, (files * limits.seconds + 15) * 1000).unref();
   switch (opts.command) {
     case "recalc":
     case "audit": {
@@ -517,7 +519,10 @@ async function main(argv: string[]): Promise<number> {
       const single = files.length === 1 && opts.files.length === 1 && files[0] === opts.files[0];
       if (!single && opts.command === "audit" && (flags.html || flags.xlsx || flags.text)) throw new UsageError("--html, --xlsx and --text name one workbook's reports: with several, each is written beside its workbook");
       if (!files.length) throw new UsageError(`no .xlsx workbook in ${opts.files.join(", ")}`);
-      if (single) return opts.command === "recalc" ? recalcOne(files[0], flags, format) : auditOne(files[0], flags, format);
+      if (single) {
+        watchdog(1);
+        return opts.command === "recalc" ? recalcOne(files[0], flags, format) : auditOne(files[0], flags, format);
+      }
       return many(opts.command, files, flags, format, argv);
     }
     case "handoff": {
@@ -528,6 +533,7 @@ async function main(argv: string[]): Promise<number> {
       const out = resolve(flags.out ?? `${stem}.handoff.xlsx`);
       if (out === resolve(file)) throw new UsageError("the copy would overwrite the workbook; choose another --out path");
       await checkWritable(out);
+      watchdog(1);
       const { wb, result } = await load(file, flags);
       const exit = exitOf(result, flags);
       if (exit === EXIT.empty) {
@@ -541,8 +547,10 @@ async function main(argv: string[]): Promise<number> {
       return exit;
     }
     case "show":
+      watchdog(1);
       return showVerb(opts, formatOf(flags, ["table", "json"]));
     case "diff":
+      watchdog(2);
       return diffVerb(opts, formatOf(flags, ["table", "json", "junit"]));
     case "demo": {
       const out = resolve(flags.out ?? "demo-output");
