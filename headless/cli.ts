@@ -12,11 +12,12 @@ import { readFileSync } from "node:fs";
 import { basename, dirname, extname, join, resolve } from "node:path";
 import { parseArgs as parseCommandLine } from "node:util";
 import { buildAudit, GENERAL_CAUTIONS } from "../workbook/audit";
-import { demoSummaryLines, slipsOf, wrap } from "./demoSummary";
+import { demoSummaryLines, slipsOf } from "./demoSummary";
 import { setSignificantFigures } from "../workbook/format";
 import { checkWritable, UnwritableError, writeAtomically } from "./atomic";
 import { JSON_VERSION, jsonReport, junitCases, junitXml, type WorkbookRecord, workbookRecord } from "./machine";
-import { outputWidth, plural, wrapText } from "./terminal";
+import { outputWidth, wrapText } from "./terminal";
+import { plural } from "../workbook/format";
 
 /** The package's version, read beside the command (dist-cli/ and headless/ both sit one level below it). */
 function version(): string {
@@ -372,11 +373,11 @@ async function auditOne(file: string, flags: Options["flags"], format: Format): 
  * budget; one that fails or runs over is reported and the others still checked), as many at
  * once as there are cores; a line per workbook and the totals, or the JSON / JUnit of all.
  */
-async function many(command: "recalc" | "audit", files: string[], flags: Options["flags"], format: Format, argv: string[]): Promise<number> {
+async function many(command: "recalc" | "audit", files: string[], flags: Options["flags"], format: Format): Promise<number> {
   const jobs = flags.jobs === undefined ? Math.max(1, availableParallelism()) : Math.floor(positiveNumber("jobs", flags.jobs, 1));
   const limits = limitsOf(flags);
-  // The child's own options: everything but the paths and the job count; its output is JSON.
-  const passed = argv.slice(1).filter((a, i, all) => !files.includes(a) && !paths.includes(a) && a !== "--jobs" && all[i - 1] !== "--jobs" && !a.startsWith("--jobs=") && a !== "--format" && all[i - 1] !== "--format" && !a.startsWith("--format="));
+  // The child's own options, from the parsed flags: all but the job count and the format (its output is JSON).
+  const passed = Object.entries(flags).flatMap(([name, value]) => (name === "jobs" || name === "format" || value === undefined || value === false ? [] : value === true ? [`--${name}`] : [`--${name}`, String(value)]));
   const records: WorkbookRecord[] = new Array(files.length);
   const started = Date.now();
   let done = 0;
@@ -411,9 +412,6 @@ async function many(command: "recalc" | "audit", files: string[], flags: Options
   console.log(manyTable(records, width));
   return exit;
 }
-
-/** The paths given on the command line (files and folders), for `many` to leave out of a child's options. */
-let paths: string[] = [];
 
 /** Runs one workbook's check in a child process and reads its JSON record. */
 function child(command: string, file: string, options: string[], limits: Limits): Promise<WorkbookRecord> {
@@ -514,7 +512,6 @@ async function main(argv: string[]): Promise<number> {
     case "audit": {
       const format = formatOf(flags, ["table", "json", "junit"]);
       if (!opts.files.length) throw new UsageError(`${opts.command} needs a workbook or a folder\n\n${HELP[opts.command]}`);
-      paths = opts.files;
       const files = await workbooksIn(opts.files);
       const single = files.length === 1 && opts.files.length === 1 && files[0] === opts.files[0];
       if (!single && opts.command === "audit" && (flags.html || flags.xlsx || flags.text)) throw new UsageError("--html, --xlsx and --text name one workbook's reports: with several, each is written beside its workbook");
@@ -523,7 +520,7 @@ async function main(argv: string[]): Promise<number> {
         watchdog(1);
         return opts.command === "recalc" ? recalcOne(files[0], flags, format) : auditOne(files[0], flags, format);
       }
-      return many(opts.command, files, flags, format, argv);
+      return many(opts.command, files, flags, format);
     }
     case "handoff": {
       formatOf(flags, ["table"]);
@@ -573,7 +570,7 @@ async function demo(out: string): Promise<number> {
   for (const line of demoSummaryLines(wb, result, slipsOf(wb, report))) console.log(line);
   const flagged = result.cells.filter((c) => c.status !== "ok").flatMap((c) => c.messages.map((m) => ({ c, m })));
   console.log(`\nWarnings and checks (${flagged.length}):`);
-  for (const { c, m } of flagged) for (const line of wrap(m, `  ${c.sheet}!${c.address}: `, "      ")) console.log(line);
+  for (const { c, m } of flagged) for (const line of wrapText(m, 80, `  ${c.sheet}!${c.address}: `, "      ")) console.log(line);
   const { writeHandoff } = await import("./handoff");
   await writeHandoff(path, join(out, "orchard-handoff.xlsx"), result, report, DEFAULT_LIMITS);
   console.log("");
@@ -581,7 +578,7 @@ async function demo(out: string): Promise<number> {
   console.log(tally ? `${what}:\n  ${tally}` : what);
   console.log(`Workbook: ${path}\nAudit report: ${join(out, "orchard-audit.html")}\nAudit sheet:  ${join(out, "orchard-audit.xlsx")}\nAudit text:   ${join(out, "orchard-audit.txt")}\nHand-off copy (values, no add-in needed): ${join(out, "orchard-handoff.xlsx")}`);
   console.log("");
-  for (const line of wrap(GENERAL_CAUTIONS.join(" "), "", "")) console.log(line);
+  for (const line of wrapText(GENERAL_CAUTIONS.join(" "), 80)) console.log(line);
   return report.counts.error ? 1 : 0;
 }
 

@@ -10,6 +10,7 @@ import { recalculate, type RecalcResult } from "../workbook/recalc";
 import { type CellValue, getCell, parseAddress, type WorkbookModel } from "../workbook/model";
 import type { AuditReport } from "../workbook/audit";
 import { readAsLabelled } from "../workbook/slips";
+import { wrapText } from "./terminal";
 import { inSiBaseUnits } from "../functions/units/quantity";
 import { formatNumber, formatPercent, formatUnit, formatValue } from "../workbook/format";
 
@@ -53,21 +54,6 @@ export function slipsOf(wb: WorkbookModel, report: AuditReport): Slip[] {
   return slips;
 }
 
-/** Words wrapped to the width, each line after the first indented. */
-export function wrap(text: string, first: string, indent: string): string[] {
-  const out: string[] = [];
-  let line = first;
-  for (const word of text.split(/\s+/)) {
-    if (line.length + word.length + 1 > WIDTH && line.trim().length > first.trim().length) {
-      out.push(line.trimEnd());
-      line = indent;
-    }
-    line += (line.endsWith(" ") || line === "" ? "" : " ") + word;
-  }
-  out.push(line.trimEnd());
-  return out;
-}
-
 function shown(value: CellValue | CellValue[][], unit: string): [string, string] {
   const v = Array.isArray(value) ? (value[0]?.[0] ?? null) : value;
   if (unit === "fraction" && typeof v === "number") return [formatPercent(v).replace(/ %$/, ""), "%"];
@@ -106,7 +92,7 @@ function others(result: RecalcResult): string[] {
   return spill
     .slice(1)
     .filter((r) => !/^recommended/.test(String(r[r.length - 1])))
-    .flatMap((r) => wrap(String(r[r.length - 1]), `  ${formatValue(r[0])} mm `, "      "));
+    .flatMap((r) => wrapText(String(r[r.length - 1]), WIDTH, `  ${formatValue(r[0])} mm `, "      "));
 }
 
 /** The printed summary's lines. */
@@ -134,7 +120,7 @@ export function demoSummaryLines(wb: WorkbookModel, result: RecalcResult, slips:
     const unit = String(summary.cells.get(`${label.row}:3`)?.value ?? "");
     const text = String(label.value);
     if (typeof value === "string" && value.length > 24) {
-      out.push(...wrap(value, `  ${text}: `, "    "));
+      out.push(...wrapText(value, WIDTH, `  ${text}: `, "    "));
       continue;
     }
     const [v, u] = shown(value, unit);
@@ -146,8 +132,8 @@ export function demoSummaryLines(wb: WorkbookModel, result: RecalcResult, slips:
     out.push(`  ${text.padEnd(50)} ${v.padStart(10)} ${u}${mark === "‡" ? " ‡" : ""}`.trimEnd());
   }
   for (const s of slips) {
-    out.push("", ...wrap(`‡ Computed with ${s.cell} "${s.label}" = ${formatValue(s.value)} read as ${formatValue(s.value)} ${formatUnit(s.readAs)}, the input the unit check flags. Read as ${formatValue(s.value)} ${formatUnit(s.labelled)}, as its label says (the Envelope sheet reads it so), these become:`, "", "  "));
-    out.push(...changed.flatMap((c) => wrap(c.trim(), "    ", "      ")));
+    out.push("", ...wrapText(`‡ Computed with ${s.cell} "${s.label}" = ${formatValue(s.value)} read as ${formatValue(s.value)} ${formatUnit(s.readAs)}, the input the unit check flags. Read as ${formatValue(s.value)} ${formatUnit(s.labelled)}, as its label says (the Envelope sheet reads it so), these become:`, WIDTH, "", "  "));
+    out.push(...changed.flatMap((c) => wrapText(c.trim(), WIDTH, "    ", "      ")));
   }
   return out;
 }

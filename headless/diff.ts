@@ -13,7 +13,7 @@ import { type CellModel, type CellValue, labelSource, type SheetModel, type Work
 import type { CellOutcome, RecalcResult, Status } from "../workbook/recalc";
 import { displayFormula, hasNappeCall } from "../workbook/storedForm";
 import { declaredUnit } from "../workbook/unitCheck";
-import { plural } from "./terminal";
+import { plural } from "../workbook/format";
 
 interface Side {
   wb: WorkbookModel;

@@ -48,13 +48,12 @@ export function showCells(wb: WorkbookModel, result: RecalcResult, digits = SHOW
       const unit = outcome?.unit ?? "";
       // A text cell is its own label; a number or formula is labelled by the text beside or above it.
       const label = typeof c.value === "string" && !c.formula ? "" : (labels.labelsNear(sheet.name, c.row, c.col)[0] ?? "");
-      const first = Array.isArray(value) ? value : value;
       out.push({
         sheet: sheet.name,
         cell: address,
         label,
         formula: c.formula ? `=${displayFormula(c.formula)}` : "",
-        value: Array.isArray(first) ? (first[0]?.[0] ?? null) : first,
+        value: Array.isArray(value) ? (value[0]?.[0] ?? null) : value,
         shown: `${valueText(value, digits)}${unit ? ` ${formatUnit(unit)}` : ""}`,
         unit,
         ...(outcome ? { status: outcome.status } : {}),

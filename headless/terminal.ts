@@ -15,35 +15,30 @@ export function outputWidth(wide = false, stream: { isTTY?: boolean; columns?: n
 
 /**
  * Wraps `text` to `width`: the first line starts with `first`, the others with `indent` (a
- * hanging indent). A word longer than a line is cut, never left to overflow.
+ * hanging indent). Each line keeps at least one word after its prefix; a word longer than a
+ * whole line is cut, never left to overflow.
  */
 export function wrapText(text: string, width: number, first = "", indent = ""): string[] {
   if (!Number.isFinite(width) || first.length + text.length <= width) return [`${first}${text}`.trimEnd()];
   const out: string[] = [];
   let line = first;
-  const room = () => width - line.length;
+  let words = 0;
   for (let word of text.split(/\s+/).filter(Boolean)) {
-    const lead = line.length > (out.length ? indent.length : first.length) ? " " : "";
-    if (lead.length + word.length > room()) {
-      if (line.trim()) {
-        out.push(line.trimEnd());
-        line = indent;
-      }
-      // A word longer than a whole line: cut it.
-      while (word.length > width - line.length) {
-        const cut = Math.max(1, width - line.length);
-        out.push(`${line}${word.slice(0, cut)}`);
-        word = word.slice(cut);
-        line = indent;
-      }
+    if (words && line.length + 1 + word.length > width) {
+      out.push(line.trimEnd());
+      line = indent;
+      words = 0;
     }
-    line += (line.length > (out.length ? indent.length : first.length) ? " " : "") + word;
+    // A word longer than a whole line: cut it.
+    while (!words && word.length > width - indent.length && line.length < width) {
+      const cut = width - line.length;
+      out.push(`${line}${word.slice(0, cut)}`);
+      word = word.slice(cut);
+      line = indent;
+    }
+    line += (words ? " " : "") + word;
+    words++;
   }
-  if (line.trim()) out.push(line.trimEnd());
+  out.push(line.trimEnd());
   return out;
-}
-
-/** "1 formula", "2 formulas", "0 formulas". */
-export function plural(n: number, noun: string, many = `${noun}s`): string {
-  return `${n} ${n === 1 ? noun : many}`;
 }

@@ -571,12 +571,21 @@ describe.runIf(hasChromium)("cross-check of a hand formula", () => {
 });
 
 describe.runIf(hasChromium)("cross-check of hand sheets in the pane at 350 px", () => {
-  /** The pane at 350 px beside the grid, the hand cell selected. */
-  async function paneAt(browser: Browser, url: string, cell: string): Promise<Page> {
-    const page = await browser.newPage({ viewport: { width: 1100, height: 1400 } });
-    await page.goto(`${url}?pane=350&cell=${encodeURIComponent(cell)}`);
-    await page.locator(".cell-address", { hasText: cell }).waitFor({ timeout: 20_000 });
-    return page;
+  /** A hand book in the preview, the pane at 350 px beside the grid with the hand cell selected. */
+  async function withHandBook(id: string, cell: string, test: (page: Page) => Promise<void>, options: { stored?: boolean } = {}): Promise<void> {
+    const file = join(mkdtempSync(join(tmpdir(), "nappe-hand-")), `${id}.xlsx`);
+    writeFileSync(file, await handBookBytes(HAND_BOOKS.find((b) => b.id === id)!, options));
+    const preview = await startPreview(file);
+    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
+    try {
+      const page = await browser.newPage({ viewport: { width: 1100, height: 1400 } });
+      await page.goto(`${preview.url}?pane=350&cell=${encodeURIComponent(cell)}`);
+      await page.locator(".cell-address", { hasText: cell }).waitFor({ timeout: 20_000 });
+      await test(page);
+    } finally {
+      await browser.close();
+      preview.server.kill();
+    }
   }
   async function pick(page: Page, search: string, id: string): Promise<Locator> {
     await page.getByRole("searchbox", { name: "Quantity the formula computes" }).fill(search);
@@ -585,13 +594,7 @@ describe.runIf(hasChromium)("cross-check of hand sheets in the pane at 350 px", 
   }
 
   it("walks a Colebrook chain to any depth, asks for the length by hand, keeps the check, and Undo takes it back", async () => {
-    const dir = mkdtempSync(join(tmpdir(), "nappe-hand-"));
-    const file = join(dir, "clean-si.xlsx");
-    writeFileSync(file, await handBookBytes(HAND_BOOKS.find((b) => b.id === "clean-si")!, { stored: true }));
-    const preview = await startPreview(file);
-    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
-    try {
-      const page = await paneAt(browser, preview.url, "Calc!B17");
+    await withHandBook("clean-si", "Calc!B17", async (page) => {
       const result = await pick(page, "head loss darcy", "HEADLOSS");
       // "Straight pipe, total (m)" names no length the vocabulary knows: the pane asks, it never guesses.
       await containsText(result, "length: no cell the hand formula reads is labelled as one; point it at a cell");
@@ -606,20 +609,11 @@ describe.runIf(hasChromium)("cross-check of hand sheets in the pane at 350 px", 
       expect(await undo.getAttribute("aria-label")).toBe("Undo: keep the check in Calc!C17");
       await undo.click();
       await containsText(page.locator(".status-line"), "Undone: keep the check in Calc!C17.");
-    } finally {
-      await browser.close();
-      preview.server.kill();
-    }
+    }, { stored: true });
   }, 90_000);
 
   it("says incomplete, in amber, while Nappe assumes 20 °C; a temperature given by hand completes it", async () => {
-    const dir = mkdtempSync(join(tmpdir(), "nappe-hand-"));
-    const file = join(dir, "npsh.xlsx");
-    writeFileSync(file, await handBookBytes(HAND_BOOKS.find((b) => b.id === "npsh-no-temp-si")!));
-    const preview = await startPreview(file);
-    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
-    try {
-      const page = await paneAt(browser, preview.url, "Calc!B3");
+    await withHandBook("npsh-no-temp-si", "Calc!B3", async (page) => {
       const result = await pick(page, "npsha", "NPSHA");
       const verdict = result.locator(".verdict");
       await containsText(verdict, "Incomplete: Nappe assumed 20 °C for the temperature");
@@ -633,20 +627,11 @@ describe.runIf(hasChromium)("cross-check of hand sheets in the pane at 350 px", 
       await containsText(result, "40 degC");
       expect(await result.getByRole("button", { name: "Keep the check in the workbook" }).isDisabled()).toBe(false);
       await containsText(result.locator("code.formula"), '"40 degC"');
-    } finally {
-      await browser.close();
-      preview.server.kill();
-    }
+    });
   }, 90_000);
 
   it("names a slip in a labelled constant cell, in the sheet's US units", async () => {
-    const dir = mkdtempSync(join(tmpdir(), "nappe-hand-"));
-    const file = join(dir, "g322.xlsx");
-    writeFileSync(file, await handBookBytes(HAND_BOOKS.find((b) => b.id === "g322-us")!));
-    const preview = await startPreview(file);
-    const browser = await chromium.launch({ executablePath: CHROMIUM, args: ["--headless", "--no-sandbox", "--disable-gpu", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"] });
-    try {
-      const page = await paneAt(browser, preview.url, "Calc!B17");
+    await withHandBook("g322-us", "Calc!B17", async (page) => {
       await page.getByRole("spinbutton", { name: "Tolerance, percent" }).fill("0.05");
       const result = await pick(page, "head loss darcy", "HEADLOSS");
       await containsText(result.locator(".verdict"), "Differs: hand 31.76");
@@ -658,10 +643,7 @@ describe.runIf(hasChromium)("cross-check of hand sheets in the pane at 350 px", 
       });
       expect(overflow).toBeLessThanOrEqual(0);
       await page.screenshot({ path: join(shots, "pane-cross-check-us.png"), fullPage: true });
-    } finally {
-      await browser.close();
-      preview.server.kill();
-    }
+    });
   }, 90_000);
 });
 

@@ -132,3 +132,8 @@ export function formatSpillText(t: SpillTable, indent = ""): string {
   const line = (cells: readonly string[]) => indent + cells.map((c, i) => c.padEnd(widths[i])).join("  ").trimEnd();
   return [line(t.header), ...t.rows.map(line)].join("\n");
 }
+
+/** A count with its noun: "1 formula", "2 formulas", "0 formulas". */
+export function plural(n: number, noun: string, many = `${noun}s`): string {
+  return `${n} ${n === 1 ? noun : many}`;
+}

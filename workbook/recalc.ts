@@ -15,7 +15,7 @@ import { formulaLibrary } from "./formulaLibrary";
 import { addressOf, type CellModel, cellKey, type CellValue, findSheet, parseAddress, type SheetModel, type WorkbookModel } from "./model";
 import { sheetPrefix } from "./address";
 import { displayFormula, dottedName, externalLinkIndexes, hasNappeCall, otherAddinFunctions, resolveNames, unknownNappeFunctions } from "./storedForm";
-import { formatNumber } from "./format";
+import { formatNumber, plural } from "./format";
 import type { Diagnosis } from "./crossCheck";
 import { addFindings, type KeptDiagnosis } from "./findings";
 import { labelSource } from "./model";
@@ -557,11 +557,6 @@ interface RecalcCounts {
   savedWithoutAddin: number;
 }
 
-/** "1 formula", "2 formulas". */
-function count(n: number, noun: string): string {
-  return `${n} ${noun}${n === 1 ? "" : "s"}`;
-}
-
 /**
  * The one summary line every command and view prints, in one format: "34 NAPPE formulas found in
  * 68 formulas (34 recalculated): 23 ok, 11 warning, 0 error". Statuses are the outcomes' own,
@@ -572,15 +567,15 @@ export function summaryLine(counts: RecalcCounts, statuses: readonly { status: S
   for (const c of statuses) n[c.status]++;
   const done = `${counts.recalculated} recalculated${counts.notRecalculated ? `, ${counts.notRecalculated} not recalculated` : ""}`;
   const tally = `${n.ok} ok, ${n.warning} warning, ${n.error} error`;
-  if (all) return `${count(counts.formulas, "formula")}, ${counts.nappe} of them calling NAPPE (${done}): ${tally}`;
-  return `${count(counts.nappe, "NAPPE formula")} found in ${count(counts.formulas, "formula")} (${done}): ${tally}`;
+  if (all) return `${plural(counts.formulas, "formula")}, ${counts.nappe} of them calling NAPPE (${done}): ${tally}`;
+  return `${plural(counts.nappe, "NAPPE formula")} found in ${plural(counts.formulas, "formula")} (${done}): ${tally}`;
 }
 
 /** Said once, at the top, of a copy saved where the add-in was not loaded (every NAPPE cell cached as #NAME?). */
 export function savedWithoutAddinNotice(counts: RecalcCounts): string | undefined {
   const n = counts.savedWithoutAddin;
   if (!n) return undefined;
-  return `${n === counts.nappe ? `Every NAPPE formula (${n}) was` : `${count(n, "NAPPE formula")} ${n === 1 ? "was" : "were"}`} saved where the add-in was not loaded (the file caches #NAME?, as LibreOffice or Excel without Nappe leave it): recalculated here, not compared with the cache.`;
+  return `${n === counts.nappe ? `Every NAPPE formula (${n}) was` : `${plural(n, "NAPPE formula")} ${n === 1 ? "was" : "were"}`} saved where the add-in was not loaded (the file caches #NAME?, as LibreOffice or Excel without Nappe leave it): recalculated here, not compared with the cache.`;
 }
 
 export interface RecalcResult {

@@ -281,6 +281,20 @@ class Compiler {
   }
 
   /** A node as a value (references kept as references). */
+  /** An operator joining two references (range, intersection): each operand evaluated, errors passed on, anything else #VALUE!. */
+  private refs(a: Node, b: Node, operator: string, join: (x: Ref, y: Ref) => Value): Compiled {
+    const left = this.value(a);
+    const right = this.value(b);
+    return (c) => {
+      const x = left(c);
+      const y = right(c);
+      if (x instanceof FormulaError) return x;
+      if (y instanceof FormulaError) return y;
+      if (!(x instanceof Ref) || !(y instanceof Ref)) return err("#VALUE!", `${operator} joins references only`);
+      return join(x, y);
+    };
+  }
+
   value(n: Node): Compiled {
     switch (n.k) {
       case "num": {
@@ -334,36 +348,20 @@ class Compiler {
         const { sheet, r1, r2 } = n;
         return (c) => new Ref(sheet ?? c.sheet, r1, 1, r2, MAX_COLUMN);
       }
-      case "range": {
-        const a = this.value(n.a);
-        const b = this.value(n.b);
-        return (c) => {
-          const x = a(c);
-          const y = b(c);
-          if (x instanceof FormulaError) return x;
-          if (y instanceof FormulaError) return y;
-          if (!(x instanceof Ref) || !(y instanceof Ref)) return err("#VALUE!", "the range operator (:) joins references only");
+      case "range":
+        return this.refs(n.a, n.b, "the range operator (:)", (x, y) => {
           if (x.sheet.toLowerCase() !== y.sheet.toLowerCase()) return err("#VALUE!", "the range operator (:) joins references on one sheet");
           return new Ref(x.sheet, Math.min(x.r1, y.r1), Math.min(x.c1, y.c1), Math.max(x.r2, y.r2), Math.max(x.c2, y.c2));
-        };
-      }
-      case "isect": {
-        const a = this.value(n.a);
-        const b = this.value(n.b);
-        return (c) => {
-          const x = a(c);
-          const y = b(c);
-          if (x instanceof FormulaError) return x;
-          if (y instanceof FormulaError) return y;
-          if (!(x instanceof Ref) || !(y instanceof Ref)) return err("#VALUE!", "the intersection operator (a space) joins references only");
+        });
+      case "isect":
+        return this.refs(n.a, n.b, "the intersection operator (a space)", (x, y) => {
           const r1 = Math.max(x.r1, y.r1);
           const c1 = Math.max(x.c1, y.c1);
           const r2 = Math.min(x.r2, y.r2);
           const c2 = Math.min(x.c2, y.c2);
           if (x.sheet.toLowerCase() !== y.sheet.toLowerCase() || r1 > r2 || c1 > c2) return err("#NULL!", "the two ranges do not intersect");
           return new Ref(x.sheet, r1, c1, r2, c2);
-        };
-      }
+        });
       case "union":
         return () => err("#VALUE!", "unions of references, (A1:A3,C1:C3), are not supported");
       case "name":
