@@ -3,6 +3,7 @@
  * the JUnit XML that CI services read. Both are built from the same records: a workbook's
  * formulas with their status, messages and a kept cross-check's diagnosis.
  */
+import { GENERAL_CAUTIONS } from "../workbook/audit";
 import type { Diagnosis } from "../workbook/crossCheck";
 import type { CellValue } from "../workbook/model";
 import type { CellOutcome, RecalcResult, Status } from "../workbook/recalc";
@@ -120,7 +121,8 @@ export function jsonReport(command: "recalc" | "audit", workbooks: readonly Work
     totals.warning += w.counts.warning;
     totals.error += w.counts.error;
   }
-  return `${JSON.stringify({ format: "nappe-report", version: JSON_VERSION, command, exit, totals, workbooks }, null, 2)}\n`;
+  // The cautions every report carries: sizing is a design aid, and the work can hurt people.
+  return `${JSON.stringify({ format: "nappe-report", version: JSON_VERSION, command, exit, totals, cautions: GENERAL_CAUTIONS, workbooks }, null, 2)}\n`;
 }
 
 function xml(text: string): string {
@@ -148,6 +150,7 @@ export function junitXml(suites: readonly { name: string; cases: readonly JunitC
   const out = [`<?xml version="1.0" encoding="UTF-8"?>`, `<testsuites name="nappe" tests="${total(tests)}" failures="${total(failures)}" errors="${total(errors)}">`];
   for (const s of suites) {
     out.push(`  <testsuite name="${xml(s.name)}" tests="${tests(s)}" failures="${failures(s)}" errors="${errors(s)}">`);
+    out.push("    <properties>", ...GENERAL_CAUTIONS.map((c) => `      <property name="caution" value="${xml(c)}"/>`), "    </properties>");
     if (s.error) out.push(`    <testcase classname="${xml(s.name)}" name="read the workbook">`, `      <error message="${xml(s.error)}">${xml(s.error)}</error>`, "    </testcase>");
     for (const c of s.cases) {
       out.push(`    <testcase classname="${xml(c.classname)}" name="${xml(c.name)}">`);

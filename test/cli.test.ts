@@ -136,6 +136,8 @@ describe("output for machines", () => {
     const recalc = expectSchema((await nappe(["recalc", slipped, "--format", "json"])).stdout);
     const formula = (recalc.workbooks as { formulas: { diagnosis?: { verdict: string; firstDeparture: { symbol: string } } }[] }[])[0].formulas[0];
     expect(formula.diagnosis).toMatchObject({ verdict: "differs", firstDeparture: { symbol: "V²/2g" } });
+    // The cautions travel with the machine output too.
+    expect((recalc.cautions as string[]).join(" ")).toMatch(/licensed engineer.*can hurt people/);
     const audit = await nappe(["audit", slipped, "--format", "json", "--html", join(dir, "g.html"), "--xlsx", join(dir, "g.xlsx"), "--text", join(dir, "g.txt")]);
     expect(expectSchema(audit.stdout)).toMatchObject({ command: "audit", exit: 0 });
     expectSchema((await nappe(["diff", clean, slipped, "--format", "json"])).stdout);
@@ -159,6 +161,7 @@ describe("output for machines", () => {
     expect(suites[1].testcase[0].name).toMatch(/^Calc!B18 =NAPPE\.CROSSCHECK/);
     expect(suites[1].testcase[0].failure!.message).toMatch(/differs from the value cached in the file \(0\.5\)/);
     expect(doc.testsuites).toMatchObject({ tests: "2", failures: "1", errors: "0" });
+    expect(r.stdout).toContain('<property name="caution" value="Pressurised systems, surge, cavitation, motors and public water features can hurt people."/>');
   });
 });
 

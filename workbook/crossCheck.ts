@@ -19,6 +19,7 @@
  * from the arguments its NAPPE call passes.
  */
 import { evaluate, type Evaluation, type RawArg } from "../functions/bind/evaluate";
+import { STANDARD_ATMOSPHERE } from "../functions/calc/_lib/constants";
 import { haalandFriction, swameeJainFriction } from "../functions/calc/friction";
 import { CATALOG_BY_ID } from "../functions/catalog";
 import type { FunctionSpec } from "../functions/catalog/types";
@@ -210,9 +211,9 @@ function rawOf(c: HandCell, dim: Dimension, ref = ""): { raw: RawArg; shown: str
     const unit = /psig/i.test(c.label) ? "psi" : /kpag/i.test(c.label) ? "kPa" : /barg/i.test(c.label) ? "bar" : c.unit?.unit ?? "Pa";
     const factor = toBase(c.label, 1, "pressure", unit);
     return {
-      raw: c.value * factor + 101325,
+      raw: c.value * factor + STANDARD_ATMOSPHERE,
       shown: `${formatQuantity(c.value, unit)} gauge + 101.325 kPa`,
-      written: `${ref}*${factor}+101325`,
+      written: `${ref}*${factor}+${STANDARD_ATMOSPHERE}`,
       note: `${ref || refText(c.sheet, c.address, "")} is a gauge pressure ("${c.label}"): Nappe adds the standard atmosphere, 101.325 kPa (use the site's, NAPPE.ATMPRESSURE(elevation), where it matters)`,
     };
   }
@@ -223,7 +224,9 @@ function rawOf(c: HandCell, dim: Dimension, ref = ""): { raw: RawArg; shown: str
 
 /** Parameters an input of the site or the water stands in for when the hand formula does not read it. */
 const ENVIRONMENT = ["temperature", "density", "kinematic_viscosity", "surface_pressure"];
-/** Densities engineers type for water whatever its temperature. */
+/** kg/m³ per lb/ft³ (NIST SP 811, appendix B: 1 lb/ft³ = 1.601 846 E+01 kg/m³). */
+const KG_M3_PER_LB_FT3 = 16.01846337396;
+/** Densities engineers type for water whatever its temperature (common practice: 1000 kg/m³, 62.4 lb/ft³, 998). */
 const ROUND_DENSITIES = [1000, 62.4, 62.43, 998];
 
 /** Numeric cells of the whole workbook labelled as `quantity` (the given sheet's first). */
@@ -315,8 +318,8 @@ function fillEnvironment(spec: FunctionSpec, src: CheckSource, sheet: string, gi
       inputs.push({ name, from: "20 degC", how: "assumed", shown: "20 °C" });
       incomplete.push("Nappe assumed 20 °C for the temperature: no cell in the workbook is labelled as one; point temperature at a cell or type it");
     } else if (name === "surface_pressure") {
-      raws[i] = 101325;
-      inputs.push({ name, from: "101325 Pa", how: "assumed", shown: "101.325 kPa" });
+      raws[i] = STANDARD_ATMOSPHERE;
+      inputs.push({ name, from: `${STANDARD_ATMOSPHERE} Pa`, how: "assumed", shown: "101.325 kPa" });
       incomplete.push("Nappe assumed the standard atmosphere, 101.325 kPa, for the surface pressure: no cell in the workbook is labelled as one");
     }
   }
@@ -418,8 +421,8 @@ function causesOf(spec: FunctionSpec, cells: readonly HandCell[], hand: HandCell
   const rho = density && typeof density.value === "number" ? density.value : undefined;
   const roundCell = constantCell("density", ROUND_DENSITIES);
   const roundText = textHas(/(^|[^\d.])1000\s*\*\s*(9\.8|32\.\d)|(9\.8\d*|32\.\d+)\s*\*\s*1000(?![\d.])|(^|[^\d.])62\.4\d?(?!\d)/);
-  if ((roundCell || roundText) && rho !== undefined && Math.abs(rho / (roundCell && roundCell.value < 100 ? roundCell.value * 16.01846337396 : 1000) - 1) > 1e-4) {
-    causes.push(`density ${roundCell ? `${formatNumber(roundCell.value)} in ${at(roundCell)}` : "1000 kg/m³ (62.4 lb/ft³) in the formula"} used instead of water at its temperature, ${us ? formatQuantity(rho / 16.01846337396, "lb/ft³") : formatQuantity(rho, "kg/m³")}`);
+  if ((roundCell || roundText) && rho !== undefined && Math.abs(rho / (roundCell && roundCell.value < 100 ? roundCell.value * KG_M3_PER_LB_FT3 : 1000) - 1) > 1e-4) {
+    causes.push(`density ${roundCell ? `${formatNumber(roundCell.value)} in ${at(roundCell)}` : "1000 kg/m³ (62.4 lb/ft³) in the formula"} used instead of water at its temperature, ${us ? formatQuantity(rho / KG_M3_PER_LB_FT3, "lb/ft³") : formatQuantity(rho, "kg/m³")}`);
   }
   const f = departed("f");
   const rr = ev.steps.find((s) => s.symbol === "ε/D");
